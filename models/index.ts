@@ -1,0 +1,280 @@
+/**
+ * Sequelize class models. `initModels(sequelize)` binds them to a connection;
+ * the schema itself comes from migrations/, never from sync().
+ */
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type ForeignKey,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Sequelize,
+} from "sequelize";
+
+export const ROLES = ["owner", "designer", "reviewer", "viewer"] as const;
+export type Role = (typeof ROLES)[number];
+
+export class User extends Model<InferAttributes<User>, InferCreationAttributes<User>> {
+  declare id: CreationOptional<string>;
+  declare email: string;
+  declare name: string;
+  declare passwordHash: string | null;
+  declare emailVerifiedAt: Date | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export class Workspace extends Model<InferAttributes<Workspace>, InferCreationAttributes<Workspace>> {
+  declare id: CreationOptional<string>;
+  declare name: string;
+  declare slug: string;
+  declare settings: CreationOptional<Record<string, unknown>>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export class Membership extends Model<InferAttributes<Membership>, InferCreationAttributes<Membership>> {
+  declare id: CreationOptional<string>;
+  declare workspaceId: ForeignKey<Workspace["id"]>;
+  declare userId: ForeignKey<User["id"]>;
+  declare role: Role;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export class LogicFamilyRecord extends Model<
+  InferAttributes<LogicFamilyRecord>,
+  InferCreationAttributes<LogicFamilyRecord>
+> {
+  declare id: CreationOptional<string>;
+  declare workspaceId: ForeignKey<Workspace["id"]> | null;
+  declare key: string;
+  declare name: string;
+  declare builtin: CreationOptional<boolean>;
+  declare data: Record<string, unknown>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export class Design extends Model<InferAttributes<Design>, InferCreationAttributes<Design>> {
+  declare id: CreationOptional<string>;
+  declare workspaceId: ForeignKey<Workspace["id"]>;
+  declare name: string;
+  declare description: CreationOptional<string>;
+  declare familyId: ForeignKey<LogicFamilyRecord["id"]>;
+  declare settings: CreationOptional<Record<string, unknown>>;
+  declare draftSource: CreationOptional<string>;
+  declare createdBy: ForeignKey<User["id"]>;
+  declare archivedAt: Date | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export class Revision extends Model<InferAttributes<Revision>, InferCreationAttributes<Revision>> {
+  declare id: CreationOptional<string>;
+  declare designId: ForeignKey<Design["id"]>;
+  declare number: number;
+  declare source: string;
+  declare familyId: ForeignKey<LogicFamilyRecord["id"]>;
+  declare familySnapshot: Record<string, unknown>;
+  declare settings: Record<string, unknown>;
+  declare stats: Record<string, unknown>;
+  declare authorId: ForeignKey<User["id"]>;
+  declare message: string;
+  declare createdAt: CreationOptional<Date>;
+}
+
+const uuid = { type: DataTypes.UUID, primaryKey: true, defaultValue: DataTypes.UUIDV4 };
+const json = (allowNull = false) => ({ type: DataTypes.JSONB, allowNull });
+
+/** Binds every model to the connection and declares the associations. */
+export function initModels(sequelize: Sequelize) {
+  const base = { sequelize, underscored: true, timestamps: true } as const;
+
+  User.init(
+    {
+      id: uuid,
+      email: { type: DataTypes.STRING(254), allowNull: false },
+      name: { type: DataTypes.STRING(120), allowNull: false },
+      passwordHash: { type: DataTypes.STRING(200), allowNull: true },
+      emailVerifiedAt: { type: DataTypes.DATE, allowNull: true },
+      createdAt: DataTypes.DATE,
+      updatedAt: DataTypes.DATE,
+    },
+    { ...base, tableName: "users" },
+  );
+  Workspace.init(
+    {
+      id: uuid,
+      name: { type: DataTypes.STRING(120), allowNull: false },
+      slug: { type: DataTypes.STRING(64), allowNull: false },
+      settings: { ...json(), defaultValue: {} },
+      createdAt: DataTypes.DATE,
+      updatedAt: DataTypes.DATE,
+    },
+    { ...base, tableName: "workspaces" },
+  );
+  Membership.init(
+    {
+      id: uuid,
+      role: { type: DataTypes.ENUM(...ROLES), allowNull: false },
+      createdAt: DataTypes.DATE,
+      updatedAt: DataTypes.DATE,
+    },
+    { ...base, tableName: "memberships" },
+  );
+  LogicFamilyRecord.init(
+    {
+      id: uuid,
+      key: { type: DataTypes.STRING(64), allowNull: false },
+      name: { type: DataTypes.STRING(120), allowNull: false },
+      builtin: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+      data: json(),
+      createdAt: DataTypes.DATE,
+      updatedAt: DataTypes.DATE,
+    },
+    { ...base, tableName: "logic_families" },
+  );
+  Design.init(
+    {
+      id: uuid,
+      name: { type: DataTypes.STRING(120), allowNull: false },
+      description: { type: DataTypes.TEXT, allowNull: false, defaultValue: "" },
+      settings: { ...json(), defaultValue: {} },
+      draftSource: { type: DataTypes.TEXT, allowNull: false, defaultValue: "" },
+      archivedAt: { type: DataTypes.DATE, allowNull: true },
+      createdAt: DataTypes.DATE,
+      updatedAt: DataTypes.DATE,
+    },
+    { ...base, tableName: "designs" },
+  );
+  Revision.init(
+    {
+      id: uuid,
+      number: { type: DataTypes.INTEGER, allowNull: false },
+      source: { type: DataTypes.TEXT, allowNull: false },
+      familySnapshot: json(),
+      settings: json(),
+      stats: json(),
+      message: { type: DataTypes.TEXT, allowNull: false },
+      createdAt: DataTypes.DATE,
+    },
+    {
+      ...base,
+      tableName: "revisions",
+      updatedAt: false,
+      hooks: {
+        // The database trigger is the authority; these give a clearer error first.
+        beforeUpdate: () => {
+          throw new Error("revisions are immutable: save a new revision instead");
+        },
+        beforeDestroy: () => {
+          throw new Error("revisions are immutable: they cannot be deleted");
+        },
+        beforeBulkUpdate: () => {
+          throw new Error("revisions are immutable: save a new revision instead");
+        },
+        beforeBulkDestroy: () => {
+          throw new Error("revisions are immutable: they cannot be deleted");
+        },
+      },
+    },
+  );
+
+  Workspace.hasMany(Membership, { foreignKey: "workspaceId", as: "memberships" });
+  Membership.belongsTo(Workspace, { foreignKey: "workspaceId", as: "workspace" });
+  User.hasMany(Membership, { foreignKey: "userId", as: "memberships" });
+  Membership.belongsTo(User, { foreignKey: "userId", as: "user" });
+  Workspace.hasMany(LogicFamilyRecord, { foreignKey: "workspaceId", as: "families" });
+  LogicFamilyRecord.belongsTo(Workspace, { foreignKey: "workspaceId", as: "workspace" });
+  Workspace.hasMany(Design, { foreignKey: "workspaceId", as: "designs" });
+  Design.belongsTo(Workspace, { foreignKey: "workspaceId", as: "workspace" });
+  Design.belongsTo(LogicFamilyRecord, { foreignKey: "familyId", as: "family" });
+  Design.belongsTo(User, { foreignKey: "createdBy", as: "creator" });
+  Design.hasMany(Revision, { foreignKey: "designId", as: "revisions" });
+  Revision.belongsTo(Design, { foreignKey: "designId", as: "design" });
+  Revision.belongsTo(User, { foreignKey: "authorId", as: "author" });
+  Revision.belongsTo(LogicFamilyRecord, { foreignKey: "familyId", as: "family" });
+
+  EmailToken.init(
+    {
+      id: uuid,
+      purpose: { type: DataTypes.STRING(16), allowNull: false },
+      email: { type: DataTypes.STRING(254), allowNull: false },
+      tokenHash: { type: DataTypes.STRING(64), allowNull: false },
+      expiresAt: { type: DataTypes.DATE, allowNull: false },
+      usedAt: { type: DataTypes.DATE, allowNull: true },
+      createdAt: DataTypes.DATE,
+    },
+    { ...base, tableName: "email_tokens", updatedAt: false },
+  );
+  Invitation.init(
+    {
+      id: uuid,
+      email: { type: DataTypes.STRING(254), allowNull: false },
+      role: { type: DataTypes.ENUM(...ROLES), allowNull: false },
+      tokenHash: { type: DataTypes.STRING(64), allowNull: false },
+      expiresAt: { type: DataTypes.DATE, allowNull: false },
+      acceptedAt: { type: DataTypes.DATE, allowNull: true },
+      revokedAt: { type: DataTypes.DATE, allowNull: true },
+      createdAt: DataTypes.DATE,
+      updatedAt: DataTypes.DATE,
+    },
+    { ...base, tableName: "invitations" },
+  );
+  ApiToken.init(
+    {
+      id: uuid,
+      name: { type: DataTypes.STRING(80), allowNull: false },
+      prefix: { type: DataTypes.STRING(16), allowNull: false },
+      tokenHash: { type: DataTypes.STRING(64), allowNull: false },
+      expiresAt: { type: DataTypes.DATE, allowNull: false },
+      lastUsedAt: { type: DataTypes.DATE, allowNull: true },
+      revokedAt: { type: DataTypes.DATE, allowNull: true },
+      createdAt: DataTypes.DATE,
+    },
+    { ...base, tableName: "api_tokens", updatedAt: false },
+  );
+  Invitation.belongsTo(Workspace, { foreignKey: "workspaceId", as: "workspace" });
+  Invitation.belongsTo(User, { foreignKey: "invitedBy", as: "inviter" });
+  ApiToken.belongsTo(User, { foreignKey: "userId", as: "user" });
+
+  return { User, Workspace, Membership, LogicFamilyRecord, Design, Revision, EmailToken, Invitation, ApiToken };
+}
+
+export class EmailToken extends Model<InferAttributes<EmailToken>, InferCreationAttributes<EmailToken>> {
+  declare id: CreationOptional<string>;
+  declare purpose: "signin" | "reset";
+  declare email: string;
+  declare tokenHash: string;
+  declare expiresAt: Date;
+  declare usedAt: Date | null;
+  declare createdAt: CreationOptional<Date>;
+}
+
+export class Invitation extends Model<InferAttributes<Invitation>, InferCreationAttributes<Invitation>> {
+  declare id: CreationOptional<string>;
+  declare workspaceId: ForeignKey<Workspace["id"]>;
+  declare email: string;
+  declare role: Role;
+  declare tokenHash: string;
+  declare invitedBy: ForeignKey<User["id"]>;
+  declare expiresAt: Date;
+  declare acceptedAt: Date | null;
+  declare revokedAt: Date | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export class ApiToken extends Model<InferAttributes<ApiToken>, InferCreationAttributes<ApiToken>> {
+  declare id: CreationOptional<string>;
+  declare userId: ForeignKey<User["id"]>;
+  declare name: string;
+  declare prefix: string;
+  declare tokenHash: string;
+  declare expiresAt: Date;
+  declare lastUsedAt: Date | null;
+  declare revokedAt: Date | null;
+  declare createdAt: CreationOptional<Date>;
+}

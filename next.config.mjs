@@ -1,0 +1,13 @@
+/** @type {import('next').NextConfig} */
+const nextConfig = {
+  // Sequelize loads its dialect at run time; bundling it breaks the server build.
+  serverExternalPackages: ["sequelize", "pg", "pg-hstore", "logic-solver", "highs", "elkjs", "nodemailer"],
+  poweredByHeader: false,
+  reactStrictMode: true,
+  typedRoutes: false,
+  outputFileTracingRoot: import.meta.dirname,
+  // The test command builds into its own folder so a running `npm start` keeps its build.
+  distDir: process.env.FANBOUND_DIST_DIR || ".next",
+};
+
+export default nextConfig;
