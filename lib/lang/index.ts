@@ -1,0 +1,67 @@
+/**
+ * The Fanbound equation language: parse, check, elaborate and format.
+ * Pure: no I/O. Two entry points for most callers, compileSource and
+ * formatSource; the stages are exported for the editor and the tests.
+ */
+import type { FunctionSpec } from "../logic/index";
+import type { Program } from "./ast";
+import { checkProgram, hasErrors } from "./check";
+import { sortDiagnostics, type Diagnostic } from "./diagnostics";
+import { checkNeverCoverage, elaborate } from "./elaborate";
+import { formatProgram } from "./format";
+import { withDefaults, type LanguageLimits } from "./limits";
+import { parseSource } from "./parse";
+
+export type { Diagnostic } from "./diagnostics";
+export type { Program, Statement, Expr, Rhs, SetClause, IndexItem, Name, Range, Comment } from "./ast";
+export type { LanguageLimits } from "./limits";
+export { DEFAULT_LIMITS } from "./limits";
+export { parseSource, type ParseResult } from "./parse";
+export { KEYWORDS } from "./tokens";
+export { formatExpr } from "./format";
+export { symbolTable, type SymbolInfo } from "./symbols";
+
+export interface CompiledSource {
+  /** Errors and warnings, ordered by position. */
+  diagnostics: Diagnostic[];
+  /** The elaborated function; null when any diagnostic is an error. */
+  spec: FunctionSpec | null;
+  /**
+   * The statements that parsed (lines with syntax errors are left out, so the
+   * editor can still offer names); null only when a size limit stopped parsing.
+   */
+  ast: Program | null;
+}
+
+/**
+ * Parses, checks and elaborates a source. Meaning checks run only when the
+ * source has no syntax errors, so one mistake gives one diagnostic.
+ * Limits default to DEFAULT_LIMITS (200000 characters, 2000 statements,
+ * 30 inputs per output, 100000 product terms). Never throws on any text.
+ */
+export function compileSource(source: string, options?: LanguageLimits): CompiledSource {
+  const limits = withDefaults(options);
+  const parsed = parseSource(source, limits);
+  const diagnostics = [...parsed.diagnostics];
+  const ast = parsed.complete ? parsed.program : null;
+  if (hasErrors(diagnostics)) return { diagnostics: sortDiagnostics(diagnostics), spec: null, ast };
+  const checked = checkProgram(parsed.program, diagnostics);
+  if (hasErrors(diagnostics)) return { diagnostics: sortDiagnostics(diagnostics), spec: null, ast };
+  const spec = elaborate(checked, limits, diagnostics);
+  const neverRanges = parsed.program.statements.filter((s) => s.kind === "never").map((s) => s.range);
+  checkNeverCoverage(checked, limits, diagnostics, neverRanges);
+  return { diagnostics: sortDiagnostics(diagnostics), spec: hasErrors(diagnostics) ? null : spec, ast };
+}
+
+/**
+ * Prints the canonical form of a source: one statement per line, single
+ * spaces around binary operators, postfix ' for NOT, the fewest parentheses,
+ * comments kept, runs of blank lines shortened to one, block bodies indented
+ * by two spaces. Formatting twice changes nothing and keeps every function.
+ * Returns the syntax diagnostics instead when the source does not parse.
+ */
+export function formatSource(source: string): { text: string } | { diagnostics: Diagnostic[] } {
+  const parsed = parseSource(source);
+  if (hasErrors(parsed.diagnostics)) return { diagnostics: sortDiagnostics(parsed.diagnostics) };
+  return { text: formatProgram(parsed.program) };
+}

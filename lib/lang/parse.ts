@@ -1,0 +1,170 @@
+/**
+ * Source text → AST with syntax diagnostics.
+ *
+ * The token stream is cut into logical lines first (a newline ends a
+ * statement unless the line ends with an operator, a comma, '(' or '='), and
+ * each line is parsed on its own. A mistake therefore yields exactly one
+ * diagnostic and never disturbs the lines after it. Block headers and `end`
+ * are line statements too; grouping them into blocks happens here.
+ */
+import { EOF, type IToken } from "chevrotain";
+import type { Comment, Program, Range, Statement } from "./ast";
+import { buildStatement, tokenRange, type LineStatement } from "./build";
+import { error, positionAt, type Diagnostic } from "./diagnostics";
+import { lineParser } from "./grammar";
+import { withDefaults, type LanguageLimits } from "./limits";
+import { CONTINUES_LINE, lexer, Newline } from "./tokens";
+
+export interface ParseResult {
+  /** The statements that parsed; lines with errors are left out. */
+  program: Program;
+  /** Syntax and structure diagnostics (all errors). */
+  diagnostics: Diagnostic[];
+  /** False when a size limit stopped parsing before any statement was read. */
+  complete: boolean;
+}
+
+/**
+ * Parses a Fanbound source. Never throws; every diagnostic range lies inside
+ * the source. Limits used: maxSourceLength (default 200000 characters) and
+ * maxStatements (default 2000).
+ */
+export function parseSource(source: string, options?: LanguageLimits): ParseResult {
+  const limits = withDefaults(options);
+  const diagnostics: Diagnostic[] = [];
+  const empty: Program = { statements: [], comments: [], blankLines: [] };
+  if (source.length > limits.maxSourceLength) {
+    const p = positionAt(source, limits.maxSourceLength);
+    diagnostics.push(
+      error(
+        `the source is ${source.length} characters long; the limit is ${limits.maxSourceLength} (maxSourceLength). Split the design into smaller designs or raise the limit`,
+        { line: p.line, column: p.column, endLine: p.line, endColumn: p.column },
+      ),
+    );
+    return { program: empty, diagnostics, complete: false };
+  }
+
+  const lexed = lexer.tokenize(source);
+  const badLines = new Set<number>();
+  for (const e of lexed.errors) {
+    const line = e.line ?? 1;
+    const column = e.column ?? 1;
+    badLines.add(line);
+    diagnostics.push(error(e.message, { line, column, endLine: line, endColumn: column + e.length }));
+  }
+
+  const lines: IToken[][] = [];
+  let current: IToken[] = [];
+  for (const t of lexed.tokens) {
+    if (t.tokenType === Newline) {
+      if (current.length > 0 && !CONTINUES_LINE.has(current[current.length - 1]!.tokenType)) {
+        lines.push(current);
+        current = [];
+      }
+    } else {
+      current.push(t);
+    }
+  }
+  if (current.length > 0) lines.push(current);
+
+  if (lines.length > limits.maxStatements) {
+    const first = lines[limits.maxStatements]![0]!;
+    diagnostics.push(
+      error(
+        `the source has ${lines.length} statements; the limit is ${limits.maxStatements} (maxStatements). Move reusable parts into blocks or split the design`,
+        tokenRange(first),
+      ),
+    );
+    return { program: empty, diagnostics, complete: false };
+  }
+
+  const parser = lineParser();
+  const lineStatements: LineStatement[] = [];
+  for (const line of lines) {
+    const startLine = line[0]!.startLine!;
+    const endLine = line[line.length - 1]!.endLine!;
+    let skip = false;
+    for (let l = startLine; l <= endLine; l++) if (badLines.has(l)) skip = true;
+    if (skip) continue;
+    parser.input = line;
+    const cst = parser.statement();
+    if (parser.errors.length > 0) {
+      const e = parser.errors[0]!;
+      const tok = e.token;
+      const range =
+        tok.tokenType === EOF || !Number.isFinite(tok.startOffset) ? tokenRange(line[line.length - 1]!) : tokenRange(tok);
+      diagnostics.push(error(e.message, range));
+      continue;
+    }
+    lineStatements.push(buildStatement(cst));
+  }
+
+  const statements = groupBlocks(lineStatements, diagnostics);
+
+  const codeLines = new Set<number>();
+  for (const t of lexed.tokens) if (t.tokenType !== Newline) codeLines.add(t.startLine!);
+  const comments: Comment[] = (lexed.groups.comments ?? []).map((t) => ({
+    text: t.image.replace(/\s+$/, ""),
+    range: tokenRange(t),
+    trailing: codeLines.has(t.startLine!),
+  }));
+  const commentLines = new Set(comments.map((c) => c.range.line));
+  const lineCount = source.split("\n").length;
+  const blankLines: number[] = [];
+  for (let l = 1; l <= lineCount; l++) if (!codeLines.has(l) && !commentLines.has(l) && !badLines.has(l)) blankLines.push(l);
+
+  return { program: { statements, comments, blankLines }, diagnostics, complete: true };
+}
+
+const notInBlock: Record<string, string> = {
+  inputs: "inputs are declared once for the design; a block's inputs are its parameters",
+  outputs: "outputs are declared once for the design; a block's results follow -> in its header",
+  never: "impossible combinations belong to the design, not to a block; move this never line out of the block",
+  use: "library blocks are brought in at the top of the design, not inside a block",
+};
+
+function groupBlocks(lines: LineStatement[], diagnostics: Diagnostic[]): Statement[] {
+  const top: Statement[] = [];
+  let open: Extract<Statement, { kind: "block" }> | null = null;
+  const close = (at: Range | null) => {
+    if (!open) return;
+    if (at) open.range = { ...open.range, endLine: at.endLine, endColumn: at.endColumn };
+    top.push(open);
+    open = null;
+  };
+  for (const s of lines) {
+    if (s.kind === "blockHeader") {
+      if (open) {
+        const o: Extract<Statement, { kind: "block" }> = open;
+        diagnostics.push(
+          error(`block '${s.name.text}' starts before block '${o.name.text}' has ended; add end after the body of '${o.name.text}'`, s.range),
+        );
+        close(null);
+      }
+      open = { kind: "block", name: s.name, params: s.params, results: s.results, body: [], range: s.range, headerRange: s.range };
+      continue;
+    }
+    if (s.kind === "end") {
+      if (!open) diagnostics.push(error("end without a block to close; remove it or add a block header above", s.range));
+      else close(s.range);
+      continue;
+    }
+    if (open) {
+      const o: Extract<Statement, { kind: "block" }> = open;
+      const why = notInBlock[s.kind];
+      if (why) {
+        diagnostics.push(error(`not allowed inside block '${o.name.text}': ${why}`, s.range));
+        continue;
+      }
+      o.body.push(s);
+    } else {
+      top.push(s);
+    }
+  }
+  if (open) {
+    const o: Extract<Statement, { kind: "block" }> = open;
+    diagnostics.push(error(`block '${o.name.text}' has no end; add a line with end after its body`, o.headerRange));
+    close(null);
+  }
+  return top;
+}
