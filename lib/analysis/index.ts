@@ -1,0 +1,241 @@
+/**
+ * Figures a designer signs off: gate and package counts, transistors, depth,
+ * critical path delay, static and dynamic power, each net's load against its
+ * limit. Delay, power and loading are estimates from the family's typical
+ * figures and each carries CAUTION.
+ */
+import type { Family, GateType } from "../families/types";
+import { familyFanOut, offeredGates } from "../families/derive";
+import type { Gate, Netlist } from "../map/netlist";
+import { CONST0, CONST1, topoOrder } from "../map/netlist";
+
+export const CAUTION =
+  "Estimate from the family's typical figures — check the data sheets of the parts you use and your own design rules.";
+
+export interface AnalysisOptions {
+  /** Fan-out limit per net in unit loads; default: the family's. */
+  fanOut?: number;
+  /** Load of each output pin in unit loads; default 1. */
+  outputPinLoad?: number;
+  /** Clock frequency for dynamic power, MHz; default 10. */
+  clockMHz?: number;
+  /**
+   * Activity factor: the share of clock cycles in which a net makes a 0→1
+   * transition; default 0.25 (a random signal with equal chances of 0 and 1).
+   */
+  activity?: number;
+}
+
+export interface TypeWidthRow {
+  type: GateType;
+  width: number;
+  count: number;
+  /** Gates of this type and width per package, null when the family does not say. */
+  perPackage: number | null;
+  packages: number | null;
+}
+
+export interface NetLoadRow {
+  net: string;
+  /** Unit loads: gate inputs fed plus output pin load. */
+  load: number;
+  limit: number;
+  status: "ok" | "at-limit" | "over";
+  driver: string;
+}
+
+export interface Estimate {
+  value: number | null;
+  unit: string;
+  formula: string;
+  caution: string;
+  note?: string;
+}
+
+export interface Analysis {
+  gates: number;
+  byType: Partial<Record<GateType, number>>;
+  byTypeWidth: TypeWidthRow[];
+  packages: number | null;
+  packagesNote?: string;
+  transistors: number | null;
+  transistorsNote?: string;
+  /** Gate levels on the longest path from an input to an output. */
+  depth: number;
+  criticalPath: { nets: string[]; gates: string[]; levels: number; delay: Estimate };
+  staticPower: Estimate;
+  dynamicPower: Estimate;
+  loads: NetLoadRow[];
+  maxLoad: number;
+  warnings: string[];
+  caution: string;
+}
+
+const r3 = (x: number) => Math.round(x * 1000) / 1000;
+
+/** Analyses a mapped netlist against its family. */
+export function analyse(netlist: Netlist, family: Family, options: AnalysisOptions = {}): Analysis {
+  const fanOut = options.fanOut ?? familyFanOut(family);
+  const pinLoad = options.outputPinLoad ?? 1;
+  const clockMHz = options.clockMHz ?? 10;
+  const activity = options.activity ?? 0.25;
+  const warnings: string[] = [];
+  const gates = topoOrder(netlist);
+
+  // ---- counts ----
+  const byType: Partial<Record<GateType, number>> = {};
+  const tw = new Map<string, TypeWidthRow>();
+  const offers = offeredGates(family);
+  for (const g of gates) {
+    byType[g.type] = (byType[g.type] ?? 0) + 1;
+    const key = `${g.type}/${g.inputs.length}`;
+    let row = tw.get(key);
+    if (!row) {
+      const per = offers.find((o) => o.type === g.type)?.widths.find((w) => w.width === g.inputs.length)?.perPackage ?? null;
+      row = { type: g.type, width: g.inputs.length, count: 0, perPackage: family.gates ? per : null, packages: null };
+      tw.set(key, row);
+    }
+    row.count++;
+  }
+  const byTypeWidth = [...tw.values()].sort((a, b) => a.type.localeCompare(b.type) || a.width - b.width);
+  for (const row of byTypeWidth) row.packages = row.perPackage ? Math.ceil(row.count / row.perPackage) : null;
+  let packages: number | null = byTypeWidth.reduce((s, r) => s + (r.packages ?? 0), 0);
+  let packagesNote: string | undefined;
+  const unknownPk = byTypeWidth.filter((r) => r.packages === null);
+  if (unknownPk.length) {
+    packagesNote = `not counted: the family does not say how many ${unknownPk.map((r) => `${r.width}-input ${r.type}`).join(", ")} gates fit one package`;
+    if (unknownPk.length === byTypeWidth.length) packages = null;
+  }
+
+  let transistors: number | null = null;
+  let transistorsNote: string | undefined;
+  if (family.transistors) {
+    let t = 0;
+    const missing = new Set<string>();
+    for (const g of gates) {
+      const m = family.transistors[g.type];
+      if (m) t += m.base + m.perInput * g.inputs.length;
+      else missing.add(g.type);
+    }
+    transistors = t;
+    if (missing.size) transistorsNote = `${[...missing].join(", ")} gates not counted: the family gives no transistor count for them`;
+  } else transistorsNote = "not counted: the family gives no transistor counts";
+
+  // ---- loads ----
+  const load = new Map<string, number>();
+  const add = (net: string, w: number) => {
+    if (net !== CONST0 && net !== CONST1) load.set(net, (load.get(net) ?? 0) + w);
+  };
+  for (const g of gates) for (const i of g.inputs) add(i, 1);
+  for (const o of netlist.outputs) add(o.net, pinLoad);
+  const driverName = new Map<string, string>();
+  for (const i of netlist.inputs) driverName.set(i, "input");
+  for (const r of netlist.complements) driverName.set(r.net, "input");
+  for (const g of gates) driverName.set(g.output, g.id);
+  const loads: NetLoadRow[] = [...load.entries()].map(([net, l]) => ({
+    net,
+    load: r3(l),
+    limit: fanOut,
+    status: l > fanOut + 1e-9 ? "over" : Math.abs(l - fanOut) < 1e-9 ? "at-limit" : "ok",
+    driver: driverName.get(net) ?? "?",
+  }));
+  const maxLoad = Math.max(0, ...loads.map((l) => l.load));
+  for (const l of loads) if (l.status === "over") warnings.push(`net ${l.net} carries ${l.load} unit loads, over the fan-out of ${fanOut}`);
+
+  // ---- depth and critical path ----
+  const hasDelay = family.intrinsicNs !== undefined;
+  const gateDelay = (g: Gate) => (family.intrinsicNs ?? 0) + (family.perLoadNs ?? 0) * (load.get(g.output) ?? 0);
+  const level = new Map<string, number>();
+  const arrival = new Map<string, number>();
+  const via = new Map<string, Gate>();
+  for (const g of gates) {
+    let lv = 0;
+    let at = 0;
+    let from: string | undefined;
+    for (const i of g.inputs) {
+      lv = Math.max(lv, level.get(i) ?? 0);
+      const a = hasDelay ? (arrival.get(i) ?? 0) : (level.get(i) ?? 0);
+      if (from === undefined || a > at) {
+        at = a;
+        from = i;
+      }
+    }
+    level.set(g.output, lv + 1);
+    arrival.set(g.output, at + (hasDelay ? gateDelay(g) : 1));
+    via.set(g.output, g);
+  }
+  const depth = Math.max(0, ...netlist.outputs.map((o) => level.get(o.net) ?? 0));
+  let endNet: string | undefined;
+  for (const o of netlist.outputs) if (endNet === undefined || (arrival.get(o.net) ?? 0) > (arrival.get(endNet) ?? 0)) endNet = o.net;
+  const pathGates: string[] = [];
+  const pathNets: string[] = [];
+  let net = endNet;
+  while (net !== undefined) {
+    pathNets.unshift(net);
+    const g = via.get(net);
+    if (!g) break;
+    pathGates.unshift(g.id);
+    let best: string | undefined;
+    for (const i of g.inputs) if (best === undefined || (arrival.get(i) ?? 0) > (arrival.get(best) ?? 0)) best = i;
+    net = best;
+  }
+  const delayNs = endNet !== undefined && hasDelay ? r3(arrival.get(endNet) ?? 0) : hasDelay ? 0 : null;
+  const delay: Estimate = {
+    value: delayNs,
+    unit: "ns",
+    formula: hasDelay
+      ? `Σ over the path of (t_intrinsic ${family.intrinsicNs} ns + ${family.perLoadNs ?? 0} ns × unit loads driven)`
+      : "not estimated: the family gives no delay model",
+    caution: CAUTION,
+    ...(hasDelay ? {} : { note: "the family gives no intrinsic delay" }),
+  };
+
+  // ---- power ----
+  const v = family.supplyV;
+  const staticPower: Estimate =
+    family.staticMaPerGate !== undefined && v !== undefined
+      ? {
+          value: r3(family.staticMaPerGate * v * gates.length),
+          unit: "mW",
+          formula: `I_static ${family.staticMaPerGate} mA × ${v} V × ${gates.length} gates`,
+          caution: CAUTION,
+        }
+      : { value: null, unit: "mW", formula: "not estimated: the family gives no supply current or supply voltage", caution: CAUTION };
+  let dynamicPower: Estimate;
+  if (family.inputCapPf !== undefined && v !== undefined) {
+    let cTotal = 0;
+    for (const g of gates) cTotal += (load.get(g.output) ?? 0) * family.inputCapPf + (family.wiringPf ?? 0) + (family.powerCapPf ?? 0);
+    // pF · V² · MHz = µW
+    const mW = (cTotal * v * v * clockMHz * activity) / 1000;
+    dynamicPower = {
+      value: r3(mW),
+      unit: "mW",
+      formula: `C · V² · f · activity = ${r3(cTotal)} pF × (${v} V)² × ${clockMHz} MHz × ${activity}` +
+        ` (C = Σ per gate of unit loads × ${family.inputCapPf} pF + wiring ${family.wiringPf ?? 0} pF + internal ${family.powerCapPf ?? 0} pF)`,
+      caution: CAUTION,
+    };
+  } else {
+    dynamicPower = { value: null, unit: "mW", formula: "not estimated: the family gives no input capacitance or supply voltage", caution: CAUTION };
+  }
+  if (delay.value === null) warnings.push("critical-path delay not estimated: the family gives no delay model");
+  if (staticPower.value === null) warnings.push("static power not estimated: the family gives no supply current or voltage");
+  if (dynamicPower.value === null) warnings.push("dynamic power not estimated: the family gives no input capacitance or voltage");
+
+  return {
+    gates: gates.length,
+    byType,
+    byTypeWidth,
+    packages,
+    ...(packagesNote ? { packagesNote } : {}),
+    transistors,
+    ...(transistorsNote ? { transistorsNote } : {}),
+    depth,
+    criticalPath: { nets: pathNets, gates: pathGates, levels: pathGates.length, delay },
+    staticPower,
+    dynamicPower,
+    loads,
+    maxLoad,
+    warnings,
+    caution: CAUTION,
+  };
+}

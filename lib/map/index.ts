@@ -1,0 +1,5 @@
+/** The mapper: covers → family gates → verified netlist. */
+export * from "./netlist";
+export * from "./trees";
+export * from "./verify";
+export * from "./mapper";

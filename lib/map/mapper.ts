@@ -1,0 +1,421 @@
+/**
+ * Maps minimized covers onto a family's gates: fan-in trees of minimum depth,
+ * inverting forms kept through the trees, shared inverters and product terms,
+ * fan-out buffer trees, then verification against the specification.
+ */
+import type { Cube, FunctionSpec } from "../logic/index";
+import type { Family, GateType } from "../families/types";
+import { familyFanOut, offeredGates } from "../families/derive";
+import type { Gate, GateRole, Netlist, NetlistOutput } from "./netlist";
+import { CONST0, CONST1, topoOrder } from "./netlist";
+import { mergeByArrival, planBufferTree, type Group } from "./trees";
+import type { VerifyResult, VerifyTarget } from "./verify";
+import { verifyNetlist } from "./verify";
+
+export type TargetForm = "and-or" | "nand" | "nor" | "or-and" | "mixed";
+export const TARGET_FORMS: readonly TargetForm[] = ["and-or", "nand", "nor", "or-and", "mixed"];
+
+/** One output's cover: SOP cubes are products; POS cubes are sum terms ('1' plain literal, '0' complemented). */
+export interface CoverOutput {
+  name: string;
+  form: "sop" | "pos";
+  cubes: Cube[];
+}
+
+/** Structurally a subset of the minimizer's MinimizeResult. */
+export interface CoverSet {
+  inputs: string[];
+  outputs: CoverOutput[];
+}
+
+export interface MapOptions {
+  /** Gate set to use; default "and-or". The form does not change the cover: ask the minimizer for POS for "or-and"/"nor". */
+  form?: TargetForm;
+  /** Widest gate input allowed; caps the family's widths. Default: the family's own. */
+  fanIn?: number;
+  /** Fan-out in unit loads; default: the family's (user-set, else min(DC, AC)). */
+  fanOut?: number;
+  /** Complemented inputs are available from outside (no input inverters). Default false. */
+  complementedInputs?: boolean;
+  /** Load of each output pin in unit loads. Default 1. */
+  outputPinLoad?: number;
+  /** Specification to verify against; default: the covers themselves. */
+  spec?: FunctionSpec;
+  /** Verify before returning (default true). */
+  verify?: boolean;
+}
+
+export interface NetLoad {
+  net: string;
+  /** Unit loads on the net, output pins included. */
+  load: number;
+  limit: number;
+  /** Gate inputs fed. */
+  fanout: number;
+  pins: number;
+}
+
+export interface MapResult {
+  netlist: Netlist;
+  verification: VerifyResult | null;
+  warnings: string[];
+  /** The widest gate width used as limit, and the fan-out applied. */
+  fanIn: number;
+  fanOut: number;
+  outputPinLoad: number;
+  form: TargetForm;
+  family: Family;
+}
+
+/** A mapping that cannot be done; the message says what to change. */
+export class MapError extends Error {
+  override name = "MapError";
+}
+
+// ---- internal tree of the logic to build ---------------------------------
+
+type Op = "and" | "or";
+type MNode =
+  | { kind: "const"; value: boolean }
+  | { kind: "lit"; input: number; plain: boolean }
+  | { kind: "op"; op: Op; kids: MNode[]; arrival: number };
+
+interface Choice {
+  gates: number;
+  depth: number;
+  type?: GateType;
+  invertOut?: boolean;
+  kidPol?: boolean;
+}
+
+/** For each gate type: the op it computes and the polarities: out = op(in) when out/in both true. */
+const IMPL: Record<Op, { type: GateType; outPlain: boolean; inPlain: boolean }[]> = {
+  and: [
+    { type: "AND", outPlain: true, inPlain: true },
+    { type: "NAND", outPlain: false, inPlain: true },
+    { type: "NOR", outPlain: true, inPlain: false },
+    { type: "OR", outPlain: false, inPlain: false },
+  ],
+  or: [
+    { type: "OR", outPlain: true, inPlain: true },
+    { type: "NOR", outPlain: false, inPlain: true },
+    { type: "NAND", outPlain: true, inPlain: false },
+    { type: "AND", outPlain: false, inPlain: false },
+  ],
+};
+
+const FORM_TYPES: Record<TargetForm, GateType[]> = {
+  "and-or": ["AND", "OR"],
+  "or-and": ["AND", "OR"],
+  nand: ["NAND"],
+  nor: ["NOR"],
+  mixed: ["AND", "OR", "NAND", "NOR"],
+};
+
+// An input inverter is shared by every use, so it is charged lightly.
+const SHARED_INVERTER_COST = 0.25;
+
+/**
+ * Maps covers onto a family. Throws MapError when the family cannot build the
+ * form (a gate type missing, a fan-out below 2) or when verification fails.
+ */
+export function mapCovers(covers: CoverSet, family: Family, options: MapOptions = {}): MapResult {
+  const form = options.form ?? "and-or";
+  const fam: Family = { ...family, ...(options.fanIn !== undefined ? { fanIn: options.fanIn } : {}) };
+  const fanOut = options.fanOut ?? familyFanOut(fam);
+  const pinLoad = options.outputPinLoad ?? 1;
+  const rails = options.complementedInputs ?? false;
+  const warnings: string[] = [];
+  if (!Number.isInteger(fanOut) || fanOut < 2) throw new MapError(`fan-out ${fanOut} is too small: give a whole number of at least 2`);
+  if (options.fanIn !== undefined && (!Number.isInteger(options.fanIn) || options.fanIn < 2)) {
+    throw new MapError(`fan-in ${options.fanIn} is too small: give a whole number of at least 2`);
+  }
+
+  const offers = offeredGates(fam);
+  const widths = new Map<GateType, number[]>();
+  for (const o of offers) widths.set(o.type, o.widths.map((w) => w.width));
+  const allowed = FORM_TYPES[form].filter((t) => (widths.get(t)?.length ?? 0) > 0);
+  if (allowed.length === 0) {
+    throw new MapError(`${family.name} offers no ${FORM_TYPES[form].join(" or ")} gates for the ${form} form; choose another form or family`);
+  }
+  const maxWidth = (t: GateType) => Math.max(0, ...(widths.get(t) ?? []));
+  const kOf = (op: Op) => Math.max(...IMPL[op].filter((i) => allowed.includes(i.type)).map((i) => maxWidth(i.type)));
+  const fitWidth = (t: GateType, m: number) => (widths.get(t) ?? []).find((w) => w >= m);
+  for (const op of ["and", "or"] as Op[]) {
+    if (kOf(op) < 2) throw new MapError(`${family.name} offers no gate of 2 or more inputs for the ${form} form; raise the fan-in or choose another family`);
+  }
+  const notOffered = (widths.get("NOT")?.length ?? 0) > 0;
+  const bufOffered = (widths.get("BUF")?.length ?? 0) > 0;
+
+  // ---- names ----
+  const n = covers.inputs.length;
+  const used = new Set<string>([...covers.inputs, ...covers.outputs.map((o) => o.name), CONST0, CONST1]);
+  let counter = 0;
+  const fresh = (prefix: string) => {
+    let name: string;
+    do name = `${prefix}${++counter}`;
+    while (used.has(name));
+    used.add(name);
+    return name;
+  };
+  const complements = rails
+    ? covers.inputs.map((input) => {
+        let net = `${input}_n`;
+        while (used.has(net)) net = `${net}_`;
+        used.add(net);
+        return { input, net };
+      })
+    : [];
+
+  // ---- build logic trees ----
+  const constNode = (v: boolean): MNode => ({ kind: "const", value: v });
+  const litArrival = (plain: boolean) => (plain || rails ? 0 : 1);
+  const arrivalOf = (x: MNode): number => (x.kind === "op" ? x.arrival : x.kind === "lit" ? litArrival(x.plain) : 0);
+
+  /** Splits an op over many kids into a tree no wider than the op's widest gate. */
+  const makeOp = (op: Op, kids: MNode[]): MNode => {
+    const identity = op === "and";
+    const ks = kids.filter((k) => !(k.kind === "const" && k.value === identity));
+    if (ks.some((k) => k.kind === "const")) return constNode(!identity);
+    if (ks.length === 0) return constNode(identity);
+    if (ks.length === 1) return ks[0]!;
+    const k = kOf(op);
+    const root = mergeByArrival(ks.map((item) => ({ item, arrival: arrivalOf(item) })), k);
+    const toNode = (g: Group<MNode>): MNode => ("leaf" in g ? g.leaf : { kind: "op", op, kids: g.kids.map(toNode), arrival: g.arrival });
+    return toNode(root);
+  };
+
+  const cubeLits = (c: Cube): MNode[] => {
+    const lits: MNode[] = [];
+    for (let i = 0; i < n; i++) {
+      const bit = 1 << (n - 1 - i);
+      if (c.mask & bit) lits.push({ kind: "lit", input: i, plain: (c.value & bit) !== 0 });
+    }
+    return lits;
+  };
+
+  const roots = covers.outputs.map((o) => {
+    if (o.form === "sop") return makeOp("or", o.cubes.map((c) => makeOp("and", cubeLits(c))));
+    return makeOp("and", o.cubes.map((c) => makeOp("or", cubeLits(c))));
+  });
+
+  // ---- choose gate types and polarities (cheapest gates, then least depth) ----
+  const memo = new Map<MNode, [Choice, Choice]>();
+  const better = (a: Choice, b: Choice) => a.gates < b.gates - 1e-9 || (Math.abs(a.gates - b.gates) < 1e-9 && a.depth < b.depth);
+  const cost = (x: MNode, pol: boolean): Choice => {
+    if (x.kind === "const") return { gates: 0, depth: 0 };
+    if (x.kind === "lit") return x.plain === pol || rails ? { gates: 0, depth: 0 } : { gates: SHARED_INVERTER_COST, depth: 1 };
+    let m = memo.get(x);
+    if (!m) {
+      const best: [Choice | null, Choice | null] = [null, null];
+      for (const impl of IMPL[x.op]) {
+        if (!allowed.includes(impl.type) || fitWidth(impl.type, x.kids.length) === undefined) continue;
+        let gates = 1;
+        let depth = 0;
+        for (const kid of x.kids) {
+          const c = cost(kid, impl.inPlain);
+          gates += c.gates;
+          depth = Math.max(depth, c.depth);
+        }
+        depth += 1;
+        for (const want of [false, true]) {
+          const inv = impl.outPlain !== want;
+          const c: Choice = { gates: gates + (inv ? 1 : 0), depth: depth + (inv ? 1 : 0), type: impl.type, invertOut: inv, kidPol: impl.inPlain };
+          const idx = want ? 1 : 0;
+          if (best[idx] === null || better(c, best[idx]!)) best[idx] = c;
+        }
+      }
+      if (!best[0] || !best[1]) throw new MapError(`no gate of the ${form} form is ${x.kids.length} inputs wide`);
+      m = [best[0], best[1]];
+      memo.set(x, m);
+    }
+    return m[pol ? 1 : 0];
+  };
+
+  // ---- emit gates ----
+  const gates: Gate[] = [];
+  const byKey = new Map<string, string>();
+  const driverOf = new Map<string, Gate>();
+  const inverted = new Map<string, string>();
+  const addGate = (type: GateType, inputs: string[], role: GateRole, key?: string): string => {
+    if (key !== undefined) {
+      const hit = byKey.get(key);
+      if (hit) return hit;
+    }
+    const output = fresh("n");
+    const g: Gate = { id: `g${gates.length + 1}`, type, inputs, output, role };
+    gates.push(g);
+    driverOf.set(output, g);
+    if (key !== undefined) byKey.set(key, output);
+    return output;
+  };
+  const invert = (net: string): string => {
+    if (net === CONST0) return CONST1;
+    if (net === CONST1) return CONST0;
+    const d = driverOf.get(net);
+    if (d && d.type === "NOT") return d.inputs[0]!;
+    const rail = complements.find((r) => r.input === net || r.net === net);
+    if (rail) return rail.input === net ? rail.net : rail.input;
+    const hit = inverted.get(net);
+    if (hit) return hit;
+    let out: string;
+    if (notOffered) out = addGate("NOT", [net], "inverter");
+    else {
+      const t = allowed.find((x) => x === "NAND" || x === "NOR") ?? (["NAND", "NOR"] as GateType[]).find((x) => (widths.get(x)?.length ?? 0) > 0);
+      if (!t) throw new MapError(`${family.name} offers no inverter (NOT, or a NAND/NOR to tie as one)`);
+      const w = widths.get(t)![0]!;
+      out = addGate(t, new Array(w).fill(net), "inverter");
+    }
+    inverted.set(net, out);
+    inverted.set(out, net);
+    return out;
+  };
+  const emit = (x: MNode, pol: boolean): string => {
+    if (x.kind === "const") return x.value === pol ? CONST1 : CONST0;
+    if (x.kind === "lit") {
+      const name = covers.inputs[x.input]!;
+      return x.plain === pol ? name : invert(name);
+    }
+    const c = cost(x, pol);
+    const type = c.type!;
+    const kidNets = x.kids.map((k) => emit(k, c.kidPol!));
+    const w = fitWidth(type, kidNets.length)!;
+    const tie = type === "AND" || type === "NAND" ? CONST1 : CONST0;
+    const inputs = [...kidNets, ...new Array<string>(w - kidNets.length).fill(tie)];
+    const key = `${type}(${[...kidNets].sort().join(",")}|${w})`;
+    const out = addGate(type, inputs, "logic", key);
+    return c.invertOut ? invert(out) : out;
+  };
+
+  const outNets = roots.map((r) => emit(r, true));
+
+  // ---- name output nets after their outputs ----
+  const rename = new Map<string, string>();
+  const outputs: NetlistOutput[] = covers.outputs.map((o, i) => {
+    const net = outNets[i]!;
+    if (driverOf.has(net) && !rename.has(net)) rename.set(net, o.name);
+    return { name: o.name, net: rename.get(net) ?? net };
+  });
+  const rn = (x: string) => rename.get(x) ?? x;
+  for (const g of gates) {
+    g.output = rn(g.output);
+    g.inputs = g.inputs.map(rn);
+  }
+  for (const o of outputs) o.net = rn(o.net);
+
+  // ---- remove gates that feed nothing (inverters made for a polarity later undone) ----
+  let live = pruneDead(gates, outputs);
+
+  // ---- fan-out: buffer trees where a load exceeds the fan-out ----
+  live = insertBuffers(live, outputs, fanOut, pinLoad, covers.inputs, complements.map((c) => c.net), fresh, bufOffered, warnings);
+  if (!bufOffered && live.some((g) => g.role === "buffer")) warnings.push(`${family.name} lists no buffer; BUF gates were used for the fan-out trees`);
+
+  const netlist: Netlist = { inputs: covers.inputs.slice(), outputs, gates: [], complements };
+  netlist.gates = live;
+  netlist.gates = topoOrder(netlist).map((g, i) => ({ ...g, id: `g${i + 1}` }));
+
+  let verification: VerifyResult | null = null;
+  if (options.verify !== false) {
+    const targets: VerifyTarget[] = options.spec
+      ? options.spec.outputs.map((o) => ({ name: o.name, on: o.on, dc: o.dc }))
+      : covers.outputs.map((o) =>
+          o.form === "sop" ? { name: o.name, on: o.cubes, dc: [] } : { name: o.name, off: o.cubes.map((c) => ({ value: (~c.value & c.mask) >>> 0, mask: c.mask })), dc: [] },
+        );
+    verification = verifyNetlist(netlist, options.spec?.inputs ?? covers.inputs, targets);
+    if (!verification.ok) {
+      const m = verification.mismatches[0]!;
+      throw new MapError(`internal check failed: output ${m.output} gives ${m.got} at inputs ${m.assignment} where ${m.expected} is specified; please report this design`);
+    }
+  }
+  return { netlist, verification, warnings, fanIn: Math.max(kOf("and"), kOf("or")), fanOut, outputPinLoad: pinLoad, form, family: fam };
+}
+
+function pruneDead(gates: Gate[], outputs: NetlistOutput[]): Gate[] {
+  const need = new Set(outputs.map((o) => o.net));
+  const driver = new Map(gates.map((g) => [g.output, g]));
+  const stack = [...need];
+  while (stack.length) {
+    const net = stack.pop()!;
+    const g = driver.get(net);
+    if (!g) continue;
+    for (const i of g.inputs) if (!need.has(i)) {
+      need.add(i);
+      stack.push(i);
+    }
+  }
+  return gates.filter((g) => need.has(g.output));
+}
+
+/** Longest path, in gates, from each net to any output (0 at an output pin). */
+function tails(gates: Gate[], outputs: NetlistOutput[]): Map<string, number> {
+  const readers = new Map<string, Gate[]>();
+  for (const g of gates) for (const i of new Set(g.inputs)) (readers.get(i) ?? readers.set(i, []).get(i)!).push(g);
+  const memo = new Map<string, number>();
+  const outs = new Set(outputs.map((o) => o.net));
+  const tail = (net: string): number => {
+    const m = memo.get(net);
+    if (m !== undefined) return m;
+    memo.set(net, 0);
+    let t = outs.has(net) ? 0 : -Infinity;
+    for (const g of readers.get(net) ?? []) t = Math.max(t, 1 + tail(g.output));
+    const v = Number.isFinite(t) ? t : 0;
+    memo.set(net, v);
+    return v;
+  };
+  for (const g of gates) tail(g.output);
+  for (const g of gates) for (const i of g.inputs) tail(i);
+  return memo;
+}
+
+function insertBuffers(
+  gates: Gate[],
+  outputs: NetlistOutput[],
+  fanOut: number,
+  pinLoad: number,
+  inputs: string[],
+  rails: string[],
+  fresh: (p: string) => string,
+  _bufOffered: boolean,
+  warnings: string[],
+): Gate[] {
+  const tail = tails(gates, outputs);
+  const loadsOf = new Map<string, { gate?: Gate; pin?: number; weight: number; criticality: number; pinned: boolean }[]>();
+  const push = (net: string, x: { gate?: Gate; pin?: number; weight: number; criticality: number; pinned: boolean }) =>
+    (loadsOf.get(net) ?? loadsOf.set(net, []).get(net)!).push(x);
+  for (const g of gates) g.inputs.forEach((i, pin) => {
+    if (i !== CONST0 && i !== CONST1) push(i, { gate: g, pin, weight: 1, criticality: 1 + (tail.get(g.output) ?? 0), pinned: false });
+  });
+  for (const o of outputs) if (o.net !== CONST0 && o.net !== CONST1) push(o.net, { weight: pinLoad, criticality: Infinity, pinned: true });
+  const out = gates.slice();
+  const drivers = new Set([...inputs, ...rails, ...gates.map((g) => g.output)]);
+  for (const [net, loads] of loadsOf) {
+    if (!drivers.has(net)) continue;
+    const total = loads.reduce((s, l) => s + l.weight, 0);
+    if (total <= fanOut + 1e-9) continue;
+    const pinned = loads.filter((l) => l.pinned).reduce((s, l) => s + l.weight, 0);
+    if (pinned > fanOut - 1) {
+      warnings.push(`net ${net}: output pin load ${pinned} leaves no room under fan-out ${fanOut}; the pin stays on its driver over the limit`);
+      continue;
+    }
+    const plan = planBufferTree(loads, fanOut);
+    const bufNets = plan.buffers.map(() => fresh("b"));
+    plan.buffers.forEach((b, i) => {
+      const src = b.parent < 0 ? net : bufNets[b.parent]!;
+      out.push({ id: "", type: "BUF", inputs: [src], output: bufNets[i]!, role: "buffer" });
+    });
+    loads.forEach((l, i) => {
+      const a = plan.assignment[i]!;
+      if (a >= 0 && l.gate) {
+        const idx = out.indexOf(l.gate);
+        const g = out[idx]!;
+        const ins = g.inputs.slice();
+        ins[l.pin!] = bufNets[a]!;
+        const ng = { ...g, inputs: ins };
+        out[idx] = ng;
+        // later loads of the same gate must find the updated object
+        for (const ls of loadsOf.values()) for (const x of ls) if (x.gate === g) x.gate = ng;
+      }
+    });
+  }
+  return out;
+}
