@@ -1,0 +1,22 @@
+import type { Cube } from "../logic";
+
+/** A cover in the equation language: SOP `a * b' + c`, POS `(a + b') * (c)`; 0 and 1 for constants. */
+export function formatCover(cubes: readonly Cube[], inputs: readonly string[], form: "sop" | "pos"): string {
+  const n = inputs.length;
+  const literals = (c: Cube): string[] => {
+    const out: string[] = [];
+    for (let i = 0; i < n; i++) {
+      const bit = 1 << (n - 1 - i);
+      if (c.mask & bit) out.push(c.value & bit ? inputs[i]! : `${inputs[i]!}'`);
+    }
+    return out;
+  };
+  if (form === "sop") {
+    if (cubes.length === 0) return "0";
+    if (cubes.some((c) => c.mask === 0)) return "1";
+    return cubes.map((c) => literals(c).join(" * ")).join(" + ");
+  }
+  if (cubes.length === 0) return "1";
+  if (cubes.some((c) => c.mask === 0)) return "0";
+  return cubes.map((c) => `(${literals(c).join(" + ")})`).join(" * ");
+}

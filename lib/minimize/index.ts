@@ -1,0 +1,391 @@
+/**
+ * Exact multi-output two-level minimization with don't-cares.
+ *
+ * Route: multi-output primes by Quine–McCluskey (./primes), then an exact
+ * cover of the (output, ON-minterm) pairs (./cover), where a term shared by
+ * several outputs is paid once. Beyond the exact route's limits (inputs above
+ * TRUTH_TABLE_MAX_INPUTS, more than `maxPrimes` primes, a cyclic core too big
+ * or a search not finished in time) the expand / irredundant / reduce loop
+ * (./heuristic) runs per output, identical terms are shared, and the result
+ * carries a proven lower bound (./bound). Every cover is verified (lib/verify)
+ * before it is returned.
+ */
+import type { Cube, FunctionSpec } from "../logic";
+import { MAX_INPUTS, TRUTH_TABLE_MAX_INPUTS, fullMask, popcount, tableFromCubes, tableMinterms } from "../logic";
+import { verifyCovers } from "../verify";
+import { independentPoints, tableOracle, cubeOracle, type BoundPoint } from "./bound";
+import { boundFromSurrogate, columnWeight, designCost, gatesFor, validateModel } from "./cost";
+import { solveCover } from "./cover";
+import { formatCover } from "./expression";
+import { HeuristicTimeout, heuristicCover } from "./heuristic";
+import { ExactLimit, taggedPrimes, type TaggedPrime } from "./primes";
+import type { CostModel, MinimizeOptions, MinimizeResult, MinimizedOutput } from "./types";
+import { LimitError } from "./types";
+import { complement } from "./unate";
+
+export type { CostModel, MinimizeOptions, MinimizeResult, MinimizedOutput } from "./types";
+export { LimitError } from "./types";
+export { formatCover } from "./expression";
+
+/** Defaults of {@link MinimizeOptions}. */
+export const DEFAULTS = {
+  form: "sop" as const,
+  cost: { kind: "products" } as CostModel,
+  maxPrimes: 20_000,
+  timeLimitMs: 10_000,
+  /** Implicants the Quine–McCluskey tables may hold in total before the exact route gives way. */
+  maxImplicants: 2_000_000,
+  /** Outputs that share terms exactly; above, outputs are covered one by one (tags are 31-bit). */
+  maxSharedOutputs: 31,
+};
+
+/** The problem actually covered: per output, the points to cover (ON, or OFF for POS) and DC. */
+interface Target {
+  on: Cube[];
+  dc: Cube[];
+  /** Present when inputs ≤ TRUTH_TABLE_MAX_INPUTS. `on` wins where both are set. */
+  onT?: Uint32Array;
+  dcT?: Uint32Array;
+}
+
+function tableCubes(t: Uint32Array, n: number): Cube[] {
+  const full = fullMask(n);
+  return tableMinterms(t, n).map((m) => ({ value: m, mask: full }));
+}
+
+function buildTargets(spec: FunctionSpec, form: "sop" | "pos"): Target[] {
+  const n = spec.inputs.length;
+  return spec.outputs.map((o) => {
+    if (n <= TRUTH_TABLE_MAX_INPUTS) {
+      const on = tableFromCubes(o.on, n);
+      const dc = tableFromCubes(o.dc, n);
+      for (let w = 0; w < on.length; w++) dc[w]! &= ~on[w]!;
+      if (form === "sop") return { on: o.on, dc: o.dc, onT: on, dcT: dc };
+      const off = new Uint32Array(on.length);
+      const valid = n >= 5 ? 0xffffffff : (2 ** (2 ** n) - 1) >>> 0;
+      for (let w = 0; w < on.length; w++) off[w] = ~(on[w]! | dc[w]!) & valid;
+      return { on: tableCubes(off, n), dc: tableCubes(dc, n), onT: off, dcT: dc };
+    }
+    if (form === "sop") return { on: o.on, dc: o.dc };
+    return { on: complement(o.on.concat(o.dc), fullMask(n)), dc: o.dc };
+  });
+}
+
+interface Solved {
+  /** Per output, the product cubes of the covered function (before POS inversion). */
+  covers: Cube[][];
+  exact: boolean;
+  designBound: number;
+  outputBounds: number[];
+  primes: number;
+  route: "exact" | "heuristic";
+}
+
+function sameCube(a: Cube, b: Cube): boolean {
+  return a.value === b.value && a.mask === b.mask;
+}
+
+function cubeKey(c: Cube): number {
+  return c.mask * 1073741824 + c.value;
+}
+
+/** Per output, drop chosen terms that the output's other terms already cover, costliest first. */
+function assignTerms(n: number, targets: Target[], chosen: TaggedPrime[]): Cube[][] {
+  const full = fullMask(n);
+  return targets.map((t, j) => {
+    const bit = 1 << j;
+    const cand = chosen.filter((p) => (p.tag & bit) !== 0);
+    const onT = t.onT!;
+    const count = new Map<number, number>();
+    const pts = cand.map((p) => {
+      const list: number[] = [];
+      const free = (full & ~p.mask) >>> 0;
+      let sub = 0;
+      for (;;) {
+        const m = (p.value | sub) >>> 0;
+        if ((onT[m >>> 5]! >>> (m & 31)) & 1) {
+          list.push(m);
+          count.set(m, (count.get(m) ?? 0) + 1);
+        }
+        if (sub === free) break;
+        sub = ((sub - free) & free) >>> 0;
+      }
+      return list;
+    });
+    const order = cand.map((_, i) => i).sort((a, b) => popcount(cand[b]!.mask) - popcount(cand[a]!.mask));
+    const keep = new Set(order);
+    for (const i of order) {
+      if (pts[i]!.every((m) => count.get(m)! > 1)) {
+        keep.delete(i);
+        for (const m of pts[i]!) count.set(m, count.get(m)! - 1);
+      }
+    }
+    return cand.filter((_, i) => keep.has(i)).map((p) => ({ value: p.value, mask: p.mask }));
+  });
+}
+
+function costOfCovers(model: CostModel, covers: Cube[][]): number {
+  const distinct = new Map<number, number>();
+  for (const cv of covers) for (const c of cv) distinct.set(cubeKey(c), popcount(c.mask));
+  return designCost(model, [...distinct.values()], covers.map((c) => c.length));
+}
+
+/** Exact route over a group of outputs sharing terms. Throws ExactLimit beyond its limits. */
+function exactGroup(
+  n: number,
+  targets: Target[],
+  model: CostModel,
+  limits: { maxPrimes: number; maxImplicants: number; deadline: number },
+): Solved {
+  const words = targets[0]!.onT!.length;
+  const care = new Uint32Array(words);
+  for (const t of targets) for (let w = 0; w < words; w++) care[w]! |= t.onT![w]! | t.dcT![w]!;
+  const minterms = tableMinterms(care, n);
+  const tagOf = (m: number): number => {
+    let tag = 0;
+    const w = m >>> 5;
+    const b = m & 31;
+    for (let j = 0; j < targets.length; j++) {
+      if (((targets[j]!.onT![w]! | targets[j]!.dcT![w]!) >>> b) & 1) tag |= 1 << j;
+    }
+    return tag;
+  };
+  const all = taggedPrimes(n, minterms, tagOf, limits);
+  // Rows: (output, ON minterm). Columns: primes reaching at least one row.
+  const full = fullMask(n);
+  const rowOf = targets.map((t) => {
+    const map = new Map<number, number>();
+    return { t, map };
+  });
+  let rowCount = 0;
+  for (const r of rowOf) for (const m of tableMinterms(r.t.onT!, n)) r.map.set(m, rowCount++);
+  const colRows: Int32Array[] = [];
+  const weight: number[] = [];
+  const cols: TaggedPrime[] = [];
+  const buf: number[] = [];
+  for (const p of all) {
+    buf.length = 0;
+    const free = (full & ~p.mask) >>> 0;
+    let sub = 0;
+    for (;;) {
+      const m = (p.value | sub) >>> 0;
+      for (let j = 0; j < targets.length; j++) {
+        if (!((p.tag >>> j) & 1)) continue;
+        const r = rowOf[j]!.map.get(m);
+        if (r !== undefined) buf.push(r);
+      }
+      if (sub === free) break;
+      sub = ((sub - free) & free) >>> 0;
+    }
+    if (buf.length === 0) continue;
+    cols.push(p);
+    colRows.push(Int32Array.from(buf));
+    weight.push(columnWeight(model, popcount(p.mask)));
+  }
+  const live = targets.filter((t) => t.on.length > 0 && rowOf.some((r) => r.t === t && r.map.size > 0)).length;
+  const sol =
+    rowCount === 0
+      ? { chosen: [], weight: 0, lowerBound: 0, exact: true }
+      : solveCover({ colRows, weight, rowCount, deadline: limits.deadline });
+  const covers = assignTerms(n, targets, sol.chosen.map((c) => cols[c]!));
+  const cost = costOfCovers(model, covers);
+  const bound = Math.min(cost, boundFromSurrogate(model, sol.lowerBound, live));
+  // Per output: independent rows of that output alone, each charged its cheapest column.
+  const outputBounds = targets.map((_, j) => {
+    const rows = [...rowOf[j]!.map.values()];
+    if (rows.length === 0) return 0;
+    const colsOfRow = new Map<number, number[]>();
+    colRows.forEach((rs, c) => {
+      for (const r of rs) {
+        if (rowOf[j]!.map.size && r >= rows[0]! && r <= rows[rows.length - 1]!) {
+          let l = colsOfRow.get(r);
+          if (!l) colsOfRow.set(r, (l = []));
+          l.push(c);
+        }
+      }
+    });
+    rows.sort((a, b) => colsOfRow.get(a)!.length - colsOfRow.get(b)!.length);
+    const blocked = new Set<number>();
+    let w = 0;
+    for (const r of rows) {
+      if (blocked.has(r)) continue;
+      let m = Infinity;
+      for (const c of colsOfRow.get(r)!) {
+        m = Math.min(m, weight[c]!);
+        for (const rr of colRows[c]!) blocked.add(rr);
+      }
+      w += m;
+    }
+    return boundFromSurrogate(model, w, 1);
+  });
+  return {
+    covers,
+    exact: sol.exact && cost === bound,
+    designBound: Math.max(bound, ...outputBounds),
+    outputBounds,
+    primes: all.length,
+    route: "exact",
+  };
+}
+
+/** Heuristic route: a prime and irredundant cover per output, identical terms shared, proven bound. */
+function heuristicAll(n: number, targets: Target[], model: CostModel, deadline: number, limit: number): Solved {
+  const covers: Cube[][] = [];
+  for (const t of targets) {
+    try {
+      covers.push(heuristicCover(n, t.on, t.dc, deadline, t.onT && t.dcT ? { on: t.onT, dc: t.dcT } : undefined));
+    } catch (e) {
+      if (e instanceof HeuristicTimeout) {
+        throw new LimitError(
+          "timeLimitMs",
+          limit,
+          "no prime and irredundant cover could be finished within the time limit",
+          "Raise timeLimitMs, or split the design into smaller blocks.",
+        );
+      }
+      throw e;
+    }
+  }
+  // Candidate points: a spread sample of each output's ON points (or its cubes' corners above 20 inputs).
+  const full = fullMask(n);
+  const candidates: BoundPoint[] = [];
+  const perOutputCap = Math.max(64, Math.floor(3000 / Math.max(1, targets.length)));
+  targets.forEach((t, j) => {
+    const pts = t.onT ? tableMinterms(t.onT, n) : t.on.map((c) => c.value);
+    const step = Math.max(1, Math.ceil(pts.length / perOutputCap));
+    for (let i = 0; i < pts.length; i += step) candidates.push({ output: j, minterm: pts[i]! });
+  });
+  const oracle =
+    n <= TRUTH_TABLE_MAX_INPUTS
+      ? tableOracle(
+          targets.map((t) => {
+            const c = new Uint32Array(t.onT!.length);
+            for (let w = 0; w < c.length; w++) c[w] = t.onT![w]! | t.dcT![w]!;
+            return c;
+          }),
+          n,
+        )
+      : cubeOracle(targets.map((t) => complement(t.on.concat(t.dc), full)));
+  const boundDeadline = Math.min(deadline, Date.now() + 2000);
+  const ind = independentPoints(candidates, oracle, full, boundDeadline);
+  const k = targets.map((_, j) => ind.perOutput.get(j) ?? 0);
+  const perOutput = k.map((kj) => pointsToCost(model, kj, kj));
+  let design: number;
+  switch (model.kind) {
+    case "products":
+      design = ind.total;
+      break;
+    case "gate-inputs":
+      // Connections: each output needs k_j terms; literals: independent terms are not constant 1 when ≥ 2.
+      design = k.reduce((a, b) => a + b, 0) + (ind.total >= 2 ? ind.total : 0);
+      break;
+    case "fan-in":
+      design = k.reduce((a, kj) => a + gatesFor(kj, model.fanIn), 0);
+      break;
+  }
+  const cost = costOfCovers(model, covers);
+  design = Math.min(cost, Math.max(design, ...perOutput));
+  return { covers, exact: cost === design, designBound: design, outputBounds: perOutput, primes: -1, route: "heuristic" };
+}
+
+/** Cost bound of an output whose ON-set holds k independent points. */
+function pointsToCost(model: CostModel, k: number, _indep: number): number {
+  switch (model.kind) {
+    case "products":
+      return k;
+    case "gate-inputs":
+      return k >= 2 ? 2 * k : k;
+    case "fan-in":
+      return gatesFor(k, model.fanIn);
+  }
+}
+
+/**
+ * Minimizes every output of the specification as a two-level cover.
+ * Defaults: SOP, the products-then-literals cost, exact route first with at
+ * most 20 000 primes, 10 000 ms in total. Throws {@link LimitError} when a
+ * limit stops the run (too many inputs, or not even a heuristic cover in time).
+ */
+export function minimize(spec: FunctionSpec, options: MinimizeOptions = {}): MinimizeResult {
+  const t0 = Date.now();
+  const n = spec.inputs.length;
+  const form = options.form ?? DEFAULTS.form;
+  const model = options.cost ?? DEFAULTS.cost;
+  validateModel(model);
+  const maxPrimes = options.maxPrimes ?? DEFAULTS.maxPrimes;
+  const timeLimitMs = options.timeLimitMs ?? DEFAULTS.timeLimitMs;
+  if (n > MAX_INPUTS) {
+    throw new LimitError("MAX_INPUTS", MAX_INPUTS, `the design has ${n} inputs`, "Split the design into blocks of at most 30 inputs.");
+  }
+  const deadline = t0 + timeLimitMs;
+  const targets = buildTargets(spec, form);
+  let solved: Solved | null = null;
+  const exactPossible = !options.heuristic && n <= TRUTH_TABLE_MAX_INPUTS && targets.length > 0;
+  if (exactPossible) {
+    // The exact route may use about 60 % of the budget; the heuristic keeps the rest.
+    const limits = { maxPrimes, maxImplicants: DEFAULTS.maxImplicants, deadline: t0 + timeLimitMs * 0.6 };
+    try {
+      if (targets.length <= DEFAULTS.maxSharedOutputs) {
+        solved = exactGroup(n, targets, model, limits);
+      } else {
+        const parts = targets.map((t) => exactGroup(n, [t], model, limits));
+        const covers = parts.map((p) => p.covers[0]!);
+        const cost = costOfCovers(model, covers);
+        const outputBounds = parts.map((p) => p.designBound);
+        const designBound = Math.min(cost, Math.max(...outputBounds));
+        solved = { covers, exact: cost === designBound, designBound, outputBounds, primes: parts.reduce((a, p) => a + p.primes, 0), route: "exact" };
+      }
+    } catch (e) {
+      if (!(e instanceof ExactLimit)) throw e;
+      solved = null;
+    }
+    // A search cut short keeps its cover only if the heuristic does not beat it.
+    if (solved && !solved.exact && Date.now() < deadline) {
+      const h = heuristicAll(n, targets, model, deadline, timeLimitMs);
+      if (costOfCovers(model, h.covers) < costOfCovers(model, solved.covers)) {
+        solved = { ...h, designBound: Math.max(h.designBound, solved.designBound), primes: solved.primes };
+      }
+      solved.exact = costOfCovers(model, solved.covers) === solved.designBound;
+    }
+  }
+  solved ??= heuristicAll(n, targets, model, deadline, timeLimitMs);
+
+  const outCubes = solved.covers.map((cv) =>
+    form === "sop" ? cv : cv.map((c) => ({ value: (~c.value & c.mask) >>> 0, mask: c.mask })),
+  );
+  const verdict = verifyCovers(spec, outCubes.map((cubes) => ({ form, cubes })));
+  if (!verdict.ok) {
+    throw new Error(
+      `internal error: the ${form} cover of ${verdict.output} fails at minterm ${verdict.minterm} (${verdict.kind}); please report this design`,
+    );
+  }
+  const uses = new Map<number, number>();
+  for (const cv of solved.covers) for (const c of new Set(cv.map(cubeKey))) uses.set(c, (uses.get(c) ?? 0) + 1);
+  const shared = [...uses.values()].filter((u) => u > 1).length;
+  const outputs: MinimizedOutput[] = spec.outputs.map((o, j) => {
+    const cubes = outCubes[j]!;
+    const own = costOfCovers(model, [solved.covers[j]!]);
+    return {
+      name: o.name,
+      form,
+      cubes,
+      expression: formatCover(cubes, spec.inputs, form),
+      products: cubes.length,
+      literals: cubes.reduce((a, c) => a + popcount(c.mask), 0),
+      exact: solved.exact,
+      lowerBound: Math.min(own, solved.outputBounds[j] ?? 0),
+    };
+  });
+  void sameCube;
+  return {
+    inputs: spec.inputs.slice(),
+    outputs,
+    shared,
+    exact: solved.exact,
+    ms: Date.now() - t0,
+    cost: costOfCovers(model, solved.covers),
+    lowerBound: solved.designBound,
+    primes: solved.primes,
+    route: solved.route,
+  };
+}

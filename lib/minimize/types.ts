@@ -1,0 +1,77 @@
+import type { Cube } from "../logic";
+
+/**
+ * How a two-level cover is priced.
+ * - `products`: number of distinct product terms, then literals as a tie-break (default).
+ * - `gate-inputs`: literals of every distinct product plus one OR-plane input per
+ *   (term, output) connection.
+ * - `fan-in`: gates needed when every gate has at most `fanIn` inputs: a term of k
+ *   literals costs ceil((k-1)/(fanIn-1)) AND gates, an output of t terms costs
+ *   ceil((t-1)/(fanIn-1)) OR gates. `fanIn` ≥ 2.
+ */
+export type CostModel = { kind: "products" } | { kind: "gate-inputs" } | { kind: "fan-in"; fanIn: number };
+
+/** Options of {@link minimize}. */
+export interface MinimizeOptions {
+  /** "sop" (default) or "pos" (the complement is minimized and each term inverted). */
+  form?: "sop" | "pos";
+  /** Default `{ kind: "products" }`. */
+  cost?: CostModel;
+  /** Skip the exact route and run the expand / irredundant / reduce loop. Default false. */
+  heuristic?: boolean;
+  /** The exact route gives way to the heuristic above this many prime implicants. Default 20 000. */
+  maxPrimes?: number;
+  /** Wall-clock budget of one run in milliseconds. Default 10 000. */
+  timeLimitMs?: number;
+}
+
+export interface MinimizedOutput {
+  name: string;
+  form: "sop" | "pos";
+  /** SOP: product terms. POS: sum terms, where '1' = plain literal in the sum, '0' = complemented literal. */
+  cubes: Cube[];
+  /** The cover in the equation language: `a * b' + c` or `(a + b') * (c)`; 0 / 1 for constants. */
+  expression: string;
+  products: number;
+  literals: number;
+  /** True when the design's cover is proven minimum under the cost model (shared terms counted once). */
+  exact: boolean;
+  /** Proven lower bound on this output's own cost under the chosen model, counted as if it stood alone. */
+  lowerBound: number;
+}
+
+export interface MinimizeResult {
+  inputs: string[];
+  outputs: MinimizedOutput[];
+  /** Terms used by more than one output. */
+  shared: number;
+  exact: boolean;
+  /** Wall-clock milliseconds of the run. */
+  ms: number;
+  /** The design's cost under the chosen model (products model: distinct products). */
+  cost: number;
+  /** Proven lower bound on the design's cost under the chosen model. */
+  lowerBound: number;
+  /** Number of multi-output prime implicants, or -1 when the heuristic ran without enumerating them. */
+  primes: number;
+  /** Which route produced the cover. */
+  route: "exact" | "heuristic";
+}
+
+/**
+ * The one error {@link minimize} throws: a limit stopped the run.
+ * `limit` names the option or constant that was exceeded, `value` its setting,
+ * `hint` what to change.
+ */
+export class LimitError extends Error {
+  limit: string;
+  value: number;
+  hint: string;
+  constructor(limit: string, value: number, message: string, hint: string) {
+    super(`${message} (limit ${limit} = ${value}). ${hint}`);
+    this.name = "LimitError";
+    this.limit = limit;
+    this.value = value;
+    this.hint = hint;
+  }
+}
