@@ -1,0 +1,130 @@
+// Reference computations the tests make themselves: brute-force implicant
+// enumeration over all 3^n cubes and a minimum cover by the highs MILP solver.
+import highsLoader from "highs";
+import type { Cube, FunctionSpec } from "../../lib/logic";
+import { fullMask, minterm, popcount } from "../../lib/logic";
+
+export function rng(seed: number): () => number {
+  let s = seed >>> 0;
+  return () => {
+    s = (s + 0x6d2b79f5) >>> 0;
+    let t = s;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+export const names = (n: number) => Array.from({ length: n }, (_, i) => `x${i}`);
+
+export function randomSpec(n: number, outputs: number, seed: number, pOn = 0.4, pDc = 0.1): FunctionSpec {
+  const r = rng(seed);
+  return {
+    inputs: names(n),
+    outputs: Array.from({ length: outputs }, (_, j) => {
+      const on: Cube[] = [];
+      const dc: Cube[] = [];
+      for (let m = 0; m < 2 ** n; m++) {
+        const x = r();
+        if (x < pOn) on.push(minterm(m, n));
+        else if (x < pOn + pDc) dc.push(minterm(m, n));
+      }
+      return { name: `f${j}`, on, dc };
+    }),
+  };
+}
+
+/** Value of output j at minterm m by direct lookup in the spec's cubes: 1, 0, or null for DC. */
+export function valueAt(spec: FunctionSpec, j: number, m: number): 0 | 1 | null {
+  const o = spec.outputs[j]!;
+  const inside = (c: Cube) => ((m ^ c.value) & c.mask) === 0;
+  if (o.on.some(inside)) return 1;
+  if (o.dc.some(inside)) return null;
+  return 0;
+}
+
+/** Every cube over n inputs with the set of outputs in whose ON ∪ DC it lies (tag 0 dropped). */
+export function bruteImplicants(spec: FunctionSpec): { cube: Cube; tag: number; on: number[][] }[] {
+  const n = spec.inputs.length;
+  const full = fullMask(n);
+  const vals = Array.from({ length: spec.outputs.length }, (_, j) =>
+    Array.from({ length: 2 ** n }, (_, m) => valueAt(spec, j, m)),
+  );
+  const out: { cube: Cube; tag: number; on: number[][] }[] = [];
+  for (let mask = 0; mask <= full; mask++) {
+    for (let value = 0; value <= full; value++) {
+      if ((value & ~mask) !== 0) continue;
+      let tag = 0;
+      const on: number[][] = spec.outputs.map(() => []);
+      for (let j = 0; j < spec.outputs.length; j++) {
+        let ok = true;
+        for (let m = 0; m < 2 ** n; m++) {
+          if (((m ^ value) & mask) !== 0) continue;
+          if (vals[j]![m] === 0) {
+            ok = false;
+            break;
+          }
+          if (vals[j]![m] === 1) on[j]!.push(m);
+        }
+        if (ok) tag |= 1 << j;
+      }
+      if (tag !== 0) out.push({ cube: { value, mask }, tag, on });
+    }
+  }
+  return out;
+}
+
+/** Brute-force prime test: no literal can be dropped within ON ∪ DC of one output. */
+export function isPrimeFor(spec: FunctionSpec, j: number, c: Cube): boolean {
+  const n = spec.inputs.length;
+  for (let b = 0; b < n; b++) {
+    const bit = 1 << b;
+    if (!(c.mask & bit)) continue;
+    const up = { value: c.value & ~bit, mask: c.mask & ~bit };
+    let ok = true;
+    for (let m = 0; m < 2 ** n && ok; m++) if (((m ^ up.value) & up.mask) === 0 && valueAt(spec, j, m) === 0) ok = false;
+    if (ok) return false;
+  }
+  return true;
+}
+
+let highsPromise: ReturnType<typeof highsLoader> | null = null;
+
+/**
+ * Minimum of Σ (1000·[term used] + literals) over all multi-output implicants,
+ * every (output, ON minterm) covered by a used term tagged with that output:
+ * products first, literals second (literals < 1000 here). Returns {products, literals}.
+ */
+export async function milpMinimum(spec: FunctionSpec): Promise<{ products: number; literals: number }> {
+  highsPromise ??= highsLoader();
+  const highs = await highsPromise;
+  const imps = bruteImplicants(spec);
+  const rows = new Map<string, number[]>();
+  imps.forEach((p, i) =>
+    p.on.forEach((ms, j) => {
+      if (!((p.tag >>> j) & 1)) return;
+      for (const m of ms) {
+        const k = `${j}_${m}`;
+        if (!rows.has(k)) rows.set(k, []);
+        rows.get(k)!.push(i);
+      }
+    }),
+  );
+  for (let j = 0; j < spec.outputs.length; j++) {
+    for (let m = 0; m < 2 ** spec.inputs.length; m++) {
+      if (valueAt(spec, j, m) === 1 && !rows.has(`${j}_${m}`)) throw new Error("uncoverable row");
+    }
+  }
+  const used = new Set<number>();
+  for (const cols of rows.values()) for (const c of cols) used.add(c);
+  const cols = [...used];
+  if (rows.size === 0) return { products: 0, literals: 0 };
+  const obj = cols.map((i) => `${1000 + popcount(imps[i]!.cube.mask)} y${i}`).join(" + ");
+  let k = 0;
+  const cons = [...rows.values()].map((cs) => ` r${k++}: ${cs.map((i) => `y${i}`).join(" + ")} >= 1`);
+  const lp = `Minimize\n obj: ${obj}\nSubject To\n${cons.join("\n")}\nBinary\n ${cols.map((i) => `y${i}`).join(" ")}\nEnd\n`;
+  const res = highs.solve(lp, { output_flag: false });
+  if (res.Status !== "Optimal") throw new Error(`MILP status ${res.Status}`);
+  const v = Math.round(res.ObjectiveValue);
+  return { products: Math.floor(v / 1000), literals: v % 1000 };
+}
