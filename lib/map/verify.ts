@@ -5,9 +5,7 @@
  * encoded for the logic-solver SAT solver, which is asked for a minterm in
  * ON \ netlist or in netlist \ (ON ∪ DC).
  */
-// logic-solver ships without type declarations; the small surface used here is typed below.
-// @ts-ignore -- no declaration file in the package
-import LogicModule from "logic-solver";
+import Logic, { type Formula } from "logic-solver";
 import type { Cube } from "../logic/index";
 import { TRUTH_TABLE_MAX_INPUTS, emptyTable, fullMask, tableFromCubes, cubeToString } from "../logic/index";
 import type { Netlist } from "./netlist";
@@ -38,17 +36,6 @@ export interface VerifyResult {
   mismatches: Mismatch[];
 }
 
-type Formula = unknown;
-interface LogicApi {
-  Solver: new () => { require(f: Formula): void; solve(): { getTrueVars(): string[] } | null };
-  and(...f: Formula[]): Formula;
-  or(...f: Formula[]): Formula;
-  not(f: Formula): Formula;
-  xor(...f: Formula[]): Formula;
-  TRUE: Formula;
-  FALSE: Formula;
-}
-const Logic = LogicModule as LogicApi;
 
 /** Checks the netlist against each target output (matched by name). */
 export function verifyNetlist(netlist: Netlist, inputs: string[], targets: VerifyTarget[]): VerifyResult {

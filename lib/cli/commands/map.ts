@@ -1,0 +1,90 @@
+/**
+ * `npm run -s cli -- map FILE --family ID [--form and-or|nand|nor|or-and|mixed] [--fanin N] [--fanout N]
+ *  [--format json|verilog|vhdl|csv]` maps the minimized design onto a family and prints the JSON
+ * netlist {"inputs", "outputs", "gates", "stats", "warnings"} or the chosen export.
+ * --fanin and --fanout override the family's limits. Language errors print the `check` JSON and
+ * exit 1; an unknown family or bad option exits 2.
+ */
+import type { CliIO } from "../main";
+import { BUILT_IN_FAMILIES } from "../../families";
+import { TARGET_FORMS, type TargetForm } from "../../map";
+import { compileDesign, type DesignSettings, type ExportFormat } from "../../pipeline";
+
+const USAGE =
+  "usage: npm run -s cli -- map FILE --family ID [--form and-or|nand|nor|or-and|mixed] [--fanin N] [--fanout N] [--format json|verilog|vhdl|csv]";
+const FORMATS: ExportFormat[] = ["json", "verilog", "vhdl", "csv"];
+
+function parseArgs(args: string[]): { file: string; settings: DesignSettings; format: ExportFormat } | string {
+  let file: string | undefined;
+  let family: string | undefined;
+  let format: ExportFormat = "json";
+  const settings: Partial<DesignSettings> = {};
+  for (let i = 0; i < args.length; i++) {
+    const a = args[i]!;
+    const eq = a.indexOf("=");
+    const [flag, inline] = a.startsWith("--") && eq > 0 ? [a.slice(0, eq), a.slice(eq + 1)] : [a, undefined];
+    const value = (): string | undefined => inline ?? args[++i];
+    const whole = (name: string): number | string => {
+      const v = value();
+      if (!v || !/^\d+$/.test(v) || Number(v) < 2) return `${name} takes a whole number of at least 2, not ${v ?? "nothing"}`;
+      return Number(v);
+    };
+    if (flag === "--family") {
+      family = value();
+      if (!family) return "--family needs a family id";
+    } else if (flag === "--form") {
+      const v = value();
+      if (!TARGET_FORMS.includes(v as TargetForm)) return `--form takes ${TARGET_FORMS.join(", ")}, not ${v ?? "nothing"}`;
+      settings.form = v as TargetForm;
+    } else if (flag === "--fanin") {
+      const n = whole("--fanin");
+      if (typeof n === "string") return n;
+      settings.fanIn = n;
+    } else if (flag === "--fanout") {
+      const n = whole("--fanout");
+      if (typeof n === "string") return n;
+      settings.fanOut = n;
+    } else if (flag === "--format") {
+      const v = value();
+      if (!FORMATS.includes(v as ExportFormat)) return `--format takes ${FORMATS.join(", ")}, not ${v ?? "nothing"}`;
+      format = v as ExportFormat;
+    } else if (flag.startsWith("--")) {
+      return `unknown option ${flag}`;
+    } else if (file === undefined) {
+      file = a;
+    } else return `only one FILE is taken; got ${file} and ${a}`;
+  }
+  if (file === undefined) return "FILE is missing (use - to read standard input)";
+  if (family === undefined) return `--family is missing; the families are: ${BUILT_IN_FAMILIES.map((f) => f.id).join(", ")}`;
+  return { file, settings: { ...settings, familyId: family }, format };
+}
+
+export async function run(args: string[], io: CliIO): Promise<number> {
+  const parsed = parseArgs(args);
+  if (typeof parsed === "string") {
+    io.err(`${parsed}\n${USAGE}`);
+    return 2;
+  }
+  const source = io.readSource(parsed.file);
+  const r = compileDesign(source, parsed.settings, { exports: [parsed.format], unitName: unitFromFile(parsed.file) });
+  if (r.error?.code === "language") {
+    io.out(JSON.stringify({ ok: false, diagnostics: r.diagnostics }, null, 2));
+    return 1;
+  }
+  if (r.error?.code === "family") {
+    io.err(r.error.message);
+    return 2;
+  }
+  if (r.error) {
+    io.out(JSON.stringify({ error: r.error }, null, 2));
+    return 1;
+  }
+  io.out(r.exports![parsed.format]!);
+  return 0;
+}
+
+function unitFromFile(file: string): string | undefined {
+  if (file === "-") return undefined;
+  const base = file.split(/[\\/]/).pop() ?? file;
+  return base.replace(/\.[^.]*$/, "");
+}

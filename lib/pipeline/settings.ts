@@ -1,0 +1,55 @@
+/**
+ * Design settings: which family, which gate form, which cost model and the
+ * electrical assumptions of the analysis. A plain type for the pure core,
+ * and a zod schema (zod is pure) for the API and forms.
+ */
+import { z } from "zod";
+import { TARGET_FORMS, type TargetForm } from "../map/mapper";
+
+export type CostKind = "products" | "gate-inputs" | "fan-in";
+
+export interface DesignSettings {
+  /** Family id (built-in or one passed in PipelineOptions.families). */
+  familyId: string;
+  /** Target gate form; default "and-or". "or-and" and "nor" minimize to POS, the others to SOP. */
+  form?: TargetForm;
+  /** Minimizer cost model; default "products". "fan-in" uses the mapping fan-in. */
+  cost?: CostKind;
+  /** Widest gate input allowed; default the family's. */
+  fanIn?: number;
+  /** Fan-out in unit loads; default the family's. */
+  fanOut?: number;
+  /** Complemented inputs are available from outside; default false. */
+  complementedInputs?: boolean;
+  /** Load of each output pin in unit loads; default 1. */
+  outputPinLoad?: number;
+  /** Clock for dynamic power, MHz; default 10. */
+  clockMHz?: number;
+  /** Share of cycles in which a net rises; default 0.25 (random data with equal chances of 0 and 1). */
+  activity?: number;
+  /** Run the heuristic minimizer instead of the exact one; default false. */
+  heuristic?: boolean;
+}
+
+export const DEFAULT_SETTINGS = {
+  form: "and-or" as TargetForm,
+  cost: "products" as CostKind,
+  complementedInputs: false,
+  outputPinLoad: 1,
+  clockMHz: 10,
+  activity: 0.25,
+  heuristic: false,
+};
+
+export const designSettingsSchema = z.object({
+  familyId: z.string().min(1, "choose a family"),
+  form: z.enum(TARGET_FORMS as unknown as [TargetForm, ...TargetForm[]]).optional(),
+  cost: z.enum(["products", "gate-inputs", "fan-in"]).optional(),
+  fanIn: z.number().int().min(2, "fan-in must be at least 2").max(64).optional(),
+  fanOut: z.number().int().min(2, "fan-out must be at least 2").max(10000).optional(),
+  complementedInputs: z.boolean().optional(),
+  outputPinLoad: z.number().min(0).max(1000).optional(),
+  clockMHz: z.number().positive().max(10000).optional(),
+  activity: z.number().min(0).max(1).optional(),
+  heuristic: z.boolean().optional(),
+});
