@@ -140,7 +140,8 @@ function checkScope(ctx: Ctx, kind: Scope["kind"], inputs: Name[], outputs: Name
   let usesSets = false;
 
   for (const s of assigns) {
-    if (!checkRhsShape(ctx, scope, s)) continue;
+    // a malformed right side is reported, but its targets still count as assigned to avoid follow-on errors
+    checkRhsShape(ctx, scope, s);
     s.targets.forEach((t, index) => {
       if (s.isLet) {
         if (!declare(t, "let", -1)) return;
@@ -293,7 +294,7 @@ function hasDontCares(v: Rhs): boolean {
   return v.clauses.some((c) => c.kind === "dc");
 }
 
-/** Checks the right side fits its left side; false when the statement is unusable. */
+/** Checks the right side fits its left side; false (after a diagnostic) when it does not. */
 function checkRhsShape(ctx: Ctx, scope: Scope, s: AssignStatement): boolean {
   const d = ctx.diagnostics;
   const v = s.value;

@@ -27,6 +27,8 @@ const ruleHints: Record<string, string> = {
   target: "a name or a list of names in parentheses",
   setClause: "on(...), off(...) or dc(...)",
   blockResults: "a result name or a list of result names in parentheses",
+  nameList: "a name (several names are separated by commas)",
+  indexItem: "a minterm number",
 };
 
 const messages: IParserErrorMessageProvider = {

@@ -2,7 +2,8 @@
  * Source text → AST with syntax diagnostics.
  *
  * The token stream is cut into logical lines first (a newline ends a
- * statement unless the line ends with an operator, a comma, '(' or '='), and
+ * statement unless the line ends with an operator, a comma, '(' or '=' and
+ * the next line does not itself start a statement), and
  * each line is parsed on its own. A mistake therefore yields exactly one
  * diagnostic and never disturbs the lines after it. Block headers and `end`
  * are line statements too; grouping them into blocks happens here.
@@ -13,7 +14,7 @@ import { buildStatement, tokenRange, type LineStatement } from "./build";
 import { error, positionAt, type Diagnostic } from "./diagnostics";
 import { lineParser } from "./grammar";
 import { withDefaults, type LanguageLimits } from "./limits";
-import { CONTINUES_LINE, lexer, Newline } from "./tokens";
+import { Block, CONTINUES_LINE, Comma, End, Equals, Identifier, Inputs, Let, lexer, LParen, Never, Newline, Outputs, RParen, Use } from "./tokens";
 
 export interface ParseResult {
   /** The statements that parsed; lines with errors are left out. */
@@ -53,19 +54,23 @@ export function parseSource(source: string, options?: LanguageLimits): ParseResu
     diagnostics.push(error(e.message, { line, column, endLine: line, endColumn: column + e.length }));
   }
 
-  const lines: IToken[][] = [];
+  const physical: IToken[][] = [];
   let current: IToken[] = [];
   for (const t of lexed.tokens) {
     if (t.tokenType === Newline) {
-      if (current.length > 0 && !CONTINUES_LINE.has(current[current.length - 1]!.tokenType)) {
-        lines.push(current);
-        current = [];
-      }
+      if (current.length > 0) physical.push(current);
+      current = [];
     } else {
       current.push(t);
     }
   }
-  if (current.length > 0) lines.push(current);
+  if (current.length > 0) physical.push(current);
+  const lines: IToken[][] = [];
+  for (const p of physical) {
+    const last = lines[lines.length - 1];
+    if (last && CONTINUES_LINE.has(last[last.length - 1]!.tokenType) && !startsStatement(p)) last.push(...p);
+    else lines.push([...p]);
+  }
 
   if (lines.length > limits.maxStatements) {
     const first = lines[limits.maxStatements]![0]!;
@@ -114,6 +119,25 @@ export function parseSource(source: string, options?: LanguageLimits): ParseResu
   for (let l = 1; l <= lineCount; l++) if (!codeLines.has(l) && !commentLines.has(l) && !badLines.has(l)) blankLines.push(l);
 
   return { program: { statements, comments, blankLines }, diagnostics, complete: true };
+}
+
+const STARTERS = new Set([Inputs, Outputs, Let, Never, Block, End, Use]);
+
+/**
+ * True when a physical line reads as the start of a statement (a keyword that
+ * begins one, `name =` or `(names) =`). Such a line is never taken as the
+ * continuation of a line that ended with an operator, so a dangling operator
+ * gives one error on its own line.
+ */
+function startsStatement(p: IToken[]): boolean {
+  const first = p[0]!;
+  if (STARTERS.has(first.tokenType)) return true;
+  if (first.tokenType === Identifier) return p[1]?.tokenType === Equals;
+  if (first.tokenType === LParen) {
+    const close = p.findIndex((t) => t.tokenType === RParen);
+    return close > 0 && p[close + 1]?.tokenType === Equals && p.slice(1, close).every((t) => t.tokenType === Identifier || t.tokenType === Comma);
+  }
+  return false;
 }
 
 const notInBlock: Record<string, string> = {

@@ -144,6 +144,9 @@ const lexerMessages: ILexerErrorMessageProvider = {
 
 export const lexer = new Lexer(allTokens, {
   positionTracking: "full",
+  // only \n ends a line; a stray \r counts as a space, as in the Newline token
+  lineTerminatorsPattern: /\n/g,
+  lineTerminatorCharacters: ["\n"],
   errorMessageProvider: lexerMessages,
   ensureOptimizations: false,
 });
