@@ -149,6 +149,8 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
 
   // ---- names ----
   const n = covers.inputs.length;
+  const inputSet = new Set(covers.inputs);
+  for (const o of covers.outputs) if (inputSet.has(o.name)) throw new MapError(`output ${o.name} has the name of an input; rename one of them`);
   const used = new Set<string>([...covers.inputs, ...covers.outputs.map((o) => o.name), CONST0, CONST1]);
   let counter = 0;
   const fresh = (prefix: string) => {
@@ -173,9 +175,27 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
   const arrivalOf = (x: MNode): number => (x.kind === "op" ? x.arrival : x.kind === "lit" ? litArrival(x.plain) : 0);
 
   /** Splits an op over many kids into a tree no wider than the op's widest gate. */
+  const keyOf = new Map<MNode, string>();
+  const nodeKey = (x: MNode): string => {
+    if (x.kind === "const") return x.value ? "#1" : "#0";
+    if (x.kind === "lit") return `${x.plain ? "x" : "!x"}${x.input}`;
+    let k = keyOf.get(x);
+    if (k === undefined) {
+      k = `${x.op}(${x.kids.map(nodeKey).sort().join(",")})`;
+      keyOf.set(x, k);
+    }
+    return k;
+  };
   const makeOp = (op: Op, kids: MNode[]): MNode => {
     const identity = op === "and";
-    const ks = kids.filter((k) => !(k.kind === "const" && k.value === identity));
+    const seen = new Set<string>();
+    const ks = kids.filter((k) => {
+      if (k.kind === "const" && k.value === identity) return false;
+      const key = nodeKey(k);
+      if (seen.has(key)) return false;
+      seen.add(key);
+      return true;
+    });
     if (ks.some((k) => k.kind === "const")) return constNode(!identity);
     if (ks.length === 0) return constNode(identity);
     if (ks.length === 1) return ks[0]!;
@@ -401,7 +421,7 @@ function insertBuffers(
     const bufNets = plan.buffers.map(() => fresh("b"));
     plan.buffers.forEach((b, i) => {
       const src = b.parent < 0 ? net : bufNets[b.parent]!;
-      out.push({ id: "", type: "BUF", inputs: [src], output: bufNets[i]!, role: "buffer" });
+      out.push({ id: `buf_${bufNets[i]}`, type: "BUF", inputs: [src], output: bufNets[i]!, role: "buffer" });
     });
     loads.forEach((l, i) => {
       const a = plan.assignment[i]!;

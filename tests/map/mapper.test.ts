@@ -1,0 +1,215 @@
+import { describe, expect, it } from "vitest";
+import fc from "fast-check";
+import { mapCovers, MapError, verifyNetlist, TARGET_FORMS, type CoverSet, type Netlist, type TargetForm } from "../../lib/map/index";
+import { builtInFamily, type Family } from "../../lib/families/index";
+import { cubeFromString, type Cube } from "../../lib/logic/index";
+import { evalCover, evalNetlist, levels, netLoads } from "./helpers";
+
+const user = (fanIn: number, fanOut = 10): Family => ({ id: "user", name: "User rule", fanIn, fanOut });
+const sop = (name: string, ...cubes: string[]) => ({ name, form: "sop" as const, cubes: cubes.map(cubeFromString) });
+const pos = (name: string, ...cubes: string[]) => ({ name, form: "pos" as const, cubes: cubes.map(cubeFromString) });
+const letters = (n: number) => Array.from({ length: n }, (_, i) => String.fromCharCode(97 + i));
+
+function checkAgainstCovers(covers: CoverSet, net: Netlist) {
+  const n = covers.inputs.length;
+  for (let m = 0; m < 2 ** n; m++) {
+    const v = evalNetlist(net, covers.inputs, m);
+    for (const o of covers.outputs) {
+      const got = v.get(net.outputs.find((x) => x.name === o.name)!.net);
+      expect(got, `${o.name} at ${m}`).toBe(evalCover(o.form, o.cubes, m));
+    }
+  }
+}
+
+describe("fan-in", () => {
+  it("a fan-in of 6 puts a 7-input AND into two gates over two levels", () => {
+    // common practice, no source
+    const covers: CoverSet = { inputs: letters(7), outputs: [sop("lock_ready", "1111111")] };
+    const r = mapCovers(covers, user(6));
+    expect(r.netlist.gates.length).toBe(2);
+    expect(r.netlist.gates.every((g) => g.type === "AND" && g.inputs.length <= 6)).toBe(true);
+    expect(levels(r.netlist).get(r.netlist.outputs[0]!.net)).toBe(2);
+    checkAgainstCovers(covers, r.netlist);
+  });
+  it("uses the next width up with inputs tied where a width is missing", () => {
+    // common practice: unused NAND inputs tie high
+    const fam: Family = { id: "gappy", name: "Gappy", fanOut: 10, gates: [{ type: "NAND", widths: [{ width: 2, perPackage: 4 }, { width: 8, perPackage: 1 }] }, { type: "NOT", widths: [{ width: 1, perPackage: 6 }] }] };
+    const covers: CoverSet = { inputs: letters(5), outputs: [sop("f", "11111", "00000")] };
+    const r = mapCovers(covers, fam, { form: "nand" });
+    const wide = r.netlist.gates.filter((g) => g.type === "NAND" && g.inputs.length === 8);
+    expect(wide.length).toBe(2);
+    for (const g of wide) expect(g.inputs.filter((x) => x === "1").length).toBe(3);
+    checkAgainstCovers(covers, r.netlist);
+  });
+  it("--fanin caps the family's widths", () => {
+    const ttl = builtInFamily("ttl-std-5v")!;
+    const covers: CoverSet = { inputs: letters(8), outputs: [sop("sluice", "11111111")] };
+    const r = mapCovers(covers, ttl, { form: "nand", fanIn: 4 });
+    expect(Math.max(...r.netlist.gates.map((g) => g.inputs.length))).toBeLessThanOrEqual(4);
+    checkAgainstCovers(covers, r.netlist);
+  });
+});
+
+describe("forms", () => {
+  const covers: CoverSet = { inputs: letters(4), outputs: [sop("permit", "11--", "--01", "0-0-"), sop("alarm", "11--", "-111")] };
+  const allowed: Record<TargetForm, string[]> = {
+    "and-or": ["AND", "OR", "NOT", "BUF"],
+    "or-and": ["AND", "OR", "NOT", "BUF"],
+    nand: ["NAND", "NOT", "BUF"],
+    nor: ["NOR", "NOT", "BUF"],
+    mixed: ["AND", "OR", "NAND", "NOR", "NOT", "BUF"],
+  };
+  for (const form of TARGET_FORMS) {
+    it(`${form} uses only its gates and equals the cover`, () => {
+      const r = mapCovers(covers, user(2), { form });
+      for (const g of r.netlist.gates) expect(allowed[form]).toContain(g.type);
+      checkAgainstCovers(covers, r.netlist);
+    });
+  }
+  it("NAND-NAND: a two-level SOP needs no inner inverters when it fits", () => {
+    // textbook identity (De Morgan): ab + cd = NAND(NAND(a,b), NAND(c,d))
+    const r = mapCovers({ inputs: letters(4), outputs: [sop("f", "11--", "--11")] }, user(4), { form: "nand" });
+    expect(r.netlist.gates.map((g) => g.type)).toEqual(["NAND", "NAND", "NAND"]);
+  });
+  it("NOR-NOR maps a POS cover with NOR gates only", () => {
+    // textbook identity (De Morgan): (a + b)(c + d) = NOR(NOR(a,b), NOR(c,d))
+    const covers2: CoverSet = { inputs: letters(4), outputs: [pos("f", "11--", "--11")] };
+    const r = mapCovers(covers2, user(4), { form: "nor" });
+    expect(r.netlist.gates.map((g) => g.type)).toEqual(["NOR", "NOR", "NOR"]);
+    checkAgainstCovers(covers2, r.netlist);
+  });
+  it("keeps the inversions right through a NAND tree", () => {
+    // worked by hand: 8 products at NAND fan-in 2 form a sum tree whose inner levels need inverters
+    const cubes = ["1-------", "-1------", "--1-----", "---1----", "----1---", "-----1--", "------1-", "-------1"];
+    const covers3: CoverSet = { inputs: letters(8), outputs: [sop("any_fault", ...cubes)] };
+    const r = mapCovers(covers3, user(2), { form: "nand" });
+    for (const g of r.netlist.gates) expect(["NAND", "NOT"]).toContain(g.type);
+    checkAgainstCovers(covers3, r.netlist);
+  });
+  it("mixed form alternates NAND and NOR instead of adding inverters", () => {
+    // textbook identity: a·b·c·d = NOR(NAND(a,b), NAND(c,d))
+    const r = mapCovers({ inputs: letters(4), outputs: [sop("f", "1111")] }, user(2), { form: "mixed" });
+    expect(r.netlist.gates.length).toBe(3);
+  });
+});
+
+describe("inverters and sharing", () => {
+  it("shares one inverter per complemented input", () => {
+    const covers: CoverSet = { inputs: letters(3), outputs: [sop("f", "01-", "0-1"), sop("g", "0-0")] };
+    const r = mapCovers(covers, user(4));
+    const nots = r.netlist.gates.filter((g) => g.type === "NOT");
+    expect(nots.filter((g) => g.inputs[0] === "a").length).toBe(1);
+    expect(nots.length).toBe(2); // a' and c'
+    checkAgainstCovers(covers, r.netlist);
+  });
+  it("uses complemented inputs when they exist", () => {
+    const covers: CoverSet = { inputs: letters(3), outputs: [sop("f", "01-", "0-1"), sop("g", "0-0")] };
+    const r = mapCovers(covers, user(4), { complementedInputs: true });
+    expect(r.netlist.gates.some((g) => g.type === "NOT")).toBe(false);
+    expect(r.netlist.complements.map((c) => c.input)).toEqual(["a", "b", "c"]);
+    checkAgainstCovers(covers, r.netlist);
+  });
+  it("shares product terms across outputs", () => {
+    const covers: CoverSet = { inputs: letters(4), outputs: [sop("f", "11--", "--11"), sop("g", "11--", "1-1-")] };
+    const r = mapCovers(covers, user(4));
+    const ab = r.netlist.gates.filter((g) => g.type === "AND" && [...g.inputs].sort().join() === "a,b");
+    expect(ab.length).toBe(1);
+  });
+  it("gives constants and plain wires as output nets", () => {
+    const covers: CoverSet = { inputs: letters(2), outputs: [sop("on", "--"), sop("off"), sop("same", "1-"), pos("zero", "--")] };
+    const r = mapCovers(covers, user(2));
+    const net = Object.fromEntries(r.netlist.outputs.map((o) => [o.name, o.net]));
+    expect(net).toEqual({ on: "1", off: "0", same: "a", zero: "0" });
+    expect(r.netlist.gates.length).toBe(0);
+  });
+});
+
+describe("fan-out", () => {
+  const wide = (k: number): CoverSet => ({
+    inputs: ["key", ...letters(k)],
+    outputs: letters(k).map((x, i) => ({ name: `lamp${i}`, form: "sop" as const, cubes: [cubeFromString("1" + "-".repeat(i) + "1" + "-".repeat(k - i - 1))] })),
+  });
+  it("a fan-out of 10 drives ten inputs unbuffered but needs a buffer for an eleventh", () => {
+    // common practice, no source
+    const ten = mapCovers(wide(10), user(2, 10));
+    expect(ten.netlist.gates.filter((g) => g.type === "BUF").length).toBe(0);
+    expect(netLoads(ten.netlist).get("key")).toBe(10);
+    const eleven = mapCovers(wide(11), user(2, 10));
+    expect(eleven.netlist.gates.filter((g) => g.type === "BUF").length).toBe(1);
+    for (const [, l] of netLoads(eleven.netlist)) expect(l).toBeLessThanOrEqual(10);
+    checkAgainstCovers(wide(11), eleven.netlist);
+  });
+  it("counts output pins as loads", () => {
+    // f = a drives its pin (3 unit loads here) and 8 gates: 11 > 10 needs one buffer
+    const covers: CoverSet = { inputs: ["a", ...letters(8).map((x) => x + "x")], outputs: [sop("f", "1--------"), ...letters(8).map((x, i) => ({ name: `g${i}`, form: "sop" as const, cubes: [cubeFromString("1" + "-".repeat(i) + "1" + "-".repeat(7 - i))] }))] };
+    const r = mapCovers(covers, user(2, 10), { outputPinLoad: 3 });
+    expect(r.netlist.gates.filter((g) => g.type === "BUF").length).toBe(1);
+    expect(r.netlist.outputs.find((o) => o.name === "f")!.net).toBe("a");
+    for (const [, l] of netLoads(r.netlist, 3)) expect(l).toBeLessThanOrEqual(10);
+  });
+  it("refuses a fan-out below 2", () => {
+    expect(() => mapCovers(wide(3), user(2, 1))).toThrow(MapError);
+  });
+});
+
+describe("every mapping equals its cover", () => {
+  it("random covers, forms, widths and fan-outs", () => {
+    // brute force here: each minterm evaluated on the netlist and on the cover
+    const cube = (n: number) => fc.array(fc.constantFrom("0", "1", "-"), { minLength: n, maxLength: n }).map((a) => a.join(""));
+    const arb = fc.integer({ min: 1, max: 6 }).chain((n) =>
+      fc.record({
+        n: fc.constant(n),
+        outs: fc.array(fc.record({ form: fc.constantFrom("sop" as const, "pos" as const), cubes: fc.array(cube(n), { maxLength: 7 }) }), { minLength: 1, maxLength: 3 }),
+        form: fc.constantFrom(...TARGET_FORMS),
+        fanIn: fc.integer({ min: 2, max: 5 }),
+        fanOut: fc.integer({ min: 2, max: 6 }),
+        rails: fc.boolean(),
+      }),
+    );
+    fc.assert(
+      fc.property(arb, ({ n, outs, form, fanIn, fanOut, rails }) => {
+        const covers: CoverSet = { inputs: letters(n), outputs: outs.map((o, i) => ({ name: `out${i}`, form: o.form, cubes: o.cubes.map(cubeFromString) })) };
+        const r = mapCovers(covers, user(fanIn, fanOut), { form, complementedInputs: rails });
+        checkAgainstCovers(covers, r.netlist);
+        for (const g of r.netlist.gates) expect(g.inputs.length).toBeLessThanOrEqual(Math.max(fanIn, 1));
+        for (const [, l] of netLoads(r.netlist)) expect(l).toBeLessThanOrEqual(fanOut);
+      }),
+      { numRuns: 150 },
+    );
+  });
+});
+
+describe("verification", () => {
+  it("finds a wrong gate exhaustively", () => {
+    const covers: CoverSet = { inputs: letters(3), outputs: [sop("f", "11-", "--1")] };
+    const r = mapCovers(covers, user(2));
+    const broken: Netlist = { ...r.netlist, gates: r.netlist.gates.map((g) => (g.type === "OR" ? { ...g, type: "AND" as const } : g)) };
+    const v = verifyNetlist(broken, covers.inputs, [{ name: "f", on: covers.outputs[0]!.cubes, dc: [] }]);
+    expect(v.ok).toBe(false);
+    const m = v.mismatches[0]!;
+    // the reported minterm really differs: reference evaluation here
+    expect(evalNetlist(broken, covers.inputs, m.minterm).get("f")).not.toBe(evalCover("sop", covers.outputs[0]!.cubes, m.minterm));
+  });
+  it("proves and refutes above 20 inputs with SAT", () => {
+    const n = 22;
+    const inputs = Array.from({ length: n }, (_, i) => `s${i}`);
+    const cubes: Cube[] = ["1".repeat(11) + "-".repeat(11), "-".repeat(11) + "0".repeat(11), "1" + "-".repeat(20) + "1"].map(cubeFromString);
+    const covers: CoverSet = { inputs, outputs: [{ name: "weir_open", form: "sop", cubes }] };
+    const r = mapCovers(covers, builtInFamily("cmos-hc-5v")!, { form: "nand" });
+    expect(r.verification?.method).toBe("sat");
+    expect(r.verification?.ok).toBe(true);
+    // drop the last product's gate input: the netlist now misses minterms of s0 · s21
+    const last = r.netlist.gates.find((g) => g.inputs.includes("s21"))!;
+    const broken: Netlist = { ...r.netlist, gates: r.netlist.gates.map((g) => (g === last ? { ...g, inputs: g.inputs.map((x) => (x === "s21" ? "s1" : x)) } : g)) };
+    const v = verifyNetlist(broken, inputs, [{ name: "weir_open", on: cubes, dc: [] }]);
+    expect(v.ok).toBe(false);
+    const m = v.mismatches[0]!.minterm;
+    expect(evalNetlist(broken, inputs, m).get(broken.outputs[0]!.net)).not.toBe(evalCover("sop", cubes, m));
+  });
+  it("accepts any value on don't-cares", () => {
+    const covers: CoverSet = { inputs: letters(2), outputs: [sop("f", "1-")] };
+    const r = mapCovers(covers, user(2), { spec: { inputs: letters(2), outputs: [{ name: "f", on: [cubeFromString("11")], dc: [cubeFromString("10")] }] } });
+    expect(r.verification?.ok).toBe(true);
+    expect(() => mapCovers(covers, user(2), { spec: { inputs: letters(2), outputs: [{ name: "f", on: [cubeFromString("11")], dc: [] }] } })).toThrow(/internal check failed/);
+  });
+});
