@@ -1,0 +1,25 @@
+import { readFile } from "node:fs/promises";
+import path from "node:path";
+import type { Metadata } from "next";
+import { marked } from "marked";
+import { SiteHeader } from "@/components/ui/SiteHeader";
+
+export const metadata: Metadata = {
+  title: "Equation language",
+  description: "Reference of the Fanbound equation language: inputs, outputs, operators, minterm lists, let, never, blocks.",
+};
+
+/** The language reference, written once in lib/lang/REFERENCE.md. */
+export default async function LanguagePage() {
+  const source = await readFile(path.join(process.cwd(), "lib/lang/REFERENCE.md"), "utf8");
+  const html = await marked.parse(source, { gfm: true });
+  return (
+    <>
+      <SiteHeader />
+      <main className="mx-auto max-w-3xl px-6 py-10">
+        {/* the Markdown is ours, from the repository, so it is rendered as is */}
+        <article className="doc" dangerouslySetInnerHTML={{ __html: html }} />
+      </main>
+    </>
+  );
+}

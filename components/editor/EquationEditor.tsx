@@ -1,0 +1,141 @@
+"use client";
+/**
+ * The equation editor: Monaco with the Fanbound language, loaded from the
+ * local monaco-editor package (never a CDN). Import it through next/dynamic
+ * with ssr: false, for example:
+ *
+ *   const EquationEditor = dynamic(() => import("@/components/editor/EquationEditor"), { ssr: false });
+ */
+import Editor, { loader } from "@monaco-editor/react";
+import type * as Monaco from "monaco-editor";
+import { useEffect, useRef, useState } from "react";
+import type { Diagnostic } from "../../lib/lang/index";
+import { FANBOUND_LANGUAGE_ID, NIGHT_THEME, PAPER_THEME, registerFanboundLanguage, setDiagnosticsMarkers } from "./fanbound-language";
+
+export interface EquationEditorProps {
+  value: string;
+  onChange?: (value: string) => void;
+  /** Default false. */
+  readOnly?: boolean;
+  /** Shown as markers; pass the diagnostics of compileSource for the current value. */
+  diagnostics?: readonly Diagnostic[];
+  /** CSS height; default "24rem". */
+  height?: number | string;
+  /** Default: follows the system colour scheme, as the app's CSS does. */
+  theme?: typeof PAPER_THEME | typeof NIGHT_THEME;
+  /** Accessible label of the editing area. Default "Equations". */
+  ariaLabel?: string;
+}
+
+type MonacoApi = typeof Monaco;
+
+let loading: Promise<MonacoApi> | null = null;
+
+/** Loads the bundled Monaco once, with its editor worker from the local package. */
+function loadMonaco(): Promise<MonacoApi> {
+  loading ??= (async () => {
+    (self as unknown as { MonacoEnvironment: Monaco.Environment }).MonacoEnvironment = {
+      getWorker() {
+        return new Worker(new URL("monaco-editor/editor/editor.worker.js", import.meta.url), { type: "module" });
+      },
+    };
+    const monaco = await import("monaco-editor");
+    loader.config({ monaco });
+    registerFanboundLanguage(monaco);
+    return monaco;
+  })();
+  return loading;
+}
+
+function useSystemDark(): boolean {
+  const [dark, setDark] = useState(false);
+  useEffect(() => {
+    const q = window.matchMedia("(prefers-color-scheme: dark)");
+    setDark(q.matches);
+    const on = (e: MediaQueryListEvent) => setDark(e.matches);
+    q.addEventListener("change", on);
+    return () => q.removeEventListener("change", on);
+  }, []);
+  return dark;
+}
+
+export default function EquationEditor({
+  value,
+  onChange,
+  readOnly = false,
+  diagnostics = [],
+  height = "24rem",
+  theme,
+  ariaLabel = "Equations",
+}: EquationEditorProps) {
+  const [monaco, setMonaco] = useState<MonacoApi | null>(null);
+  const [failed, setFailed] = useState<string | null>(null);
+  const editorRef = useRef<Monaco.editor.IStandaloneCodeEditor | null>(null);
+  const dark = useSystemDark();
+
+  useEffect(() => {
+    let live = true;
+    loadMonaco().then(
+      (m) => live && setMonaco(m),
+      (e: unknown) => live && setFailed(e instanceof Error ? e.message : String(e)),
+    );
+    return () => {
+      live = false;
+    };
+  }, []);
+
+  useEffect(() => {
+    const model = editorRef.current?.getModel();
+    if (monaco && model) setDiagnosticsMarkers(monaco, model, diagnostics);
+  }, [monaco, diagnostics]);
+
+  if (failed) {
+    return (
+      <div className="border border-vermilion p-3 font-mono text-sm text-vermilion" style={{ height }}>
+        The editor could not load ({failed}). Reload the page to try again.
+      </div>
+    );
+  }
+  if (!monaco) {
+    return (
+      <div className="flex items-center border border-rule bg-paper px-3 font-mono text-sm text-graphite" style={{ height }} aria-busy="true">
+        Loading the editor…
+      </div>
+    );
+  }
+  return (
+    <div className="border border-rule" style={{ height }}>
+      <Editor
+        height="100%"
+        language={FANBOUND_LANGUAGE_ID}
+        theme={theme ?? (dark ? NIGHT_THEME : PAPER_THEME)}
+        value={value}
+        onChange={(v) => onChange?.(v ?? "")}
+        onMount={(editor) => {
+          editorRef.current = editor;
+          const model = editor.getModel();
+          if (model) setDiagnosticsMarkers(monaco, model, diagnostics);
+        }}
+        loading={<span className="font-mono text-sm text-graphite">Loading the editor…</span>}
+        options={{
+          readOnly,
+          ariaLabel,
+          minimap: { enabled: false },
+          fontFamily: "var(--font-mono), ui-monospace, monospace",
+          fontSize: 14,
+          lineHeight: 21,
+          tabSize: 2,
+          insertSpaces: true,
+          scrollBeyondLastLine: false,
+          renderLineHighlight: "line",
+          lineNumbersMinChars: 3,
+          glyphMargin: false,
+          folding: true,
+          wordBasedSuggestions: "off",
+          automaticLayout: true,
+          fixedOverflowWidgets: true,
+        }}
+      />
+    </div>
+  );
+}
