@@ -3,13 +3,34 @@ import type { NextAuthOptions } from "next-auth";
 import Credentials from "next-auth/providers/credentials";
 import { z } from "zod";
 import { findUserForSignIn } from "../data/users";
+import { consumeSignInLink } from "../data/accounts";
 
-const credentials = z.object({
+const passwordCredentials = z.object({
   email: z.string().trim().toLowerCase().email(),
   password: z.string().min(1).max(200),
 });
+const linkCredentials = z.object({ token: z.string().min(10).max(200) });
 
-/** next-auth 4 with JWT sessions; the user id travels in the token as `sub`. */
+type SignedIn = { id: string; email: string; name: string };
+
+/** The "password" provider's check: the user, or null when e-mail or password is wrong. */
+export async function authorizePassword(raw: unknown): Promise<SignedIn | null> {
+  const parsed = passwordCredentials.safeParse(raw);
+  if (!parsed.success) return null;
+  return findUserForSignIn(parsed.data.email, parsed.data.password);
+}
+
+/** The "email-link" provider's check: uses up a one-time sign-in secret from a mailed link. */
+export async function authorizeEmailLink(raw: unknown): Promise<SignedIn | null> {
+  const parsed = linkCredentials.safeParse(raw);
+  if (!parsed.success) return null;
+  return consumeSignInLink(parsed.data.token);
+}
+
+/**
+ * next-auth 4 with JWT sessions; the user id travels in the token as `sub`.
+ * Rate limits on sign-in sit in the route (app/api/auth/[...nextauth]).
+ */
 export const authOptions: NextAuthOptions = {
   session: { strategy: "jwt", maxAge: 60 * 60 * 24 * 7 },
   pages: { signIn: "/signin" },
@@ -18,12 +39,15 @@ export const authOptions: NextAuthOptions = {
       id: "password",
       name: "E-mail and password",
       credentials: { email: { label: "E-mail", type: "email" }, password: { label: "Password", type: "password" } },
-      async authorize(raw) {
-        const parsed = credentials.safeParse(raw);
-        if (!parsed.success) return null;
-        const user = await findUserForSignIn(parsed.data.email, parsed.data.password);
-        return user ? { id: user.id, email: user.email, name: user.name } : null;
-      },
+      authorize: (raw) => authorizePassword(raw),
+    }),
+    // A one-time link by e-mail, as a second Credentials provider: next-auth's
+    // Email provider would need a database adapter, which JWT sessions do not use.
+    Credentials({
+      id: "email-link",
+      name: "Sign-in link by e-mail",
+      credentials: { token: { label: "Token", type: "text" } },
+      authorize: (raw) => authorizeEmailLink(raw),
     }),
   ],
   callbacks: {

@@ -1,0 +1,47 @@
+/**
+ * Route specifications: method, path, schemas and summary of each REST route.
+ * The handler wrapper validates with these very schemas and the OpenAPI
+ * builder describes them, so the document cannot drift from the handlers.
+ */
+import type { z } from "zod";
+
+export type Method = "GET" | "POST" | "PATCH" | "DELETE";
+
+export interface RouteSpec<
+  P extends z.ZodType | undefined = z.ZodType | undefined,
+  Q extends z.ZodType | undefined = z.ZodType | undefined,
+  B extends z.ZodType | undefined = z.ZodType | undefined,
+  A extends "user" | "none" = "user" | "none",
+> {
+  method: Method;
+  /** OpenAPI path below /api/v1, e.g. "/workspaces/{ws}". */
+  path: string;
+  summary: string;
+  tag: string;
+  /** "user": a signed-in caller is required (401 otherwise); "none": public. */
+  auth: A;
+  params?: P;
+  query?: Q;
+  body?: B;
+  /** Response body on success; absent for file downloads. */
+  response?: z.ZodType;
+  /** Success status, default 200. */
+  status?: number;
+  /** Content type of a non-JSON success response. */
+  produces?: string;
+  /** Statuses this route may answer besides the success status. */
+  errors: number[];
+}
+
+export const registry: RouteSpec[] = [];
+
+/** Records a route specification; the returned object is what the route handler wraps. */
+export function defineRoute<
+  P extends z.ZodType | undefined = undefined,
+  Q extends z.ZodType | undefined = undefined,
+  B extends z.ZodType | undefined = undefined,
+  A extends "user" | "none" = "user" | "none",
+>(spec: RouteSpec<P, Q, B, A>): RouteSpec<P, Q, B, A> {
+  registry.push(spec as unknown as RouteSpec);
+  return spec;
+}

@@ -1,0 +1,307 @@
+/**
+ * Every REST route under /api/v1: its schemas and its summary. Route handlers
+ * wrap these specs with `handle`; the OpenAPI document is built from them.
+ */
+import { z } from "zod";
+import { defineRoute } from "./registry";
+import { CompileSettings } from "./compile";
+// Kept here rather than imported from models/, so this module stays free of Sequelize.
+const ROLES = ["owner", "designer", "reviewer", "viewer"] as const;
+
+// ---- shared pieces -------------------------------------------------------------
+
+const Slug = z.string().regex(/^[a-z0-9][a-z0-9-]{1,62}$/, "2–63 lower-case letters, digits or dashes, starting with a letter or digit");
+const Id = z.uuid();
+const Email = z.string().trim().toLowerCase().pipe(z.email()).pipe(z.string().max(254));
+const Name = z.string().trim().min(1, "must not be empty").max(120);
+const Password = z.string().min(10, "use at least 10 characters").max(200);
+const Role = z.enum(ROLES);
+const Json = z.record(z.string(), z.unknown());
+const Source = z.string().max(200_000);
+const Ref = z.object({ id: z.string(), name: z.string() });
+const FamilyRef = z.object({ id: z.string(), key: z.string(), name: z.string() });
+const Page = { limit: z.coerce.number().int().min(1).max(200).optional(), cursor: z.string().max(64).optional() };
+const Diagnostic = z.object({
+  severity: z.enum(["error", "warning"]),
+  message: z.string(),
+  line: z.number(),
+  column: z.number(),
+  endLine: z.number(),
+  endColumn: z.number(),
+});
+
+export const ErrorShape = z.object({
+  error: z.object({ code: z.string(), message: z.string(), details: z.unknown() }),
+});
+
+const WsParams = z.object({ ws: Slug });
+const DesignParams = WsParams.extend({ designId: Id });
+const RevisionParams = DesignParams.extend({ number: z.coerce.number().int().positive() });
+
+const Workspace = z.object({ id: z.string(), slug: z.string(), name: z.string(), role: Role, settings: Json });
+const Member = z.object({ userId: z.string(), email: z.string(), name: z.string(), role: Role, joinedAt: z.string() });
+const Invitation = z.object({
+  id: z.string(),
+  email: z.string(),
+  role: Role,
+  status: z.enum(["open", "accepted", "revoked", "expired"]),
+  expiresAt: z.string(),
+  createdAt: z.string(),
+  invitedBy: Ref,
+});
+const Family = z.object({
+  id: z.string(),
+  key: z.string(),
+  name: z.string(),
+  builtin: z.boolean(),
+  fanIn: z.number().nullable(),
+  fanOut: z.number().nullable(),
+  data: Json,
+});
+const LatestRevision = z.object({ number: z.number(), createdAt: z.string(), message: z.string(), author: Ref, stats: Json });
+const DesignSummary = z.object({
+  id: z.string(),
+  name: z.string(),
+  description: z.string(),
+  family: FamilyRef,
+  latestRevision: LatestRevision.nullable(),
+  updatedAt: z.string(),
+  archivedAt: z.string().nullable(),
+  createdBy: Ref,
+});
+const DesignDetail = DesignSummary.extend({ draftSource: z.string(), settings: Json });
+const RevisionSummary = z.object({
+  id: z.string(),
+  number: z.number(),
+  message: z.string(),
+  author: Ref,
+  createdAt: z.string(),
+  stats: Json,
+  family: FamilyRef,
+});
+const RevisionDetail = RevisionSummary.extend({ source: z.string(), settings: Json, familySnapshot: Json });
+const Token = z.object({
+  id: z.string(),
+  name: z.string(),
+  prefix: z.string(),
+  createdAt: z.string(),
+  expiresAt: z.string(),
+  lastUsedAt: z.string().nullable(),
+  revokedAt: z.string().nullable(),
+});
+const Accepted = z.object({ ok: z.literal(true), message: z.string() });
+
+const R = [401, 429];
+const WS = [400, 401, 403, 404];
+
+// ---- account ------------------------------------------------------------------
+
+export const routes = {
+  me: defineRoute({
+    method: "GET", path: "/me", tag: "account", auth: "user", summary: "The caller and their workspaces",
+    response: z.object({ user: z.object({ id: z.string(), email: z.string(), name: z.string() }), workspaces: z.array(Workspace.omit({ settings: true })) }),
+    errors: [401],
+  }),
+  signUp: defineRoute({
+    method: "POST", path: "/auth/signup", tag: "account", auth: "none", summary: "Create an account with e-mail and password",
+    body: z.object({ email: Email, name: Name, password: Password }).strict(),
+    response: z.object({ user: z.object({ id: z.string(), email: z.string(), name: z.string() }) }),
+    status: 201, errors: [400, 409, 413, 415, 429],
+  }),
+  emailLink: defineRoute({
+    method: "POST", path: "/auth/email-link", tag: "account", auth: "none",
+    summary: "Mail a one-time sign-in link (answers the same whether or not the address has an account)",
+    body: z.object({ email: Email, callbackUrl: z.string().max(500).optional() }).strict(),
+    response: Accepted, status: 202, errors: [400, 413, 415, 429],
+  }),
+  passwordReset: defineRoute({
+    method: "POST", path: "/auth/password-reset", tag: "account", auth: "none",
+    summary: "Mail a password-reset link (answers the same whether or not the address has an account)",
+    body: z.object({ email: Email }).strict(),
+    response: Accepted, status: 202, errors: [400, 413, 415, 429],
+  }),
+  passwordResetComplete: defineRoute({
+    method: "POST", path: "/auth/password-reset/complete", tag: "account", auth: "none",
+    summary: "Set a new password with the secret from the reset mail",
+    body: z.object({ token: z.string().min(10).max(200), password: Password }).strict(),
+    response: z.object({ ok: z.literal(true) }), errors: [400, 413, 415, 429],
+  }),
+  listTokens: defineRoute({
+    method: "GET", path: "/tokens", tag: "tokens", auth: "user", summary: "The caller's personal API tokens",
+    response: z.object({ items: z.array(Token) }), errors: [401],
+  }),
+  createToken: defineRoute({
+    method: "POST", path: "/tokens", tag: "tokens", auth: "user",
+    summary: "Create a personal API token; the secret is in this response only",
+    body: z.object({
+      name: z.string().trim().min(1).max(80),
+      expiresAt: z.iso.datetime({ offset: true }).describe("at most 365 days ahead"),
+    }).strict(),
+    response: z.object({ token: Token, secret: z.string() }), status: 201, errors: [400, 401, 413, 415],
+  }),
+  revokeToken: defineRoute({
+    method: "DELETE", path: "/tokens/{id}", tag: "tokens", auth: "user", summary: "Revoke a personal API token",
+    params: z.object({ id: Id }), response: z.object({ token: Token }), errors: [400, 401, 404],
+  }),
+
+  // ---- workspaces ----------------------------------------------------------------
+  listWorkspaces: defineRoute({
+    method: "GET", path: "/workspaces", tag: "workspaces", auth: "user", summary: "The caller's workspaces",
+    response: z.object({ items: z.array(Workspace) }), errors: [401],
+  }),
+  createWorkspace: defineRoute({
+    method: "POST", path: "/workspaces", tag: "workspaces", auth: "user", summary: "Create a workspace; the caller becomes its owner",
+    body: z.object({ name: Name, slug: Slug, settings: Json.optional() }).strict(),
+    response: z.object({ workspace: Workspace }), status: 201, errors: [400, 401, 409, 413, 415],
+  }),
+  getWorkspace: defineRoute({
+    method: "GET", path: "/workspaces/{ws}", tag: "workspaces", auth: "user", summary: "One workspace",
+    params: WsParams, response: z.object({ workspace: Workspace }), errors: WS,
+  }),
+  updateWorkspace: defineRoute({
+    method: "PATCH", path: "/workspaces/{ws}", tag: "workspaces", auth: "user", summary: "Rename or change settings (owner)",
+    params: WsParams, body: z.object({ name: Name.optional(), settings: Json.optional() }).strict(),
+    response: z.object({ workspace: Workspace }), errors: [...WS, 413, 415],
+  }),
+  listMembers: defineRoute({
+    method: "GET", path: "/workspaces/{ws}/members", tag: "members", auth: "user", summary: "Members and their roles",
+    params: WsParams, response: z.object({ items: z.array(Member) }), errors: WS,
+  }),
+  updateMember: defineRoute({
+    method: "PATCH", path: "/workspaces/{ws}/members/{userId}", tag: "members", auth: "user", summary: "Change a member's role (owner)",
+    params: WsParams.extend({ userId: Id }), body: z.object({ role: Role }).strict(),
+    response: z.object({ member: Member }), errors: [...WS, 409, 413, 415],
+  }),
+  removeMember: defineRoute({
+    method: "DELETE", path: "/workspaces/{ws}/members/{userId}", tag: "members", auth: "user", summary: "Remove a member (owner)",
+    params: WsParams.extend({ userId: Id }), response: z.object({ ok: z.literal(true) }), errors: [...WS, 409],
+  }),
+  listInvitations: defineRoute({
+    method: "GET", path: "/workspaces/{ws}/invitations", tag: "members", auth: "user", summary: "Invitations (owner)",
+    params: WsParams, response: z.object({ items: z.array(Invitation) }), errors: WS,
+  }),
+  createInvitation: defineRoute({
+    method: "POST", path: "/workspaces/{ws}/invitations", tag: "members", auth: "user", summary: "Invite by e-mail (owner)",
+    params: WsParams, body: z.object({ email: Email, role: Role }).strict(),
+    response: z.object({ invitation: Invitation }), status: 201, errors: [...WS, 409, 413, 415],
+  }),
+  revokeInvitation: defineRoute({
+    method: "DELETE", path: "/workspaces/{ws}/invitations/{id}", tag: "members", auth: "user", summary: "Revoke an invitation (owner)",
+    params: WsParams.extend({ id: Id }), response: z.object({ invitation: Invitation }), errors: [...WS, 409],
+  }),
+  acceptInvitation: defineRoute({
+    method: "POST", path: "/invitations/accept", tag: "members", auth: "user",
+    summary: "Accept an invitation with the secret from its mail (signed in with the invited address)",
+    body: z.object({ token: z.string().min(10).max(200) }).strict(),
+    response: z.object({ workspace: Workspace.omit({ settings: true }) }), errors: [400, 401, 403, 404, 409, 413, 415],
+  }),
+
+  // ---- families ------------------------------------------------------------------
+  listFamilies: defineRoute({
+    method: "GET", path: "/workspaces/{ws}/families", tag: "families", auth: "user", summary: "Built-in families and the workspace's own",
+    params: WsParams, response: z.object({ items: z.array(Family) }), errors: WS,
+  }),
+  createFamily: defineRoute({
+    method: "POST", path: "/workspaces/{ws}/families", tag: "families", auth: "user", summary: "Add a family of the workspace (owner)",
+    params: WsParams,
+    body: z.object({ key: z.string().regex(/^[a-z0-9][a-z0-9-]{0,62}$/), name: Name, data: Json }).strict(),
+    response: z.object({ family: Family }), status: 201, errors: [...WS, 409, 413, 415],
+  }),
+  getFamily: defineRoute({
+    method: "GET", path: "/workspaces/{ws}/families/{familyId}", tag: "families", auth: "user", summary: "One family",
+    params: WsParams.extend({ familyId: Id }), response: z.object({ family: Family }), errors: WS,
+  }),
+  updateFamily: defineRoute({
+    method: "PATCH", path: "/workspaces/{ws}/families/{familyId}", tag: "families", auth: "user", summary: "Change a family of the workspace (owner)",
+    params: WsParams.extend({ familyId: Id }), body: z.object({ name: Name.optional(), data: Json.optional() }).strict(),
+    response: z.object({ family: Family }), errors: [...WS, 409, 413, 415],
+  }),
+  deleteFamily: defineRoute({
+    method: "DELETE", path: "/workspaces/{ws}/families/{familyId}", tag: "families", auth: "user", summary: "Delete an unused family of the workspace (owner)",
+    params: WsParams.extend({ familyId: Id }), response: z.object({ ok: z.literal(true) }), errors: [...WS, 409],
+  }),
+
+  // ---- designs and revisions -------------------------------------------------------
+  listDesigns: defineRoute({
+    method: "GET", path: "/workspaces/{ws}/designs", tag: "designs", auth: "user", summary: "Designs, searchable and sortable, one page at a time",
+    params: WsParams,
+    query: z.object({
+      q: z.string().max(120).optional(),
+      sort: z.enum(["name", "updated", "gates", "depth", "delay"]).optional(),
+      order: z.enum(["asc", "desc"]).optional(),
+      archived: z.enum(["0", "1"]).optional(),
+      ...Page,
+    }),
+    response: z.object({ items: z.array(DesignSummary), nextCursor: z.string().nullable() }), errors: WS,
+  }),
+  createDesign: defineRoute({
+    method: "POST", path: "/workspaces/{ws}/designs", tag: "designs", auth: "user", summary: "Create a design (designer, owner)",
+    params: WsParams,
+    body: z.object({
+      name: Name,
+      description: z.string().max(4000).optional(),
+      familyId: Id,
+      settings: CompileSettings.optional(),
+      draftSource: Source.optional(),
+    }).strict(),
+    response: z.object({ design: DesignDetail }), status: 201, errors: [...WS, 409, 413, 415],
+  }),
+  getDesign: defineRoute({
+    method: "GET", path: "/workspaces/{ws}/designs/{designId}", tag: "designs", auth: "user", summary: "One design with its draft",
+    params: DesignParams, response: z.object({ design: DesignDetail }), errors: WS,
+  }),
+  updateDesign: defineRoute({
+    method: "PATCH", path: "/workspaces/{ws}/designs/{designId}", tag: "designs", auth: "user", summary: "Edit, archive or restore a design (designer, owner)",
+    params: DesignParams,
+    body: z.object({
+      name: Name.optional(),
+      description: z.string().max(4000).optional(),
+      familyId: Id.optional(),
+      settings: CompileSettings.optional(),
+      draftSource: Source.optional(),
+      archived: z.boolean().optional(),
+    }).strict(),
+    response: z.object({ design: DesignDetail }), errors: [...WS, 409, 413, 415],
+  }),
+  listRevisions: defineRoute({
+    method: "GET", path: "/workspaces/{ws}/designs/{designId}/revisions", tag: "revisions", auth: "user", summary: "Revisions, newest first",
+    params: DesignParams, query: z.object(Page),
+    response: z.object({ items: z.array(RevisionSummary), nextCursor: z.string().nullable() }), errors: WS,
+  }),
+  createRevision: defineRoute({
+    method: "POST", path: "/workspaces/{ws}/designs/{designId}/revisions", tag: "revisions", auth: "user",
+    summary: "Compile and save a revision (designer, owner); the server computes the stored figures",
+    params: DesignParams,
+    body: z.object({ message: z.string().trim().min(1).max(2000), source: Source, familyId: Id, settings: CompileSettings }).strict(),
+    response: z.object({ revision: RevisionDetail }), status: 201, errors: [...WS, 413, 415, 422, 429],
+  }),
+  getRevision: defineRoute({
+    method: "GET", path: "/workspaces/{ws}/designs/{designId}/revisions/{number}", tag: "revisions", auth: "user", summary: "One revision",
+    params: RevisionParams, response: z.object({ revision: RevisionDetail }), errors: WS,
+  }),
+  exportRevision: defineRoute({
+    method: "GET", path: "/workspaces/{ws}/designs/{designId}/revisions/{number}/export", tag: "revisions", auth: "user",
+    summary: "The revision's netlist as a file: Verilog (IEEE 1364), VHDL (IEEE 1076), CSV or JSON",
+    params: RevisionParams, query: z.object({ format: z.enum(["verilog", "vhdl", "csv", "json"]) }),
+    produces: "text/plain", errors: [...WS, 422],
+  }),
+
+  // ---- compile -------------------------------------------------------------------
+  compile: defineRoute({
+    method: "POST", path: "/compile", tag: "compile", auth: "user",
+    summary: "Compile a source: diagnostics, minimized covers, netlist and figures (built-in families for anyone signed in; a workspace family needs membership)",
+    body: z.object({
+      source: Source,
+      settings: CompileSettings.default({}),
+      workspace: Slug.optional(),
+      familyId: Id.optional(),
+      familyKey: z.string().max(64).optional(),
+    }).strict().refine((b) => b.familyId || b.familyKey, { message: "give familyId or familyKey", path: ["familyId"] }),
+    response: z.object({ diagnostics: z.array(Diagnostic), result: z.unknown().nullable(), family: FamilyRef }),
+    errors: [...R, 400, 404, 413, 415, 422],
+  }),
+  openapi: defineRoute({
+    method: "GET", path: "/openapi.json", tag: "meta", auth: "none", summary: "This document",
+    response: Json, errors: [],
+  }),
+};

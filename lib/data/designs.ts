@@ -1,0 +1,228 @@
+import "server-only";
+/**
+ * Designs of a workspace. Every query is bounded by the workspace the caller
+ * was admitted to, so an id from another workspace finds nothing (404).
+ */
+import { QueryTypes } from "sequelize";
+import { db } from "../db/connection";
+import { conflict, invalid, notFound } from "../api/errors";
+import { decodeCursor, encodeCursor, iso, requireAccess, type Actor } from "./access";
+
+export interface DesignSummary {
+  id: string;
+  name: string;
+  description: string;
+  family: { id: string; key: string; name: string };
+  latestRevision: {
+    number: number;
+    createdAt: string;
+    message: string;
+    author: { id: string; name: string };
+    stats: Record<string, unknown>;
+  } | null;
+  updatedAt: string;
+  archivedAt: string | null;
+  createdBy: { id: string; name: string };
+}
+
+export interface DesignDetail extends DesignSummary {
+  draftSource: string;
+  settings: Record<string, unknown>;
+}
+
+export type DesignSort = "name" | "updated" | "gates" | "depth" | "delay";
+
+// Whitelisted order expressions: the sort key never reaches SQL as text.
+const ORDER: Record<DesignSort, string> = {
+  name: "lower(d.name)",
+  updated: "d.updated_at",
+  gates: "(r.stats->>'gates')::numeric",
+  depth: "(r.stats->>'depth')::numeric",
+  delay: "(r.stats->>'delayNs')::numeric",
+};
+
+interface Row {
+  id: string;
+  name: string;
+  description: string;
+  draft_source: string;
+  settings: Record<string, unknown>;
+  updated_at: Date;
+  archived_at: Date | null;
+  creator_id: string;
+  creator_name: string;
+  family_id: string;
+  family_key: string;
+  family_name: string;
+  rev_number: number | null;
+  rev_created_at: Date | null;
+  rev_message: string | null;
+  rev_stats: Record<string, unknown> | null;
+  author_id: string | null;
+  author_name: string | null;
+}
+
+const SELECT = `
+  SELECT d.id, d.name, d.description, d.draft_source, d.settings, d.updated_at, d.archived_at,
+         cu.id AS creator_id, cu.name AS creator_name,
+         f.id AS family_id, f.key AS family_key, f.name AS family_name,
+         r.number AS rev_number, r.created_at AS rev_created_at, r.message AS rev_message, r.stats AS rev_stats,
+         au.id AS author_id, au.name AS author_name
+  FROM designs d
+  JOIN logic_families f ON f.id = d.family_id
+  JOIN users cu ON cu.id = d.created_by
+  LEFT JOIN LATERAL (SELECT * FROM revisions x WHERE x.design_id = d.id ORDER BY x.number DESC LIMIT 1) r ON true
+  LEFT JOIN users au ON au.id = r.author_id`;
+
+function summary(r: Row): DesignSummary {
+  return {
+    id: r.id,
+    name: r.name,
+    description: r.description,
+    family: { id: r.family_id, key: r.family_key, name: r.family_name },
+    latestRevision:
+      r.rev_number === null
+        ? null
+        : {
+            number: r.rev_number,
+            createdAt: iso(r.rev_created_at)!,
+            message: r.rev_message ?? "",
+            author: { id: r.author_id!, name: r.author_name! },
+            stats: r.rev_stats ?? {},
+          },
+    updatedAt: iso(r.updated_at)!,
+    archivedAt: iso(r.archived_at),
+    createdBy: { id: r.creator_id, name: r.creator_name },
+  };
+}
+
+const detail = (r: Row): DesignDetail => ({ ...summary(r), draftSource: r.draft_source, settings: r.settings ?? {} });
+
+/**
+ * One page of the workspace's designs. Defaults: sort "updated", order "desc"
+ * for updated and "asc" otherwise, archived false, limit 50 (max 200).
+ */
+export async function listDesigns(p: {
+  actor: Actor | null;
+  slug: string;
+  q?: string;
+  sort?: DesignSort;
+  order?: "asc" | "desc";
+  archived?: boolean;
+  limit?: number;
+  cursor?: string;
+}): Promise<{ items: DesignSummary[]; nextCursor: string | null }> {
+  const { workspace } = await requireAccess(p.actor, p.slug, "design.read");
+  const sort = p.sort ?? "updated";
+  const dir = (p.order ?? (sort === "updated" ? "desc" : "asc")) === "desc" ? "DESC" : "ASC";
+  const limit = Math.min(Math.max(p.limit ?? 50, 1), 200);
+  const offset = decodeCursor(p.cursor);
+  const where = ["d.workspace_id = :ws", p.archived ? "d.archived_at IS NOT NULL" : "d.archived_at IS NULL"];
+  const replacements: Record<string, unknown> = { ws: workspace.id, limit: limit + 1, offset };
+  if (p.q && p.q.trim()) {
+    where.push("(d.name ILIKE :q OR d.description ILIKE :q)");
+    replacements.q = `%${p.q.trim().replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+  }
+  const rows = await db().sequelize.query<Row>(
+    `${SELECT} WHERE ${where.join(" AND ")} ORDER BY ${ORDER[sort]} ${dir} NULLS LAST, d.id ASC LIMIT :limit OFFSET :offset`,
+    { replacements, type: QueryTypes.SELECT },
+  );
+  const more = rows.length > limit;
+  return { items: rows.slice(0, limit).map(summary), nextCursor: more ? encodeCursor(offset + limit) : null };
+}
+
+async function loadDetail(workspaceId: string, designId: string): Promise<DesignDetail> {
+  const rows = await db().sequelize.query<Row>(`${SELECT} WHERE d.workspace_id = :ws AND d.id = :id`, {
+    replacements: { ws: workspaceId, id: designId },
+    type: QueryTypes.SELECT,
+  });
+  if (!rows[0]) throw notFound("design");
+  return detail(rows[0]);
+}
+
+/** One design with its draft and settings. */
+export async function getDesign(p: { actor: Actor | null; slug: string; designId: string }): Promise<DesignDetail> {
+  const { workspace } = await requireAccess(p.actor, p.slug, "design.read");
+  return loadDetail(workspace.id, p.designId);
+}
+
+/** A family id the workspace may use (built-in or its own), or 400. */
+export async function usableFamily(workspaceId: string, familyId: string) {
+  const { LogicFamilyRecord } = db().models;
+  const row = await LogicFamilyRecord.findByPk(familyId);
+  if (!row || (row.workspaceId !== null && row.workspaceId !== workspaceId)) {
+    throw invalid("familyId names no family this workspace can use; pick one from the families list.", [{ path: "familyId", message: "unknown family" }]);
+  }
+  return row;
+}
+
+function nameTaken(e: unknown, name: string): never {
+  if ((e as { name?: string }).name === "SequelizeUniqueConstraintError") {
+    throw conflict(`A design called "${name}" exists in this workspace already; choose another name.`, { field: "name" });
+  }
+  throw e;
+}
+
+/** Creates a design (designer or owner). */
+export async function createDesign(p: {
+  actor: Actor | null;
+  slug: string;
+  name: string;
+  description?: string;
+  familyId: string;
+  settings?: Record<string, unknown>;
+  draftSource?: string;
+}): Promise<DesignDetail> {
+  const { workspace } = await requireAccess(p.actor, p.slug, "design.edit");
+  await usableFamily(workspace.id, p.familyId);
+  const { Design } = db().models;
+  let id: string;
+  try {
+    const d = await Design.create({
+      workspaceId: workspace.id,
+      name: p.name,
+      description: p.description ?? "",
+      familyId: p.familyId,
+      settings: p.settings ?? {},
+      draftSource: p.draftSource ?? "",
+      createdBy: p.actor!.userId,
+      archivedAt: null,
+    });
+    id = d.id;
+  } catch (e) {
+    nameTaken(e, p.name);
+  }
+  return loadDetail(workspace.id, id);
+}
+
+/** Changes a design's fields or archives / restores it (designer or owner). */
+export async function updateDesign(p: {
+  actor: Actor | null;
+  slug: string;
+  designId: string;
+  name?: string;
+  description?: string;
+  familyId?: string;
+  settings?: Record<string, unknown>;
+  draftSource?: string;
+  archived?: boolean;
+}): Promise<DesignDetail> {
+  const { workspace } = await requireAccess(p.actor, p.slug, "design.edit");
+  const { Design } = db().models;
+  const d = await Design.findOne({ where: { id: p.designId, workspaceId: workspace.id } });
+  if (!d) throw notFound("design");
+  if (p.familyId !== undefined) await usableFamily(workspace.id, p.familyId);
+  const patch: Partial<{ name: string; description: string; familyId: string; settings: Record<string, unknown>; draftSource: string; archivedAt: Date | null }> = {};
+  if (p.name !== undefined) patch.name = p.name;
+  if (p.description !== undefined) patch.description = p.description;
+  if (p.familyId !== undefined) patch.familyId = p.familyId;
+  if (p.settings !== undefined) patch.settings = p.settings;
+  if (p.draftSource !== undefined) patch.draftSource = p.draftSource;
+  if (p.archived !== undefined) patch.archivedAt = p.archived ? (d.archivedAt ?? new Date()) : null;
+  try {
+    await d.update(patch);
+  } catch (e) {
+    nameTaken(e, p.name ?? d.name);
+  }
+  return loadDetail(workspace.id, d.id);
+}

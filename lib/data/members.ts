@@ -1,0 +1,58 @@
+import "server-only";
+import { db } from "../db/connection";
+import { conflict, notFound } from "../api/errors";
+import type { Role } from "../auth/permissions";
+import { iso, requireAccess, type Actor } from "./access";
+
+export interface MemberView {
+  userId: string;
+  email: string;
+  name: string;
+  role: Role;
+  joinedAt: string;
+}
+
+/** Members of a workspace, by name (any member may read). */
+export async function listMembers(p: { actor: Actor | null; slug: string }): Promise<MemberView[]> {
+  const { workspace } = await requireAccess(p.actor, p.slug, "member.read");
+  const { Membership, User } = db().models;
+  const ms = await Membership.findAll({
+    where: { workspaceId: workspace.id },
+    include: [{ model: User, as: "user" }],
+    order: [[{ model: User, as: "user" }, "name", "ASC"]],
+  });
+  return ms.map((m) => {
+    const u = (m as unknown as { user: InstanceType<typeof User> }).user;
+    return { userId: u.id, email: u.email, name: u.name, role: m.role, joinedAt: iso(m.createdAt)! };
+  });
+}
+
+async function ownerCount(workspaceId: string) {
+  return db().models.Membership.count({ where: { workspaceId, role: "owner" } });
+}
+
+/** Changes a member's role (owner); the last owner cannot step down (409). */
+export async function updateMemberRole(p: { actor: Actor | null; slug: string; userId: string; role: Role }): Promise<MemberView> {
+  const { workspace } = await requireAccess(p.actor, p.slug, "member.manage");
+  const { Membership, User } = db().models;
+  const m = await Membership.findOne({ where: { workspaceId: workspace.id, userId: p.userId } });
+  if (!m) throw notFound("member");
+  if (m.role === "owner" && p.role !== "owner" && (await ownerCount(workspace.id)) <= 1) {
+    throw conflict("A workspace needs at least one owner; make someone else owner first.");
+  }
+  await m.update({ role: p.role });
+  const u = (await User.findByPk(p.userId))!;
+  return { userId: u.id, email: u.email, name: u.name, role: m.role, joinedAt: iso(m.createdAt)! };
+}
+
+/** Removes a member (owner); the last owner cannot be removed (409). */
+export async function removeMember(p: { actor: Actor | null; slug: string; userId: string }): Promise<void> {
+  const { workspace } = await requireAccess(p.actor, p.slug, "member.manage");
+  const { Membership } = db().models;
+  const m = await Membership.findOne({ where: { workspaceId: workspace.id, userId: p.userId } });
+  if (!m) throw notFound("member");
+  if (m.role === "owner" && (await ownerCount(workspace.id)) <= 1) {
+    throw conflict("A workspace needs at least one owner; make someone else owner first.");
+  }
+  await m.destroy();
+}

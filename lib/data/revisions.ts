@@ -1,0 +1,187 @@
+import "server-only";
+/**
+ * Revisions: immutable records of a design. The server compiles the source
+ * itself and stores the figures it computed, never figures from the client.
+ * Numbers are assigned under a row lock on the design, so concurrent saves
+ * get consecutive numbers instead of colliding.
+ */
+import { db } from "../db/connection";
+import { AppError, notFound } from "../api/errors";
+import { compileDesign, CompileSettings } from "../api/compile";
+import { toCsv, toVerilog, toVhdl } from "../export";
+import type { Family } from "../families";
+import { decodeCursor, encodeCursor, iso, requireAccess, type Actor } from "./access";
+import { familyOf } from "./families";
+import { usableFamily } from "./designs";
+import { limiters } from "../api/rate-limit";
+
+export interface RevisionSummary {
+  id: string;
+  number: number;
+  message: string;
+  author: { id: string; name: string };
+  createdAt: string;
+  stats: Record<string, unknown>;
+  family: { id: string; key: string; name: string };
+}
+
+export interface RevisionDetail extends RevisionSummary {
+  source: string;
+  settings: Record<string, unknown>;
+  familySnapshot: Record<string, unknown>;
+}
+
+type Rev = InstanceType<ReturnType<typeof db>["models"]["Revision"]>;
+type Loaded = Rev & {
+  author: { id: string; name: string };
+  family: { id: string; key: string; name: string };
+};
+
+function summary(r: Loaded): RevisionSummary {
+  return {
+    id: r.id,
+    number: r.number,
+    message: r.message,
+    author: { id: r.author.id, name: r.author.name },
+    createdAt: iso(r.createdAt)!,
+    stats: r.stats,
+    family: { id: r.family.id, key: r.family.key, name: r.family.name },
+  };
+}
+
+const detail = (r: Loaded): RevisionDetail => ({ ...summary(r), source: r.source, settings: r.settings, familySnapshot: r.familySnapshot });
+
+function include() {
+  const { User, LogicFamilyRecord } = db().models;
+  return [
+    { model: User, as: "author", attributes: ["id", "name"] },
+    { model: LogicFamilyRecord, as: "family", attributes: ["id", "key", "name"] },
+  ];
+}
+
+async function designIn(workspaceId: string, designId: string) {
+  const d = await db().models.Design.findOne({ where: { id: designId, workspaceId } });
+  if (!d) throw notFound("design");
+  return d;
+}
+
+/** A design's revisions, newest first; limit default 50 (max 200). */
+export async function listRevisions(p: { actor: Actor | null; slug: string; designId: string; limit?: number; cursor?: string }) {
+  const { workspace } = await requireAccess(p.actor, p.slug, "revision.read");
+  await designIn(workspace.id, p.designId);
+  const limit = Math.min(Math.max(p.limit ?? 50, 1), 200);
+  const offset = decodeCursor(p.cursor);
+  const rows = (await db().models.Revision.findAll({
+    where: { designId: p.designId },
+    include: include(),
+    order: [["number", "DESC"]],
+    limit: limit + 1,
+    offset,
+  })) as Loaded[];
+  const more = rows.length > limit;
+  return { items: rows.slice(0, limit).map(summary), nextCursor: more ? encodeCursor(offset + limit) : null };
+}
+
+/** One revision by its number within the design. */
+export async function getRevision(p: { actor: Actor | null; slug: string; designId: string; number: number }): Promise<RevisionDetail> {
+  const { workspace } = await requireAccess(p.actor, p.slug, "revision.read");
+  await designIn(workspace.id, p.designId);
+  const r = (await db().models.Revision.findOne({ where: { designId: p.designId, number: p.number }, include: include() })) as Loaded | null;
+  if (!r) throw notFound("revision");
+  return detail(r);
+}
+
+/**
+ * Compiles and saves a new revision (designer or owner); the design's draft,
+ * family and settings follow the saved revision. 422 with the diagnostics
+ * when the source has errors.
+ */
+export async function createRevision(p: {
+  actor: Actor | null;
+  slug: string;
+  designId: string;
+  message: string;
+  source: string;
+  familyId: string;
+  settings: CompileSettings;
+}): Promise<RevisionDetail> {
+  const { workspace } = await requireAccess(p.actor, p.slug, "revision.save");
+  await designIn(workspace.id, p.designId);
+  const familyRow = await usableFamily(workspace.id, p.familyId);
+  limiters.compile.enforce(p.actor!.userId, "compile");
+  const family = familyOf(familyRow);
+  const outcome = compileDesign(p.source, p.settings, family);
+  if (!outcome.result) {
+    throw new AppError("compile_errors", "The source has errors; fix them before saving a revision.", { diagnostics: outcome.diagnostics });
+  }
+  const stats = outcome.result.stats as unknown as Record<string, unknown>;
+  const { sequelize, models } = db();
+  const id = await sequelize.transaction(async (transaction) => {
+    // The lock serialises saves of one design; numbers follow without gaps or collisions.
+    const d = await models.Design.findOne({ where: { id: p.designId, workspaceId: workspace.id }, lock: transaction.LOCK.UPDATE, transaction });
+    if (!d) throw notFound("design");
+    const last = (await models.Revision.max("number", { where: { designId: d.id }, transaction })) as number | null;
+    const rev = await models.Revision.create(
+      {
+        designId: d.id,
+        number: (last ?? 0) + 1,
+        source: p.source,
+        familyId: familyRow.id,
+        familySnapshot: { ...family } as unknown as Record<string, unknown>,
+        settings: p.settings as Record<string, unknown>,
+        stats,
+        authorId: p.actor!.userId,
+        message: p.message,
+      },
+      { transaction },
+    );
+    d.set({ draftSource: p.source, familyId: familyRow.id, settings: p.settings as Record<string, unknown> });
+    d.changed("updatedAt", true);
+    await d.save({ transaction });
+    return rev.id;
+  });
+  const r = (await models.Revision.findByPk(id, { include: include() })) as Loaded;
+  return detail(r);
+}
+
+export type ExportFormat = "verilog" | "vhdl" | "csv" | "json";
+const EXT: Record<ExportFormat, [string, string]> = {
+  verilog: ["v", "text/x-verilog; charset=utf-8"],
+  vhdl: ["vhd", "text/x-vhdl; charset=utf-8"],
+  csv: ["csv", "text/csv; charset=utf-8"],
+  json: ["json", "application/json"],
+};
+
+/**
+ * A revision's netlist as a file, rebuilt from the revision's own source,
+ * settings and family snapshot (the pipeline is deterministic).
+ */
+export async function exportRevision(p: { actor: Actor | null; slug: string; designId: string; number: number; format: ExportFormat }) {
+  const rev = await getRevision(p);
+  const design = await designIn((await requireAccess(p.actor, p.slug, "revision.read")).workspace.id, p.designId);
+  const family = rev.familySnapshot as unknown as Family;
+  const settings = CompileSettings.safeParse(rev.settings);
+  const outcome = compileDesign(rev.source, settings.success ? settings.data : {}, family);
+  if (!outcome.result || !outcome.netlistModel) {
+    throw new AppError("compile_errors", "This revision no longer compiles with the current language; export an earlier one.", { diagnostics: outcome.diagnostics });
+  }
+  const base = `${design.name}-r${rev.number}`.replace(/[^A-Za-z0-9._-]+/g, "_");
+  const header = [`${design.name}, revision ${rev.number}`, `family: ${family.name}`, "generated by Fanbound"];
+  let body: string;
+  switch (p.format) {
+    case "verilog":
+      body = toVerilog(outcome.netlistModel, { name: design.name, header });
+      break;
+    case "vhdl":
+      body = toVhdl(outcome.netlistModel, { name: design.name, header });
+      break;
+    case "csv":
+      body = toCsv(outcome.netlistModel);
+      break;
+    case "json":
+      body = JSON.stringify(outcome.result.netlist, null, 2);
+      break;
+  }
+  const [ext, type] = EXT[p.format];
+  return { filename: `${base}.${ext}`, contentType: type, body };
+}

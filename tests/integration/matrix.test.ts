@@ -1,0 +1,279 @@
+/**
+ * Every route × every actor: anonymous, viewer, reviewer, designer, owner of
+ * the workspace, and the owner of another workspace. Expected statuses follow
+ * the permission table of the issue (owner manages members, families and
+ * settings; designer writes designs and revisions; reviewer and viewer read);
+ * records of a workspace one does not belong to answer 404. Common practice,
+ * no source beyond the issue text.
+ */
+import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
+import { db } from "@/lib/db/connection";
+import { limiters } from "@/lib/api/rate-limit";
+import { createRevision } from "@/lib/data/revisions";
+import * as me from "@/app/api/v1/me/route";
+import * as tokens from "@/app/api/v1/tokens/route";
+import * as token from "@/app/api/v1/tokens/[id]/route";
+import * as workspaces from "@/app/api/v1/workspaces/route";
+import * as workspace from "@/app/api/v1/workspaces/[ws]/route";
+import * as members from "@/app/api/v1/workspaces/[ws]/members/route";
+import * as member from "@/app/api/v1/workspaces/[ws]/members/[userId]/route";
+import * as invitations from "@/app/api/v1/workspaces/[ws]/invitations/route";
+import * as invitation from "@/app/api/v1/workspaces/[ws]/invitations/[id]/route";
+import * as accept from "@/app/api/v1/invitations/accept/route";
+import * as families from "@/app/api/v1/workspaces/[ws]/families/route";
+import * as family from "@/app/api/v1/workspaces/[ws]/families/[familyId]/route";
+import * as designs from "@/app/api/v1/workspaces/[ws]/designs/route";
+import * as design from "@/app/api/v1/workspaces/[ws]/designs/[designId]/route";
+import * as revisions from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/route";
+import * as revision from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/[number]/route";
+import * as exporter from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/[number]/export/route";
+import * as compile from "@/app/api/v1/compile/route";
+import * as openapi from "@/app/api/v1/openapi.json/route";
+import { SOURCE, addMember, builtinFamily, call, makeInvitation, makeUser, makeWorkspace, tag, type TestUser } from "./helpers";
+
+const ACTORS = ["anonymous", "other", "viewer", "reviewer", "designer", "owner"] as const;
+type ActorName = (typeof ACTORS)[number];
+type Statuses = [number, number, number, number, number, number];
+
+let users: Record<Exclude<ActorName, "anonymous">, TestUser>;
+let ws: { id: string; slug: string };
+let otherWs: { id: string; slug: string };
+let familyId: string;
+let ownFamilyId: string;
+let designId: string;
+
+const FAMILY_DATA = {
+  supplyV: 5, vohMin: 4.4, volMax: 0.1, vihMin: 3.5, vilMax: 1.5,
+  iohMa: -4, iolMa: 4, iihMa: 0.001, iilMa: -0.001,
+  inputCapPf: 5, outputOhms: 50, maxTransitionNs: 15, intrinsicNs: 8, perLoadNs: 0.1, wiringPf: 2,
+  staticMaPerGate: 0.001, powerCapPf: 20, fanIn: 4, source: "test family, figures from memory",
+};
+
+async function freshMember(role: "viewer" = "viewer") {
+  const u = await makeUser("extra");
+  await addMember(ws.id, u, role);
+  return u;
+}
+
+async function freshFamily() {
+  const f = await db().models.LogicFamilyRecord.create({
+    workspaceId: ws.id, key: `fam-${tag()}`, name: `Test family ${tag()}`, builtin: false, data: { ...FAMILY_DATA },
+  });
+  return f.id;
+}
+
+beforeAll(async () => {
+  const owner = await makeUser("owner");
+  ws = await makeWorkspace("matrix", owner);
+  const other = await makeUser("other");
+  otherWs = await makeWorkspace("elsewhere", other);
+  users = { owner, other, viewer: await makeUser("viewer"), reviewer: await makeUser("reviewer"), designer: await makeUser("designer") };
+  await addMember(ws.id, users.viewer, "viewer");
+  await addMember(ws.id, users.reviewer, "reviewer");
+  await addMember(ws.id, users.designer, "designer");
+  familyId = (await builtinFamily()).id;
+  ownFamilyId = await freshFamily();
+  const d = await db().models.Design.create({
+    workspaceId: ws.id, name: `Upper gate ${tag()}`, description: "", familyId, settings: {}, draftSource: SOURCE, createdBy: owner.id, archivedAt: null,
+  });
+  designId = d.id;
+  await createRevision({ actor: { userId: owner.id, via: "token" }, slug: ws.slug, designId, message: "first", source: SOURCE, familyId, settings: {} });
+});
+
+beforeEach(() => {
+  for (const l of Object.values(limiters)) l.reset();
+});
+
+afterAll(async () => {
+  // Revisions are immutable, so their designs, families and users stay; the test database is recreated each run.
+});
+
+type Row = {
+  name: string;
+  run: (who: ActorName, token: string | null) => Promise<{ status: number; json: Record<string, any> }>;
+  expect: Statuses;
+};
+
+const wsp = () => ({ ws: ws.slug });
+const dp = () => ({ ws: ws.slug, designId });
+
+const rows: Row[] = [
+  { name: "GET /me", run: (_w, t) => call(me.GET, "GET", "/me", { token: t }), expect: [401, 200, 200, 200, 200, 200] },
+  { name: "GET /tokens", run: (_w, t) => call(tokens.GET, "GET", "/tokens", { token: t }), expect: [401, 200, 200, 200, 200, 200] },
+  {
+    name: "POST /tokens",
+    run: (_w, t) => call(tokens.POST, "POST", "/tokens", { token: t, body: { name: "ci", expiresAt: new Date(Date.now() + 86_400_000).toISOString() } }),
+    expect: [401, 201, 201, 201, 201, 201],
+  },
+  {
+    name: "DELETE /tokens/{id} (someone else's token)",
+    run: async (_w, t) => {
+      const u = await makeUser("bystander");
+      const row = await db().models.ApiToken.findOne({ where: { userId: u.id } });
+      return call(token.DELETE, "DELETE", `/tokens/${row!.id}`, { token: t, params: { id: row!.id } });
+    },
+    expect: [401, 404, 404, 404, 404, 404],
+  },
+  { name: "GET /workspaces", run: (_w, t) => call(workspaces.GET, "GET", "/workspaces", { token: t }), expect: [401, 200, 200, 200, 200, 200] },
+  {
+    name: "POST /workspaces",
+    run: (_w, t) => call(workspaces.POST, "POST", "/workspaces", { token: t, body: { name: "New", slug: `new-${tag()}` } }),
+    expect: [401, 201, 201, 201, 201, 201],
+  },
+  { name: "GET /workspaces/{ws}", run: (_w, t) => call(workspace.GET, "GET", `/workspaces/${ws.slug}`, { token: t, params: wsp() }), expect: [401, 404, 200, 200, 200, 200] },
+  {
+    name: "PATCH /workspaces/{ws}",
+    run: (_w, t) => call(workspace.PATCH, "PATCH", `/workspaces/${ws.slug}`, { token: t, params: wsp(), body: { settings: { note: "x" } } }),
+    expect: [401, 404, 403, 403, 403, 200],
+  },
+  { name: "GET members", run: (_w, t) => call(members.GET, "GET", "/m", { token: t, params: wsp() }), expect: [401, 404, 200, 200, 200, 200] },
+  {
+    name: "PATCH members/{userId}",
+    run: async (_w, t) => {
+      const u = await freshMember();
+      return call(member.PATCH, "PATCH", "/m", { token: t, params: { ...wsp(), userId: u.id }, body: { role: "reviewer" } });
+    },
+    expect: [401, 404, 403, 403, 403, 200],
+  },
+  {
+    name: "DELETE members/{userId}",
+    run: async (_w, t) => {
+      const u = await freshMember();
+      return call(member.DELETE, "DELETE", "/m", { token: t, params: { ...wsp(), userId: u.id } });
+    },
+    expect: [401, 404, 403, 403, 403, 200],
+  },
+  { name: "GET invitations", run: (_w, t) => call(invitations.GET, "GET", "/i", { token: t, params: wsp() }), expect: [401, 404, 403, 403, 403, 200] },
+  {
+    name: "POST invitations",
+    run: (_w, t) => call(invitations.POST, "POST", "/i", { token: t, params: wsp(), body: { email: `invitee-${tag()}@test.ferrow.example`, role: "viewer" } }),
+    expect: [401, 404, 403, 403, 403, 201],
+  },
+  {
+    name: "DELETE invitations/{id}",
+    run: async (_w, t) => {
+      const inv = await makeInvitation(ws.id, users.owner, `gone-${tag()}@test.ferrow.example`);
+      return call(invitation.DELETE, "DELETE", "/i", { token: t, params: { ...wsp(), id: inv.id } });
+    },
+    expect: [401, 404, 403, 403, 403, 200],
+  },
+  {
+    name: "POST /invitations/accept (invited to a new workspace)",
+    run: async (who, t) => {
+      const host = await makeUser("host");
+      const w = await makeWorkspace("host", host);
+      const email = who === "anonymous" ? `nobody-${tag()}@test.ferrow.example` : users[who].email;
+      const inv = await makeInvitation(w.id, host, email);
+      return call(accept.POST, "POST", "/invitations/accept", { token: t, body: { token: inv.secret } });
+    },
+    expect: [401, 200, 200, 200, 200, 200],
+  },
+  { name: "GET families", run: (_w, t) => call(families.GET, "GET", "/f", { token: t, params: wsp() }), expect: [401, 404, 200, 200, 200, 200] },
+  {
+    name: "POST families",
+    run: (_w, t) => call(families.POST, "POST", "/f", { token: t, params: wsp(), body: { key: `k-${tag()}`, name: "Bench CMOS", data: FAMILY_DATA } }),
+    expect: [401, 404, 403, 403, 403, 201],
+  },
+  { name: "GET families/{id}", run: (_w, t) => call(family.GET, "GET", "/f", { token: t, params: { ...wsp(), familyId: ownFamilyId } }), expect: [401, 404, 200, 200, 200, 200] },
+  {
+    name: "PATCH families/{id}",
+    run: (_w, t) => call(family.PATCH, "PATCH", "/f", { token: t, params: { ...wsp(), familyId: ownFamilyId }, body: { name: `Renamed ${tag()}` } }),
+    expect: [401, 404, 403, 403, 403, 200],
+  },
+  {
+    name: "DELETE families/{id}",
+    run: async (_w, t) => call(family.DELETE, "DELETE", "/f", { token: t, params: { ...wsp(), familyId: await freshFamily() } }),
+    expect: [401, 404, 403, 403, 403, 200],
+  },
+  { name: "GET designs", run: (_w, t) => call(designs.GET, "GET", "/d", { token: t, params: wsp() }), expect: [401, 404, 200, 200, 200, 200] },
+  {
+    name: "POST designs",
+    run: (_w, t) => call(designs.POST, "POST", "/d", { token: t, params: wsp(), body: { name: `Lamp decode ${tag()}`, familyId } }),
+    expect: [401, 404, 403, 403, 201, 201],
+  },
+  { name: "GET designs/{id}", run: (_w, t) => call(design.GET, "GET", "/d", { token: t, params: dp() }), expect: [401, 404, 200, 200, 200, 200] },
+  {
+    name: "PATCH designs/{id}",
+    run: (_w, t) => call(design.PATCH, "PATCH", "/d", { token: t, params: dp(), body: { description: `edited ${tag()}` } }),
+    expect: [401, 404, 403, 403, 200, 200],
+  },
+  { name: "GET revisions", run: (_w, t) => call(revisions.GET, "GET", "/r", { token: t, params: dp() }), expect: [401, 404, 200, 200, 200, 200] },
+  {
+    name: "POST revisions",
+    run: (_w, t) => call(revisions.POST, "POST", "/r", { token: t, params: dp(), body: { message: "matrix save", source: SOURCE, familyId, settings: {} } }),
+    expect: [401, 404, 403, 403, 201, 201],
+  },
+  { name: "GET revisions/{n}", run: (_w, t) => call(revision.GET, "GET", "/r", { token: t, params: { ...dp(), number: "1" } }), expect: [401, 404, 200, 200, 200, 200] },
+  {
+    name: "GET revisions/{n}/export",
+    run: (_w, t) => call(exporter.GET, "GET", "/r", { token: t, params: { ...dp(), number: "1" }, query: { format: "verilog" } }),
+    expect: [401, 404, 200, 200, 200, 200],
+  },
+  {
+    name: "POST /compile (built-in family by key)",
+    run: (_w, t) => call(compile.POST, "POST", "/compile", { token: t, body: { source: SOURCE, familyKey: "cmos-hc-5v" } }),
+    expect: [401, 200, 200, 200, 200, 200],
+  },
+  {
+    name: "POST /compile (a workspace's own family)",
+    run: (_w, t) => call(compile.POST, "POST", "/compile", { token: t, body: { source: SOURCE, familyId: ownFamilyId } }),
+    expect: [401, 404, 200, 200, 200, 200],
+  },
+  { name: "GET /openapi.json", run: (_w, t) => call(openapi.GET, "GET", "/openapi.json", { token: t }), expect: [200, 200, 200, 200, 200, 200] },
+];
+
+describe("route × actor matrix", () => {
+  for (const row of rows) {
+    it(row.name, async () => {
+      const got: Record<string, number> = {};
+      const want: Record<string, number> = {};
+      for (const [i, who] of ACTORS.entries()) {
+        const res = await row.run(who, who === "anonymous" ? null : users[who].token);
+        got[who] = res.status;
+        want[who] = row.expect[i]!;
+        if (res.status >= 400) {
+          // Every refusal comes in the one error shape.
+          expect(res.json?.error, `${row.name} as ${who}`).toMatchObject({ code: expect.any(String), message: expect.any(String) });
+        }
+      }
+      expect(got).toEqual(want);
+    });
+  }
+});
+
+describe("records of another workspace are invisible (404) and unchanged", () => {
+  it("the other owner cannot reach this workspace's records through their own slug", async () => {
+    const t = users.other.token;
+    const op = { ws: otherWs.slug };
+    const before = await db().models.Design.findByPk(designId);
+    const results = [
+      await call(design.GET, "GET", "/d", { token: t, params: { ...op, designId } }),
+      await call(design.PATCH, "PATCH", "/d", { token: t, params: { ...op, designId }, body: { name: "stolen" } }),
+      await call(revisions.GET, "GET", "/r", { token: t, params: { ...op, designId } }),
+      await call(revisions.POST, "POST", "/r", { token: t, params: { ...op, designId }, body: { message: "x", source: SOURCE, familyId, settings: {} } }),
+      await call(revision.GET, "GET", "/r", { token: t, params: { ...op, designId, number: "1" } }),
+      await call(exporter.GET, "GET", "/r", { token: t, params: { ...op, designId, number: "1" }, query: { format: "csv" } }),
+      await call(family.GET, "GET", "/f", { token: t, params: { ...op, familyId: ownFamilyId } }),
+      await call(family.PATCH, "PATCH", "/f", { token: t, params: { ...op, familyId: ownFamilyId }, body: { name: "stolen" } }),
+      await call(family.DELETE, "DELETE", "/f", { token: t, params: { ...op, familyId: ownFamilyId } }),
+      await call(member.PATCH, "PATCH", "/m", { token: t, params: { ...op, userId: users.viewer.id }, body: { role: "owner" } }),
+      await call(member.DELETE, "DELETE", "/m", { token: t, params: { ...op, userId: users.viewer.id } }),
+    ];
+    expect(results.map((r) => r.status)).toEqual(results.map(() => 404));
+    const after = await db().models.Design.findByPk(designId);
+    expect(after!.name).toBe(before!.name);
+    expect((await db().models.LogicFamilyRecord.findByPk(ownFamilyId))).not.toBeNull();
+    const m = await db().models.Membership.findOne({ where: { workspaceId: ws.id, userId: users.viewer.id } });
+    expect(m!.role).toBe("viewer");
+  });
+
+  it("a design cannot be pointed at another workspace's family", async () => {
+    const foreign = await db().models.LogicFamilyRecord.create({
+      workspaceId: otherWs.id, key: `foreign-${tag()}`, name: "Foreign", builtin: false, data: { ...FAMILY_DATA },
+    });
+    const r = await call(design.PATCH, "PATCH", "/d", { token: users.owner.token, params: dp(), body: { familyId: foreign.id } });
+    expect(r.status).toBe(400);
+    const c = await call(compile.POST, "POST", "/compile", { token: users.owner.token, body: { source: SOURCE, familyId: foreign.id } });
+    expect(c.status).toBe(404);
+  });
+});
