@@ -1,0 +1,92 @@
+import { describe, expect, it } from "vitest";
+import { spawnSync } from "node:child_process";
+import { readFileSync } from "node:fs";
+import { run as mapRun } from "../../lib/cli/commands/map";
+import { run as familiesRun } from "../../lib/cli/commands/families";
+import { compileSource } from "../../lib/lang/index";
+import { evalNetlist } from "./helpers";
+import type { Netlist } from "../../lib/map/index";
+
+const INTERLOCK = readFileSync("lib/lang/examples/chamber-interlock.fnb", "utf8");
+
+function io(source = INTERLOCK) {
+  const out: string[] = [];
+  const err: string[] = [];
+  return { io: { readSource: () => source, out: (t: string) => out.push(t), err: (t: string) => err.push(t) }, out, err };
+}
+
+describe("map command", () => {
+  it("prints the JSON netlist with the documented fields", async () => {
+    const t = io();
+    expect(await mapRun(["design.fnb", "--family", "ttl-std-5v", "--form", "nand"], t.io)).toBe(0);
+    const doc = JSON.parse(t.out.join(""));
+    expect(Object.keys(doc).sort()).toEqual(["gates", "inputs", "outputs", "stats", "warnings"]);
+    for (const g of doc.gates) expect(["NAND", "NOT", "BUF"]).toContain(g.type);
+    expect(doc.stats.gates).toBe(doc.gates.length);
+    // the netlist equals the compiled specification on every care minterm (reference evaluation here)
+    const spec = compileSource(INTERLOCK).spec!;
+    const net: Netlist = { inputs: doc.inputs, outputs: doc.outputs, gates: doc.gates.map((g: object) => ({ ...g, role: "logic" })), complements: [] };
+    const n = spec.inputs.length;
+    const inCube = (c: { value: number; mask: number }, m: number) => ((m ^ c.value) & c.mask) === 0;
+    for (let m = 0; m < 2 ** n; m++) {
+      const v = evalNetlist(net, spec.inputs, m);
+      for (const o of spec.outputs) {
+        if (o.dc.some((c) => inCube(c, m))) continue;
+        expect(v.get(doc.outputs.find((x: { name: string }) => x.name === o.name).net)).toBe(o.on.some((c) => inCube(c, m)));
+      }
+    }
+  });
+  it("--fanin and --fanout override the family's limits", async () => {
+    const t = io();
+    expect(await mapRun(["d", "--family", "ttl-std-5v", "--fanin", "2", "--fanout", "2"], t.io)).toBe(0);
+    const doc = JSON.parse(t.out.join(""));
+    for (const g of doc.gates) expect(g.inputs.length).toBeLessThanOrEqual(2);
+    expect(doc.stats.maxLoad).toBeLessThanOrEqual(2);
+  });
+  it("prints Verilog, VHDL and CSV on request", async () => {
+    for (const [format, mark] of [["verilog", "endmodule"], ["vhdl", "end architecture"], ["csv", "id,type,width"]]) {
+      const t = io();
+      expect(await mapRun(["chamber.fnb", "--family", "cmos-hc-5v", `--format=${format}`], t.io)).toBe(0);
+      expect(t.out.join("")).toContain(mark);
+    }
+  });
+  it("an unknown family is a clear error listing the ids, exit 2", async () => {
+    const t = io();
+    expect(await mapRun(["d", "--family", "valve-logic"], t.io)).toBe(2);
+    expect(t.err.join("")).toMatch(/unknown family "valve-logic"; the families are: ttl-std-5v, .*lvcmos-3v3/);
+  });
+  it("bad options exit 2 with the usage", async () => {
+    for (const args of [["d"], ["d", "--family", "ttl-std-5v", "--form", "pla"], ["d", "--family", "ttl-std-5v", "--fanin", "1"], ["--family", "ttl-std-5v"]]) {
+      const t = io();
+      expect(await mapRun(args, t.io)).toBe(2);
+      expect(t.err.join("")).toMatch(/usage/);
+    }
+  });
+  it("language errors print diagnostics and exit 1", async () => {
+    const t = io("inputs a\noutputs f\nf = a +\n");
+    expect(await mapRun(["d", "--family", "ttl-std-5v"], t.io)).toBe(1);
+    expect(JSON.parse(t.out.join("")).diagnostics.length).toBeGreaterThan(0);
+  });
+});
+
+describe("families command", () => {
+  it("lists every built-in family with id, name, fan-in and fan-out", async () => {
+    const t = io();
+    expect(await familiesRun([], t.io)).toBe(0);
+    const { families } = JSON.parse(t.out.join(""));
+    const ttl = families.find((f: { id: string }) => f.id === "ttl-std-5v");
+    // handbook table: standard TTL fan-out 10; widest NAND on offer 13 inputs (from memory)
+    expect(ttl).toMatchObject({ name: "Bipolar TTL, standard, 5 V", fanOut: 10, fanIn: 13 });
+    for (const f of families) expect(typeof f.fanIn === "number" && typeof f.fanOut === "number").toBe(true);
+  });
+});
+
+describe("through npm run", () => {
+  it("map runs from the command line", () => {
+    const r = spawnSync("npm", ["run", "-s", "cli", "--", "map", "lib/lang/examples/fault-priority.fnb", "--family", "lvcmos-3v3", "--form", "nor"], { encoding: "utf8" });
+    expect(r.status, r.stderr).toBe(0);
+    const doc = JSON.parse(r.stdout);
+    expect(doc.inputs).toEqual(["f7", "f6", "f5", "f4", "f3", "f2", "f1", "f0"]);
+    for (const g of doc.gates) expect(["NOR", "NOT", "BUF"]).toContain(g.type);
+  });
+});
