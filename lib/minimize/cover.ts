@@ -8,7 +8,6 @@
  * them), each charged its cheapest live column: any cover needs distinct
  * columns for them, so the bound is proven.
  */
-import { ExactLimit } from "./primes";
 
 export interface CoverProblem {
   /** rows[c] = row indices covered by column c. */
@@ -16,7 +15,7 @@ export interface CoverProblem {
   weight: number[];
   rowCount: number;
   deadline: number;
-  /** Core size (rows × columns) above which the exact search is not attempted. */
+  /** Core size (rows × columns) above which the exact search is not attempted; default 3e8 (about 80 MB of bitsets). */
   maxCoreCells?: number;
 }
 
@@ -69,16 +68,23 @@ export function solveCover(p: CoverProblem): CoverSolution {
     if (p.colRows[c]!.some((r) => rowMap[r]! >= 0)) coreCols.push(c);
   }
   const cells = coreRows.length * coreCols.length;
-  if (cells > (p.maxCoreCells ?? 4e7)) throw new ExactLimit("implicants", cells);
   const bb = new BranchAndBound(
     coreRows.length,
     coreCols.map((c) => Int32Array.from(p.colRows[c]!.filter((r) => rowMap[r]! >= 0).map((r) => rowMap[r]!))),
     coreCols.map((c) => p.weight[c]!),
     p.deadline,
+    cells > (p.maxCoreCells ?? 3e8),
   );
   const res = bb.run();
   for (const c of res.chosen) chosen.push(coreCols[c]!);
   return { chosen, weight: base + res.weight, lowerBound: base + res.lowerBound, exact: res.exact };
+}
+
+/** Dominance tests at inner nodes: bit 0 columns, bit 1 rows (the root always runs both). */
+let NODE_DOMINANCE = 1;
+const ROOT_ITERS = 300;
+export function setNodeDominance(d: number): void {
+  NODE_DOMINANCE = d;
 }
 
 class BranchAndBound {
@@ -86,6 +92,8 @@ class BranchAndBound {
   readonly WC: number;
   readonly colBits: Uint32Array;
   readonly rowBits: Uint32Array;
+  /** Static sparse lists; liveness is read from the node's bitsets. */
+  readonly rowColsS: Int32Array[];
   best = Infinity;
   bestChosen: number[] = [];
   aborted = false;
@@ -96,18 +104,25 @@ class BranchAndBound {
     readonly cols: Int32Array[],
     readonly w: number[],
     readonly deadline: number,
+    /** Too big for bitsets: greedy cover and Lagrangian bound only, no search. */
+    readonly sparseOnly = false,
   ) {
     const C = cols.length;
     this.WR = (R + 31) >>> 5;
     this.WC = (C + 31) >>> 5;
-    this.colBits = new Uint32Array(C * this.WR);
-    this.rowBits = new Uint32Array(R * this.WC);
+    this.colBits = new Uint32Array(sparseOnly ? 0 : C * this.WR);
+    this.rowBits = new Uint32Array(sparseOnly ? 0 : R * this.WC);
+    const lists: number[][] = Array.from({ length: R }, () => []);
     for (let c = 0; c < C; c++) {
       for (const r of cols[c]!) {
-        this.colBits[c * this.WR + (r >>> 5)]! |= 1 << (r & 31);
-        this.rowBits[r * this.WC + (c >>> 5)]! |= 1 << (c & 31);
+        if (!sparseOnly) {
+          this.colBits[c * this.WR + (r >>> 5)]! |= 1 << (r & 31);
+          this.rowBits[r * this.WC + (c >>> 5)]! |= 1 << (c & 31);
+        }
+        lists[r]!.push(c);
       }
     }
+    this.rowColsS = lists.map((l) => Int32Array.from(l));
   }
 
   run(): { chosen: number[]; weight: number; lowerBound: number; exact: boolean } {
@@ -116,12 +131,27 @@ class BranchAndBound {
     const colsA = new Uint32Array(this.WC);
     for (let c = 0; c < this.cols.length; c++) colsA[c >>> 5]! |= 1 << (c & 31);
     this.greedy(rowsA, colsA);
+    const u = new Float64Array(this.R);
+    for (let r = 0; r < this.R; r++) u[r] = Infinity;
+    for (let c = 0; c < this.cols.length; c++) {
+      const share = this.w[c]! / this.cols[c]!.length;
+      for (const r of this.cols[c]!) if (share < u[r]!) u[r] = share;
+    }
+    if (this.sparseOnly) {
+      const lag = this.lagrange(rowsA, colsA, u, ROOT_ITERS, this.best);
+      const lb = Math.min(this.best, Math.max(this.bound(rowsA, colsA).lb, Math.ceil(lag.lb - 1e-6)));
+      return { chosen: this.bestChosen, weight: this.best, lowerBound: lb, exact: lb === this.best };
+    }
     const picked: number[] = [];
     const rootRows = rowsA.slice();
     const rootCols = colsA.slice();
     const add = this.reduce(rootRows, rootCols, picked);
-    const rootBound = add + this.bound(rootRows, rootCols).lb;
-    this.search(rowsA, colsA, 0, []);
+    let rootBound = add + this.bound(rootRows, rootCols).lb;
+    if (add >= 0) {
+      const lag = this.lagrange(rootRows, rootCols, u.slice(), ROOT_ITERS, this.best - add);
+      rootBound = Math.max(rootBound, add + Math.ceil(lag.lb - 1e-6));
+    }
+    this.search(rowsA, colsA, 0, [], u, 0);
     const exact = !this.aborted;
     return {
       chosen: this.bestChosen,
@@ -133,28 +163,39 @@ class BranchAndBound {
 
   private colsOfRow(r: number, colsA: Uint32Array, out: number[]): void {
     out.length = 0;
-    const base = r * this.WC;
-    for (let k = 0; k < this.WC; k++) {
-      let x = this.rowBits[base + k]! & colsA[k]!;
-      while (x !== 0) {
-        const b = x & -x;
-        out.push(k * 32 + 31 - Math.clz32(b));
-        x ^= b;
-      }
+    const l = this.rowColsS[r]!;
+    for (let i = 0; i < l.length; i++) {
+      const c = l[i]!;
+      if ((colsA[c >>> 5]! >>> (c & 31)) & 1) out.push(c);
+    }
+  }
+
+  private rowsOfCol(c: number, rowsA: Uint32Array, out: number[]): void {
+    out.length = 0;
+    const l = this.cols[c]!;
+    for (let i = 0; i < l.length; i++) {
+      const r = l[i]!;
+      if ((rowsA[r >>> 5]! >>> (r & 31)) & 1) out.push(r);
     }
   }
 
   private rowDegree(r: number, colsA: Uint32Array): number {
-    const base = r * this.WC;
+    const l = this.rowColsS[r]!;
     let d = 0;
-    for (let k = 0; k < this.WC; k++) d += popcount(this.rowBits[base + k]! & colsA[k]!);
+    for (let i = 0; i < l.length; i++) {
+      const c = l[i]!;
+      d += (colsA[c >>> 5]! >>> (c & 31)) & 1;
+    }
     return d;
   }
 
   private colCount(c: number, rowsA: Uint32Array): number {
-    const base = c * this.WR;
+    const l = this.cols[c]!;
     let d = 0;
-    for (let k = 0; k < this.WR; k++) d += popcount(this.colBits[base + k]! & rowsA[k]!);
+    for (let i = 0; i < l.length; i++) {
+      const r = l[i]!;
+      d += (rowsA[r >>> 5]! >>> (r & 31)) & 1;
+    }
     return d;
   }
 
@@ -166,20 +207,29 @@ class BranchAndBound {
 
   /** Greedy cover (weight per newly covered row), then redundant columns dropped: the first incumbent. */
   private greedy(rowsA0: Uint32Array, colsA0: Uint32Array): void {
-    const rowsA = rowsA0.slice();
-    const colsA = colsA0.slice();
+    // Sparse: per column, how many live rows it still reaches.
+    const C = this.cols.length;
+    const rowCols: number[][] = Array.from({ length: this.R }, () => []);
+    const left = new Int32Array(C);
+    const coveredRow = new Uint8Array(this.R);
+    for (let r = 0; r < this.R; r++) if (!((rowsA0[r >>> 5]! >>> (r & 31)) & 1)) coveredRow[r] = 1;
+    for (let c = 0; c < C; c++) {
+      if (!((colsA0[c >>> 5]! >>> (c & 31)) & 1)) continue;
+      for (const r of this.cols[c]!) {
+        if (coveredRow[r]) continue;
+        rowCols[r]!.push(c);
+        left[c]!++;
+      }
+    }
+    let remaining = 0;
+    for (let r = 0; r < this.R; r++) if (!coveredRow[r]) remaining++;
     const chosen: number[] = [];
-    for (;;) {
-      let any = false;
-      for (let k = 0; k < this.WR; k++) if (rowsA[k] !== 0) any = true;
-      if (!any) break;
+    while (remaining > 0) {
       let bestC = -1;
       let bestScore = -1;
-      for (let c = 0; c < this.cols.length; c++) {
-        if (!((colsA[c >>> 5]! >>> (c & 31)) & 1)) continue;
-        const cnt = this.colCount(c, rowsA);
-        if (cnt === 0) continue;
-        const score = cnt / this.w[c]!;
+      for (let c = 0; c < C; c++) {
+        if (left[c] === 0) continue;
+        const score = left[c]! / this.w[c]!;
         if (score > bestScore) {
           bestScore = score;
           bestC = c;
@@ -187,7 +237,12 @@ class BranchAndBound {
       }
       if (bestC < 0) return;
       chosen.push(bestC);
-      this.take(bestC, rowsA, colsA);
+      for (const r of this.cols[bestC]!) {
+        if (coveredRow[r]) continue;
+        coveredRow[r] = 1;
+        remaining--;
+        for (const c of rowCols[r]!) left[c]!--;
+      }
     }
     // Drop columns whose rows the others cover, most expensive first.
     const order = chosen.slice().sort((a, b) => this.w[b]! - this.w[a]!);
@@ -212,14 +267,20 @@ class BranchAndBound {
    * Essentials, column dominance and row dominance until nothing changes.
    * Returns the weight of the columns taken, or -1 when some row can no longer be covered.
    */
-  private reduce(rowsA: Uint32Array, colsA: Uint32Array, picked: number[]): number {
+  private reduce(rowsA: Uint32Array, colsA: Uint32Array, picked: number[], dominance = 3): number {
     let added = 0;
     const tmp: number[] = [];
     const tmp2: number[] = [];
     const WR = this.WR;
     const WC = this.WC;
+    const colLive = (c: number) => ((colsA[c >>> 5]! >>> (c & 31)) & 1) === 1;
+    const rowLive = (r: number) => ((rowsA[r >>> 5]! >>> (r & 31)) & 1) === 1;
     for (let changed = true; changed; ) {
       changed = false;
+      if (Date.now() > this.deadline) {
+        this.aborted = true;
+        return added;
+      }
       // Essentials.
       for (let k = 0; k < WR; k++) {
         let x = rowsA[k]!;
@@ -227,7 +288,7 @@ class BranchAndBound {
           const b = x & -x;
           x ^= b;
           const r = k * 32 + 31 - Math.clz32(b);
-          if (!((rowsA[k]! >>> (r & 31)) & 1)) continue;
+          if (!rowLive(r)) continue;
           this.colsOfRow(r, colsA, tmp);
           if (tmp.length === 0) return -1;
           if (tmp.length === 1) {
@@ -241,43 +302,31 @@ class BranchAndBound {
         }
       }
       // Column dominance: c1 goes when some c2 covers all its live rows at no greater weight.
-      for (let k = 0; k < WC; k++) {
+      for (let k = 0; k < WC && dominance & 1; k++) {
         let x = colsA[k]!;
         while (x !== 0) {
           const b = x & -x;
           x ^= b;
           const c1 = k * 32 + 31 - Math.clz32(b);
-          const b1 = c1 * WR;
-          let first = -1;
-          for (let q = 0; q < WR; q++) {
-            const y = this.colBits[b1 + q]! & rowsA[q]!;
-            if (y !== 0) {
-              first = q * 32 + 31 - Math.clz32(y & -y);
-              break;
-            }
-          }
-          if (first < 0) {
+          this.rowsOfCol(c1, rowsA, tmp2);
+          if (tmp2.length === 0) {
             colsA[k]! &= ~b;
             changed = true;
             continue;
           }
-          this.colsOfRow(first, colsA, tmp);
+          this.colsOfRow(tmp2[0]!, colsA, tmp);
           for (const c2 of tmp) {
             if (c2 === c1 || this.w[c2]! > this.w[c1]!) continue;
-            const b2 = c2 * WR;
             let subset = true;
-            let equal = true;
-            for (let q = 0; q < WR; q++) {
-              const y1 = this.colBits[b1 + q]! & rowsA[q]!;
-              const y2 = this.colBits[b2 + q]! & rowsA[q]!;
-              if ((y1 & ~y2) !== 0) {
+            for (let i = 1; i < tmp2.length; i++) {
+              const r = tmp2[i]!;
+              if (!((this.rowBits[r * WC + (c2 >>> 5)]! >>> (c2 & 31)) & 1)) {
                 subset = false;
                 break;
               }
-              if (y1 !== y2) equal = false;
             }
             if (!subset) continue;
-            if (equal && this.w[c2] === this.w[c1] && c2 > c1) continue;
+            if (this.w[c2] === this.w[c1] && c2 > c1 && this.colCount(c2, rowsA) === tmp2.length) continue;
             colsA[k]! &= ~b;
             changed = true;
             break;
@@ -285,48 +334,35 @@ class BranchAndBound {
         }
       }
       // Row dominance: a row whose live columns include another row's live columns goes.
-      for (let k = 0; k < WR; k++) {
+      for (let k = 0; k < WR && dominance & 2; k++) {
         let x = rowsA[k]!;
         while (x !== 0) {
           const b = x & -x;
           x ^= b;
           const r1 = k * 32 + 31 - Math.clz32(b);
-          if (!((rowsA[k]! >>> (r1 & 31)) & 1)) continue;
+          if (!rowLive(r1)) continue;
           this.colsOfRow(r1, colsA, tmp);
           if (tmp.length === 0) return -1;
           // Rows sharing r1's first column are the only candidates.
-          const c = tmp[0]!;
-          const cb = c * WR;
-          tmp2.length = 0;
-          for (let q = 0; q < WR; q++) {
-            let y = this.colBits[cb + q]! & rowsA[q]!;
-            while (y !== 0) {
-              const bb = y & -y;
-              y ^= bb;
-              tmp2.push(q * 32 + 31 - Math.clz32(bb));
-            }
-          }
-          const rb1 = r1 * WC;
+          this.rowsOfCol(tmp[0]!, rowsA, tmp2);
           for (const r2 of tmp2) {
             if (r2 === r1) continue;
-            const rb2 = r2 * WC;
             let subset = true;
-            let equal = true;
-            for (let q = 0; q < WC; q++) {
-              const y1 = this.rowBits[rb1 + q]! & colsA[q]!;
-              const y2 = this.rowBits[rb2 + q]! & colsA[q]!;
-              if ((y1 & ~y2) !== 0) {
+            for (let i = 1; i < tmp.length; i++) {
+              const c = tmp[i]!;
+              if (!((this.colBits[c * WR + (r2 >>> 5)]! >>> (r2 & 31)) & 1)) {
                 subset = false;
                 break;
               }
-              if (y1 !== y2) equal = false;
             }
-            if (!subset || (equal && r2 < r1)) continue;
+            if (!subset) continue;
+            if (r2 < r1 && this.rowDegree(r2, colsA) === tmp.length) continue;
             rowsA[r2 >>> 5]! &= ~(1 << (r2 & 31));
             changed = true;
           }
         }
       }
+      void colLive;
     }
     return added;
   }
@@ -347,34 +383,113 @@ class BranchAndBound {
     }
     if (rows.length === 0) return { lb: 0, branchRow: -1 };
     rows.sort((a, b) => deg[a]! - deg[b]!);
-    const blocked = new Uint32Array(this.WR);
+    const blocked = new Uint8Array(this.R);
     const tmp: number[] = [];
     let lb = 0;
     for (const r of rows) {
-      if ((blocked[r >>> 5]! >>> (r & 31)) & 1) continue;
+      if (blocked[r]) continue;
       this.colsOfRow(r, colsA, tmp);
       let m = Infinity;
       for (const c of tmp) {
         if (this.w[c]! < m) m = this.w[c]!;
-        const cb = c * this.WR;
-        for (let q = 0; q < this.WR; q++) blocked[q]! |= this.colBits[cb + q]!;
+        const l = this.cols[c]!;
+        for (let i = 0; i < l.length; i++) blocked[l[i]!] = 1;
       }
       lb += m;
     }
     return { lb, branchRow: rows[0]! };
   }
 
-  private search(rowsA: Uint32Array, colsA: Uint32Array, cost: number, chosen: number[]): void {
+
+  /**
+   * Lagrangian bound of the set-cover relaxation by subgradient steps,
+   * warm-started from `u` (updated in place). Returns the best bound and the
+   * reduced costs at that bound; a column whose reduced cost lifts the bound
+   * to the incumbent cannot be in a better cover.
+   */
+  private lagrange(
+    rowsA: Uint32Array,
+    colsA: Uint32Array,
+    u: Float64Array,
+    iters: number,
+    gapTarget: number,
+  ): { lb: number; rc: Float64Array; liveCols: number[] } {
+    const liveRows: number[] = [];
+    for (let k = 0; k < this.WR; k++) {
+      let x = rowsA[k]!;
+      while (x !== 0) {
+        const b = x & -x;
+        x ^= b;
+        liveRows.push(k * 32 + 31 - Math.clz32(b));
+      }
+    }
+    const liveCols: number[] = [];
+    for (let k = 0; k < this.WC; k++) {
+      let x = colsA[k]!;
+      while (x !== 0) {
+        const b = x & -x;
+        x ^= b;
+        liveCols.push(k * 32 + 31 - Math.clz32(b));
+      }
+    }
+    const isLive = (r: number) => ((rowsA[r >>> 5]! >>> (r & 31)) & 1) === 1;
+    const colLive: Int32Array[] = liveCols.map((c) => this.cols[c]!.filter(isLive));
+    const rc = new Float64Array(this.cols.length);
+    const bestRc = new Float64Array(this.cols.length);
+    const g = new Float64Array(this.R);
+    let best = -Infinity;
+    let lambda = 2;
+    let stall = 0;
+    for (let it = 0; it < iters; it++) {
+      let L = 0;
+      for (const r of liveRows) {
+        L += u[r]!;
+        g[r] = 1;
+      }
+      for (let i = 0; i < liveCols.length; i++) {
+        const c = liveCols[i]!;
+        let s = this.w[c]!;
+        const rs = colLive[i]!;
+        for (let q = 0; q < rs.length; q++) s -= u[rs[q]!]!;
+        rc[c] = s;
+        if (s < 0) {
+          L += s;
+          for (let q = 0; q < rs.length; q++) g[rs[q]!]!--;
+        }
+      }
+      if (L > best + 1e-9) {
+        best = L;
+        for (const c of liveCols) bestRc[c] = rc[c]!;
+        stall = 0;
+      } else if (++stall >= 5) {
+        lambda /= 2;
+        stall = 0;
+      }
+      let norm = 0;
+      for (const r of liveRows) norm += g[r]! * g[r]!;
+      if (norm === 0 || best >= gapTarget - 1e-6) break;
+      const target = Number.isFinite(gapTarget) ? gapTarget : 1.05 * Math.abs(L) + 1;
+      const t = (lambda * (target - L)) / norm;
+      for (const r of liveRows) {
+        const v = u[r]! + t * g[r]!;
+        u[r] = v > 0 ? v : 0;
+      }
+      if (lambda < 1e-4) break;
+    }
+    return { lb: best, rc: bestRc, liveCols };
+  }
+
+  private search(rowsA: Uint32Array, colsA: Uint32Array, cost: number, chosen: number[], u: Float64Array, depth: number): void {
     if (this.aborted) return;
     if ((++this.nodes & 63) === 0 && Date.now() > this.deadline) {
       this.aborted = true;
       return;
     }
     const picked: number[] = [];
-    const add = this.reduce(rowsA, colsA, picked);
+    const add = this.reduce(rowsA, colsA, picked, depth === 0 ? 3 : NODE_DOMINANCE);
     if (add < 0) return;
     cost += add;
-    const here = picked.length ? chosen.concat(picked) : chosen;
+    const here = chosen.concat(picked);
     const { lb, branchRow } = this.bound(rowsA, colsA);
     if (branchRow < 0) {
       if (cost < this.best) {
@@ -384,18 +499,48 @@ class BranchAndBound {
       return;
     }
     if (cost + lb >= this.best) return;
+    // Lagrangian bound and reduced-cost fixing.
+    const lag = this.lagrange(rowsA, colsA, u, depth === 0 ? 300 : 40, this.best - cost);
+    if (cost + Math.ceil(lag.lb - 1e-6) >= this.best) return;
+    let fixed = false;
+    for (const c of lag.liveCols) {
+      const r = lag.rc[c]!;
+      if (r > 0 && cost + Math.ceil(lag.lb + r - 1e-6) >= this.best) {
+        colsA[c >>> 5]! &= ~(1 << (c & 31));
+        fixed = true;
+      }
+    }
+    let branch = branchRow;
+    if (fixed) {
+      const more: number[] = [];
+      const add2 = this.reduce(rowsA, colsA, more, NODE_DOMINANCE);
+      if (add2 < 0) return;
+      if (more.length) {
+        cost += add2;
+        for (const c of more) here.push(c);
+      }
+      const b2 = this.bound(rowsA, colsA);
+      if (b2.branchRow < 0) {
+        if (cost < this.best) {
+          this.best = cost;
+          this.bestChosen = here.slice();
+        }
+        return;
+      }
+      if (cost + b2.lb >= this.best) return;
+      branch = b2.branchRow;
+    }
     const cand: number[] = [];
-    this.colsOfRow(branchRow, colsA, cand);
-    const score = new Map<number, number>();
-    for (const c of cand) score.set(c, this.colCount(c, rowsA) / this.w[c]!);
-    cand.sort((a, b) => score.get(b)! - score.get(a)!);
+    this.colsOfRow(branch, colsA, cand);
+    // Most promising first: lowest reduced cost.
+    cand.sort((a, b) => lag.rc[a]! - lag.rc[b]!);
     const cols = colsA.slice();
     for (const c of cand) {
       const r2 = rowsA.slice();
       const c2 = cols.slice();
       this.take(c, r2, c2);
       here.push(c);
-      this.search(r2, c2, cost + this.w[c]!, here);
+      this.search(r2, c2, cost + this.w[c]!, here, u.slice(), depth + 1);
       here.pop();
       if (this.aborted) return;
       // Later branches exclude the columns already explored at this node.
