@@ -213,3 +213,48 @@ describe("verification", () => {
     expect(() => mapCovers(covers, user(2), { spec: { inputs: letters(2), outputs: [{ name: "f", on: [cubeFromString("11")], dc: [] }] } })).toThrow(/internal check failed/);
   });
 });
+
+describe("cross-check with the project's verifier", () => {
+  it("agrees with lib/verify on mapped and on broken netlists", async () => {
+    // outside reference: lib/verify (another engineer's equivalence checker) given the netlist as a simulator
+    const { verifyImplementation } = await import("../../lib/verify/index");
+    const cube = (n: number) => fc.array(fc.constantFrom("0", "1", "-"), { minLength: n, maxLength: n }).map((a) => a.join(""));
+    const arb = fc.integer({ min: 2, max: 6 }).chain((n) =>
+      fc.record({ n: fc.constant(n), cubes: fc.array(cube(n), { minLength: 1, maxLength: 6 }), form: fc.constantFrom(...TARGET_FORMS), flip: fc.nat(), to: fc.constantFrom("AND", "OR", "NAND", "NOR", "XOR") }),
+    );
+    fc.assert(
+      fc.property(arb, ({ n, cubes, form, flip, to }) => {
+        const inputs = letters(n);
+        const spec = { inputs, outputs: [{ name: "y", on: cubes.map(cubeFromString), dc: [] }] };
+        const r = mapCovers({ inputs, outputs: [{ name: "y", form: "sop", cubes: spec.outputs[0]!.on }] }, user(3, 4), { form });
+        const gates = r.netlist.gates.map((g, i) => (r.netlist.gates.length && i === flip % r.netlist.gates.length && g.inputs.length > 1 ? { ...g, type: to as Netlist["gates"][number]["type"] } : g));
+        const broken: Netlist = { ...r.netlist, gates };
+        const mine = verifyNetlist(broken, inputs, [{ name: "y", on: spec.outputs[0]!.on, dc: [] }]);
+        const theirs = verifyImplementation(spec, {
+          simulate: () => {
+            const words = Math.max(1, 2 ** n / 32);
+            const t = new Uint32Array(words);
+            for (let m = 0; m < 2 ** n; m++) if (evalNetlist(broken, inputs, m).get(broken.outputs[0]!.net)) t[m >>> 5]! |= 1 << (m & 31);
+            return [t];
+          },
+        });
+        expect(mine.ok).toBe(theirs.ok);
+      }),
+      { numRuns: 150 },
+    );
+  });
+});
+
+describe("families without inverters", () => {
+  it("ties a NAND's inputs together as the inverter", () => {
+    // common practice: a NAND with its inputs joined inverts
+    const fam: Family = { id: "nand-only", name: "NAND only", fanOut: 10, gates: [{ type: "NAND", widths: [{ width: 2, perPackage: 4 }, { width: 3, perPackage: 3 }] }] };
+    const covers: CoverSet = { inputs: letters(4), outputs: [sop("y", "0011", "11--", "1-0-", "-1-1", "0000")] };
+    const r = mapCovers(covers, fam, { form: "nand" });
+    const inverters = r.netlist.gates.filter((g) => g.role === "inverter");
+    expect(inverters.length).toBeGreaterThan(0);
+    for (const g of inverters) expect(new Set(g.inputs).size).toBe(1);
+    expect(r.netlist.gates.every((g) => g.type === "NAND" || g.type === "BUF")).toBe(true);
+    checkAgainstCovers(covers, r.netlist);
+  });
+});
