@@ -1,35 +1,27 @@
 import "server-only";
 /**
- * The seam between the API and the pipeline: source, settings and family in;
- * diagnostics, covers, netlist, analysis and the figures a revision stores out.
- * Compile limits of the minimizer become a 422 naming the limit.
+ * The seam between the API and lib/pipeline: source, settings and a family
+ * record in; diagnostics, covers, netlist, analysis and the figures a revision
+ * stores out. Minimization runs on a worker thread with a time budget so a
+ * long run does not hold the server; compile limits become a 422 naming the limit.
  */
-import { z } from "zod";
+import type { z } from "zod";
 import { compileSource, type Diagnostic } from "../lang";
-import { minimize, LimitError, type MinimizeResult } from "../minimize";
-import { mapCovers, MapError, TARGET_FORMS, type Netlist } from "../map";
-import { analyse, type Analysis } from "../analysis";
-import { toJsonDocument, type NetlistDocument } from "../export";
+import { LimitError, minimize, type MinimizeResult } from "../minimize";
+import { minimizeInWorker } from "../minimize/worker";
+import { finish, minimizeOptionsFor, type DesignSettings, type ExportFormat } from "../pipeline";
 import type { Family } from "../families";
 import { AppError } from "./errors";
 
-/** Settings of a compilation; every field optional with the pipeline's defaults. */
-export const CompileSettings = z
-  .object({
-    form: z.enum(["sop", "pos"]).optional().describe("two-level form to minimize; default sop"),
-    target: z.enum(TARGET_FORMS as unknown as [string, ...string[]]).optional().describe("gate set to map onto; default and-or"),
-    heuristic: z.boolean().optional().describe("skip the exact route; default false"),
-    fanIn: z.int().min(2).max(64).optional().describe("widest gate input allowed; default the family's"),
-    fanOut: z.int().min(2).max(1000).optional().describe("fan-out limit in unit loads; default the family's"),
-    complementedInputs: z.boolean().optional().describe("complemented inputs come from outside; default false"),
-    outputPinLoad: z.number().min(0).max(100).optional().describe("unit loads per output pin; default 1"),
-    clockMHz: z.number().positive().max(10_000).optional().describe("clock for dynamic power, MHz; default 10"),
-    activity: z.number().min(0).max(1).optional().describe("0→1 transitions per cycle; default 0.25"),
-  })
-  .strict();
-export type CompileSettings = z.infer<typeof CompileSettings>;
+import { CompileSettings } from "./routes";
 
-/** Figures stored with a revision; sortable keys of the design list. */
+export { CompileSettings };
+export type CompileSettings = Omit<z.infer<typeof CompileSettings>, "familyId">;
+
+/** Wall-clock budget of one minimization behind the API: 20 000 ms. */
+export const COMPILE_BUDGET_MS = 20_000;
+
+/** Figures stored with a revision; gates, depth and delayNs are the sort keys of the design list. */
 export interface RevisionStats {
   inputs: number;
   outputs: number;
@@ -44,69 +36,93 @@ export interface RevisionStats {
   staticMw: number | null;
   dynamicMw: number | null;
   maxLoad: number;
-}
-
-export interface CompileResult {
-  covers: MinimizeResult;
-  netlist: NetlistDocument;
-  analysis: Analysis;
-  warnings: string[];
-  stats: RevisionStats;
+  verified: boolean | null;
 }
 
 export interface CompileOutcome {
   diagnostics: Diagnostic[];
-  /** null when the source has errors. */
-  result: CompileResult | null;
-  /** The mapped netlist (for the exporters); null with result. */
-  netlistModel: Netlist | null;
+  /** null when the source has errors (see diagnostics). */
+  result: {
+    covers: MinimizeResult;
+    netlist: unknown;
+    analysis: unknown;
+    verification: unknown;
+    warnings: string[];
+    stats: RevisionStats;
+  } | null;
+  exports: Partial<Record<ExportFormat, string>>;
 }
 
-/** Runs the pipeline; throws AppError 422 for compile limits and families that cannot build the design. */
-export function compileDesign(source: string, settings: CompileSettings, family: Family): CompileOutcome {
+/** Settings without the family, as stored on designs and revisions. */
+export function storedSettings(s: CompileSettings & { familyId?: string }): Record<string, unknown> {
+  const { familyId: _ignored, ...rest } = s;
+  return rest;
+}
+
+// Set when the worker cannot start in this server build; later runs then minimize in-thread.
+let workerUnavailable = false;
+
+async function runMinimize(spec: Parameters<typeof minimize>[0], options: Parameters<typeof minimize>[1]) {
+  if (!workerUnavailable) {
+    try {
+      return await minimizeInWorker(spec, options, { budgetMs: COMPILE_BUDGET_MS });
+    } catch (e) {
+      if (e instanceof LimitError) throw e;
+      if ((e as Error).name !== "Error" && (e as Error).name !== "TypeError") throw e;
+      workerUnavailable = true;
+      console.warn(`minimization worker unavailable, minimizing in-thread: ${(e as Error).message}`);
+    }
+  }
+  return minimize(spec, { ...options, timeLimitMs: COMPILE_BUDGET_MS });
+}
+
+/**
+ * Runs the pipeline for one family record (its key is the pipeline's family id).
+ * Throws AppError 422: "compile_limit" (details.limit names it) or
+ * "compile_errors" when the family cannot build the design.
+ */
+export async function compileDesign(
+  source: string,
+  settings: CompileSettings,
+  family: Family,
+  opts: { exports?: ExportFormat[]; unitName?: string } = {},
+): Promise<CompileOutcome> {
   const compiled = compileSource(source);
-  if (!compiled.spec) return { diagnostics: compiled.diagnostics, result: null, netlistModel: null };
+  if (!compiled.spec) return { diagnostics: compiled.diagnostics, result: null, exports: {} };
+  const full: DesignSettings = { ...storedSettings(settings), familyId: family.id };
+  let minimized: MinimizeResult;
   try {
-    const covers = minimize(compiled.spec, { form: settings.form, heuristic: settings.heuristic });
-    const mapped = mapCovers(covers, family, {
-      form: settings.target as (typeof TARGET_FORMS)[number] | undefined,
-      fanIn: settings.fanIn,
-      fanOut: settings.fanOut,
-      complementedInputs: settings.complementedInputs,
-      outputPinLoad: settings.outputPinLoad,
-      spec: compiled.spec,
-    });
-    const analysis = analyse(mapped.netlist, mapped.family, {
-      fanOut: mapped.fanOut,
-      outputPinLoad: mapped.outputPinLoad,
-      clockMHz: settings.clockMHz,
-      activity: settings.activity,
-    });
-    const warnings = [...mapped.warnings, ...analysis.warnings];
-    const netlist = toJsonDocument(mapped.netlist, analysis, warnings);
-    const stats: RevisionStats = {
-      inputs: covers.inputs.length,
-      outputs: covers.outputs.length,
-      products: covers.cost,
-      literals: covers.outputs.reduce((s, o) => s + o.literals, 0),
-      exact: covers.exact,
-      gates: analysis.gates,
-      depth: analysis.depth,
-      delayNs: analysis.criticalPath.delay.value,
-      packages: analysis.packages,
-      transistors: analysis.transistors,
-      staticMw: analysis.staticPower.value,
-      dynamicMw: analysis.dynamicPower.value,
-      maxLoad: analysis.maxLoad,
-    };
-    return { diagnostics: compiled.diagnostics, result: { covers, netlist, analysis, warnings, stats }, netlistModel: mapped.netlist };
+    minimized = await runMinimize(compiled.spec, minimizeOptionsFor(full, family));
   } catch (e) {
     if (e instanceof LimitError) {
-      throw new AppError("compile_limit", e.message, { limit: e.limit, value: e.value, hint: e.hint });
-    }
-    if (e instanceof MapError) {
-      throw new AppError("compile_errors", e.message, { stage: "map" });
+      throw new AppError("compile_limit", `Compile limit ${e.limit} reached: ${e.message}`, { limit: e.limit, value: e.value, hint: e.hint });
     }
     throw e;
   }
+  const r = finish(compiled.diagnostics, compiled.spec, minimized, family, full, { families: [family], ...opts });
+  if (!r.ok || !r.analysis || !r.document) {
+    throw new AppError("compile_errors", r.error?.message ?? "The design could not be mapped onto the family.", { stage: r.error?.code ?? "mapping" });
+  }
+  const a = r.analysis;
+  const stats: RevisionStats = {
+    inputs: minimized.inputs.length,
+    outputs: minimized.outputs.length,
+    products: new Set(minimized.outputs.flatMap((o) => o.cubes.map((c) => `${o.form}:${c.value}/${c.mask}`))).size,
+    literals: minimized.outputs.reduce((s, o) => s + o.literals, 0),
+    exact: minimized.exact,
+    gates: a.gates,
+    depth: a.depth,
+    delayNs: a.criticalPath.delay.value,
+    packages: a.packages,
+    transistors: a.transistors,
+    staticMw: a.staticPower.value,
+    dynamicMw: a.dynamicPower.value,
+    maxLoad: a.maxLoad,
+    verified: r.verification ? r.verification.ok : null,
+  };
+  return {
+    diagnostics: r.diagnostics,
+    result: { covers: minimized, netlist: r.document, analysis: a, verification: r.verification, warnings: r.warnings, stats },
+    exports: r.exports ?? {},
+  };
 }

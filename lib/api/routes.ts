@@ -4,11 +4,14 @@
  */
 import { z } from "zod";
 import { defineRoute } from "./registry";
-import { CompileSettings } from "./compile";
+import { designSettingsSchema } from "../pipeline/settings";
 // Kept here rather than imported from models/, so this module stays free of Sequelize.
 const ROLES = ["owner", "designer", "reviewer", "viewer"] as const;
 
 // ---- shared pieces -------------------------------------------------------------
+
+/** Design settings as the API takes them: the pipeline's, with the family given apart (a familyId inside is ignored). */
+export const CompileSettings = designSettingsSchema.partial({ familyId: true });
 
 const Slug = z.string().regex(/^[a-z0-9][a-z0-9-]{1,62}$/, "2–63 lower-case letters, digits or dashes, starting with a letter or digit");
 const Id = z.uuid();

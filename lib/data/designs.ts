@@ -6,6 +6,7 @@ import "server-only";
 import { QueryTypes } from "sequelize";
 import { db } from "../db/connection";
 import { conflict, invalid, notFound } from "../api/errors";
+import { storedSettings, type CompileSettings } from "../api/compile";
 import { decodeCursor, encodeCursor, iso, requireAccess, type Actor } from "./access";
 
 export interface DesignSummary {
@@ -170,7 +171,7 @@ export async function createDesign(p: {
   name: string;
   description?: string;
   familyId: string;
-  settings?: Record<string, unknown>;
+  settings?: CompileSettings;
   draftSource?: string;
 }): Promise<DesignDetail> {
   const { workspace } = await requireAccess(p.actor, p.slug, "design.edit");
@@ -183,7 +184,7 @@ export async function createDesign(p: {
       name: p.name,
       description: p.description ?? "",
       familyId: p.familyId,
-      settings: p.settings ?? {},
+      settings: storedSettings(p.settings ?? {}),
       draftSource: p.draftSource ?? "",
       createdBy: p.actor!.userId,
       archivedAt: null,
@@ -203,7 +204,7 @@ export async function updateDesign(p: {
   name?: string;
   description?: string;
   familyId?: string;
-  settings?: Record<string, unknown>;
+  settings?: CompileSettings;
   draftSource?: string;
   archived?: boolean;
 }): Promise<DesignDetail> {
@@ -216,7 +217,7 @@ export async function updateDesign(p: {
   if (p.name !== undefined) patch.name = p.name;
   if (p.description !== undefined) patch.description = p.description;
   if (p.familyId !== undefined) patch.familyId = p.familyId;
-  if (p.settings !== undefined) patch.settings = p.settings;
+  if (p.settings !== undefined) patch.settings = storedSettings(p.settings);
   if (p.draftSource !== undefined) patch.draftSource = p.draftSource;
   if (p.archived !== undefined) patch.archivedAt = p.archived ? (d.archivedAt ?? new Date()) : null;
   try {

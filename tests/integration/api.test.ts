@@ -1,0 +1,294 @@
+/**
+ * Bodies, tokens, limits, revisions and the OpenAPI document, on the real
+ * database through the route handlers.
+ */
+import { beforeAll, beforeEach, describe, expect, it } from "vitest";
+import { db } from "@/lib/db/connection";
+import { limiters, RateLimiter } from "@/lib/api/rate-limit";
+import { createToken, revokeToken } from "@/lib/data/tokens";
+import { registry } from "@/lib/api/registry";
+import * as me from "@/app/api/v1/me/route";
+import * as workspaces from "@/app/api/v1/workspaces/route";
+import * as designs from "@/app/api/v1/workspaces/[ws]/designs/route";
+import * as design from "@/app/api/v1/workspaces/[ws]/designs/[designId]/route";
+import * as revisions from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/route";
+import * as families from "@/app/api/v1/workspaces/[ws]/families/route";
+import * as tokensRoute from "@/app/api/v1/tokens/route";
+import * as signup from "@/app/api/v1/auth/signup/route";
+import * as compile from "@/app/api/v1/compile/route";
+import * as openapi from "@/app/api/v1/openapi.json/route";
+import * as nextauth from "@/app/api/auth/[...nextauth]/route";
+import { SOURCE, builtinFamily, call, counts, makeUser, makeWorkspace, tag, type TestUser } from "./helpers";
+
+let owner: TestUser;
+let ws: { id: string; slug: string };
+let familyId: string;
+let designId: string;
+
+beforeAll(async () => {
+  owner = await makeUser("owner");
+  ws = await makeWorkspace("api", owner);
+  familyId = (await builtinFamily()).id;
+  const r = await call(designs.POST, "POST", "/d", { token: owner.token, params: { ws: ws.slug }, body: { name: `Upper gate ${tag()}`, familyId, draftSource: SOURCE } });
+  expect(r.status).toBe(201);
+  designId = r.json.design.id;
+});
+
+beforeEach(() => {
+  for (const l of Object.values(limiters)) l.reset();
+});
+
+describe("bad bodies are refused in the error shape and change nothing", () => {
+  const big = JSON.stringify({ name: "x".repeat(300 * 1024), slug: "too-big" });
+  const cases: Array<[string, Parameters<typeof call>[3], number, string]> = [
+    ["malformed JSON", { rawBody: '{"name": "Weir", "slug":', headers: { "content-type": "application/json" } }, 400, "malformed_json"],
+    ["empty body", { rawBody: "", headers: { "content-type": "application/json" } }, 400, "malformed_json"],
+    ["not JSON at all", { rawBody: "name=Weir&slug=weir", headers: { "content-type": "application/x-www-form-urlencoded" } }, 415, "unsupported_media_type"],
+    ["no content type", { rawBody: '{"name":"Weir","slug":"weir-x"}' }, 415, "unsupported_media_type"],
+    ["wrong types", { body: { name: 42, slug: ["a"] } }, 400, "invalid_input"],
+    ["unknown field", { body: { name: "Weir", slug: `weir-${tag()}`, owner: "me" } }, 400, "invalid_input"],
+    ["bad slug", { body: { name: "Weir", slug: "Not A Slug!" } }, 400, "invalid_input"],
+    ["a JSON array", { body: [1, 2, 3] }, 400, "invalid_input"],
+    ["over 256 KiB with Content-Length", { rawBody: big, headers: { "content-type": "application/json", "content-length": String(big.length) } }, 413, "payload_too_large"],
+  ];
+  for (const [name, c, status, code] of cases) {
+    it(`${name} → ${status}`, async () => {
+      const before = await counts();
+      const r = await call(workspaces.POST, "POST", "/workspaces", { token: owner.token, ...c });
+      expect(r.status).toBe(status);
+      expect(r.json.error).toMatchObject({ code, message: expect.any(String) });
+      expect(r.json.error).toHaveProperty("details");
+      if (code === "invalid_input") expect(r.json.error.details[0]).toMatchObject({ path: expect.any(String), message: expect.any(String) });
+      expect(await counts()).toEqual(before);
+    });
+  }
+
+  it("a streamed body over the limit is cut off without trusting any Content-Length → 413", async () => {
+    const before = await counts();
+    const chunk = new TextEncoder().encode(`{"name":"${"y".repeat(64 * 1024)}`);
+    let sent = 0;
+    const stream = new ReadableStream<Uint8Array>({
+      pull(ctrl) {
+        if (sent++ < 8) ctrl.enqueue(chunk);
+        else ctrl.close();
+      },
+    });
+    const req = new Request(`http://127.0.0.1:3100/api/v1/workspaces`, {
+      method: "POST",
+      headers: { "content-type": "application/json", authorization: `Bearer ${owner.token}` },
+      body: stream,
+      duplex: "half",
+    } as RequestInit);
+    const res = await workspaces.POST(req, { params: Promise.resolve({}) });
+    expect(res.status).toBe(413);
+    expect((await res.json()).error.code).toBe("payload_too_large");
+    expect(await counts()).toEqual(before);
+  });
+
+  it("bad revision bodies store no revision; a source with errors → 422 with diagnostics", async () => {
+    const before = await counts();
+    const p = { ws: ws.slug, designId };
+    const bad = await call(revisions.POST, "POST", "/r", { token: owner.token, params: p, body: { message: "x", source: SOURCE, familyId, settings: { fanIn: 1 } } });
+    expect(bad.status).toBe(400);
+    const stats = await call(revisions.POST, "POST", "/r", {
+      token: owner.token, params: p, body: { message: "x", source: SOURCE, familyId, settings: {}, stats: { gates: 1 } },
+    });
+    expect(stats.status).toBe(400); // figures from the client are refused outright
+    const broken = await call(revisions.POST, "POST", "/r", {
+      token: owner.token, params: p, body: { message: "x", source: "inputs a\noutputs f\nf = a *\n", familyId, settings: {} },
+    });
+    expect(broken.status).toBe(422);
+    expect(broken.json.error.code).toBe("compile_errors");
+    expect(broken.json.error.details.diagnostics[0]).toMatchObject({ severity: "error", line: expect.any(Number) });
+    expect(await counts()).toEqual(before);
+  });
+
+  it("a family that fails the family validator → 400 naming the field", async () => {
+    const before = await counts();
+    const r = await call(families.POST, "POST", "/f", { token: owner.token, params: { ws: ws.slug }, body: { key: "bad-fam", name: "Bad", data: { supplyV: -5, fanIn: 1 } } });
+    expect(r.status).toBe(400);
+    expect(r.json.error.details.map((d: { path: string }) => d.path)).toEqual(expect.arrayContaining(["data.supplyV", "data.fanIn"]));
+    expect(await counts()).toEqual(before);
+  });
+});
+
+describe("personal API tokens", () => {
+  it("are shown once, stored as a SHA-256 hash, and stop working when revoked", async () => {
+    const u = await makeUser("tokens");
+    const created = await call(tokensRoute.POST, "POST", "/tokens", {
+      token: u.token, body: { name: "ci", expiresAt: new Date(Date.now() + 30 * 86_400_000).toISOString() },
+    });
+    expect(created.status).toBe(201);
+    const secret: string = created.json.secret;
+    expect(secret.startsWith(created.json.token.prefix)).toBe(true);
+    const row = await db().models.ApiToken.findByPk(created.json.token.id);
+    // SHA-256 of the secret computed here with Node's crypto (FIPS 180-4).
+    const { createHash } = await import("node:crypto");
+    expect(row!.tokenHash).toBe(createHash("sha256").update(secret).digest("hex"));
+    expect(JSON.stringify(row!.toJSON())).not.toContain(secret);
+    const list = await call(tokensRoute.GET, "GET", "/tokens", { token: u.token });
+    expect(JSON.stringify(list.json)).not.toContain(secret);
+
+    expect((await call(me.GET, "GET", "/me", { token: secret })).status).toBe(200);
+    await revokeToken({ actor: { userId: u.id, via: "token" }, id: created.json.token.id });
+    const after = await call(me.GET, "GET", "/me", { token: secret });
+    expect(after.status).toBe(401);
+    expect(after.json.error.code).toBe("unauthenticated");
+  });
+
+  it("stop working when expired, and cannot be made for more than 365 days", async () => {
+    const u = await makeUser("expiry");
+    const past = new Date(Date.now() - 2 * 86_400_000);
+    const { secret } = await createToken({ actor: { userId: u.id, via: "token" }, name: "old", expiresAt: new Date(Date.now() - 1000), now: past });
+    expect((await call(me.GET, "GET", "/me", { token: secret })).status).toBe(401);
+    const tooLong = await call(tokensRoute.POST, "POST", "/tokens", {
+      token: u.token, body: { name: "forever", expiresAt: new Date(Date.now() + 366 * 86_400_000).toISOString() },
+    });
+    expect(tooLong.status).toBe(400);
+    const noExpiry = await call(tokensRoute.POST, "POST", "/tokens", { token: u.token, body: { name: "forever" } });
+    expect(noExpiry.status).toBe(400);
+  });
+
+  it("a malformed or unknown Bearer header is 401, not anonymous", async () => {
+    expect((await call(me.GET, "GET", "/me", { headers: { authorization: "Bearer fb_not-a-token" } })).status).toBe(401);
+    expect((await call(me.GET, "GET", "/me", { headers: { authorization: "Basic abc" } })).status).toBe(401);
+    expect((await call(openapi.GET, "GET", "/openapi.json", { headers: { authorization: "Bearer nope" } })).status).toBe(401);
+  });
+});
+
+describe("rate limits", () => {
+  it("the token bucket refills with its injected clock", () => {
+    let now = 0;
+    const l = new RateLimiter({ capacity: 2, refillPerSecond: 0.5, now: () => now });
+    expect(l.take("k")).toBe(0);
+    expect(l.take("k")).toBe(0);
+    expect(l.take("k")).toBe(2); // one token at 0.5 per second takes 2 s (by hand)
+    now = 2000;
+    expect(l.take("k")).toBe(0);
+    expect(l.take("other")).toBe(0);
+  });
+
+  it("compile: 429 with Retry-After once the user's bucket is empty, then allowed again", async () => {
+    let now = 1_000_000;
+    limiters.compile.setClock(() => now);
+    const u = await makeUser("limits");
+    for (let i = 0; i < 30; i++) limiters.compile.take(u.id);
+    const r = await call(compile.POST, "POST", "/compile", { token: u.token, body: { source: SOURCE, familyKey: "cmos-hc-5v" } });
+    expect(r.status).toBe(429);
+    expect(r.json.error.code).toBe("rate_limited");
+    expect(Number(r.headers.get("retry-after"))).toBeGreaterThanOrEqual(1);
+    now += 1000;
+    const ok = await call(compile.POST, "POST", "/compile", { token: u.token, body: { source: SOURCE, familyKey: "cmos-hc-5v" } });
+    expect(ok.status).toBe(200);
+  });
+
+  it("sign-up: 429 per IP after five", async () => {
+    const ip = { "x-forwarded-for": `203.0.113.${Math.floor(Math.random() * 200) + 1}` };
+    const statuses: number[] = [];
+    for (let i = 0; i < 6; i++) {
+      const r = await call(signup.POST, "POST", "/auth/signup", { headers: ip, body: { email: `s${i}-${tag()}@test.ferrow.example`, name: "Sam", password: "lock-keeper-pass" } });
+      statuses.push(r.status);
+      if (r.status === 429) expect(r.headers.get("retry-after")).toMatch(/^\d+$/);
+    }
+    expect(statuses).toEqual([201, 201, 201, 201, 201, 429]);
+  });
+
+  it("sign-in: the next-auth callback answers 429 before checking the password once the bucket is empty", async () => {
+    const email = `victim-${tag()}@test.ferrow.example`;
+    const key = `local|password|${email}`;
+    for (let i = 0; i < 10; i++) limiters.signIn.take(key);
+    const req = new Request("http://127.0.0.1:3100/api/auth/callback/password", {
+      method: "POST",
+      headers: { "content-type": "application/x-www-form-urlencoded" },
+      body: new URLSearchParams({ email, password: "guess", csrfToken: "x" }),
+    });
+    const res = await nextauth.POST(req, { params: Promise.resolve({ nextauth: ["callback", "password"] }) });
+    expect(res.status).toBe(429);
+    expect(res.headers.get("retry-after")).toMatch(/^\d+$/);
+  });
+});
+
+describe("designs and revisions", () => {
+  it("the server computes the stored figures: a two-term cover of the upper gate permit", async () => {
+    const r = await call(revisions.POST, "POST", "/r", {
+      token: owner.token, params: { ws: ws.slug, designId }, body: { message: "first save", source: SOURCE, familyId, settings: {} },
+    });
+    expect(r.status).toBe(201);
+    // By hand: estop'·lower_shut·(level_upper + override_key) has the minimum SOP
+    // estop'·lower_shut·level_upper + estop'·lower_shut·override_key: 2 products, 6 literals.
+    expect(r.json.revision.stats).toMatchObject({ inputs: 4, outputs: 1, products: 2, literals: 6, exact: true, verified: true });
+    expect(r.json.revision.stats.gates).toBeGreaterThan(0);
+    const d = await call(design.GET, "GET", "/d", { token: owner.token, params: { ws: ws.slug, designId } });
+    expect(d.json.design.latestRevision).toMatchObject({ number: r.json.revision.number, message: "first save", author: { id: owner.id } });
+  });
+
+  it("concurrent saves get distinct consecutive numbers", async () => {
+    const p = { ws: ws.slug, designId };
+    const before = (await db().models.Revision.max("number", { where: { designId } })) as number | null;
+    const results = await Promise.all(
+      [1, 2, 3, 4].map((i) => call(revisions.POST, "POST", "/r", { token: owner.token, params: p, body: { message: `save ${i}`, source: SOURCE, familyId, settings: {} } })),
+    );
+    expect(results.map((r) => r.status)).toEqual([201, 201, 201, 201]);
+    const numbers = results.map((r) => r.json.revision.number as number).sort((a, b) => a - b);
+    const b = before ?? 0;
+    expect(numbers).toEqual([b + 1, b + 2, b + 3, b + 4]);
+  });
+
+  it("revisions are immutable: UPDATE and DELETE refused through Sequelize and raw SQL", async () => {
+    const rev = await db().models.Revision.findOne({ where: { designId } });
+    expect(rev).not.toBeNull();
+    const original = rev!.message;
+    await expect(rev!.update({ message: "rewritten" })).rejects.toThrow(/immutable/);
+    await expect(rev!.destroy()).rejects.toThrow(/immutable/);
+    const { sequelize } = db();
+    await expect(sequelize.query("UPDATE revisions SET message = 'rewritten' WHERE id = :id", { replacements: { id: rev!.id } })).rejects.toThrow(/immutable/);
+    await expect(sequelize.query("DELETE FROM revisions WHERE id = :id", { replacements: { id: rev!.id } })).rejects.toThrow(/immutable/);
+    const again = await db().models.Revision.findByPk(rev!.id);
+    expect(again!.message).toBe(original);
+  });
+
+  it("lists page with a cursor, search and sort", async () => {
+    const w = await makeWorkspace("paging", owner);
+    for (const n of ["Alarm", "Beacon", "Chamber", "Display", "Equalise"]) {
+      const r = await call(designs.POST, "POST", "/d", { token: owner.token, params: { ws: w.slug }, body: { name: `${n} logic`, familyId } });
+      expect(r.status).toBe(201);
+    }
+    const seen: string[] = [];
+    let cursor: string | null = null;
+    do {
+      const q: Record<string, string> = { sort: "name", order: "asc", limit: "2" };
+      if (cursor) q.cursor = cursor;
+      const page = await call(designs.GET, "GET", "/d", { token: owner.token, params: { ws: w.slug }, query: q });
+      expect(page.status).toBe(200);
+      seen.push(...page.json.items.map((i: { name: string }) => i.name));
+      cursor = page.json.nextCursor;
+    } while (cursor);
+    expect(seen).toEqual(["Alarm logic", "Beacon logic", "Chamber logic", "Display logic", "Equalise logic"]);
+    const found = await call(designs.GET, "GET", "/d", { token: owner.token, params: { ws: w.slug }, query: { q: "cham" } });
+    expect(found.json.items.map((i: { name: string }) => i.name)).toEqual(["Chamber logic"]);
+    const bad = await call(designs.GET, "GET", "/d", { token: owner.token, params: { ws: w.slug }, query: { sort: "colour" } });
+    expect(bad.status).toBe(400);
+    const one = found.json.items[0].id;
+    await call(design.PATCH, "PATCH", "/d", { token: owner.token, params: { ws: w.slug, designId: one }, body: { archived: true } });
+    const archived = await call(designs.GET, "GET", "/d", { token: owner.token, params: { ws: w.slug }, query: { archived: "1" } });
+    expect(archived.json.items.map((i: { id: string }) => i.id)).toEqual([one]);
+    const dup = await call(designs.POST, "POST", "/d", { token: owner.token, params: { ws: w.slug }, body: { name: "Alarm logic", familyId } });
+    expect(dup.status).toBe(409);
+  });
+});
+
+describe("OpenAPI document", () => {
+  it("describes every registered route with its request schema", async () => {
+    const r = await call(openapi.GET, "GET", "/openapi.json");
+    expect(r.status).toBe(200);
+    expect(r.json.openapi).toBe("3.1.0");
+    for (const spec of registry) {
+      const op = r.json.paths[spec.path]?.[spec.method.toLowerCase()];
+      expect(op, `${spec.method} ${spec.path}`).toBeDefined();
+      if (spec.body) expect(op.requestBody.content["application/json"].schema).toBeTypeOf("object");
+    }
+    const create = r.json.paths["/workspaces/{ws}/designs"].post;
+    expect(create.requestBody.content["application/json"].schema.required).toEqual(expect.arrayContaining(["name", "familyId"]));
+    expect(Object.keys(create.responses)).toEqual(expect.arrayContaining(["201", "400", "401", "403", "404", "413", "415"]));
+  });
+});
