@@ -239,3 +239,21 @@ export function compatibility(driver: Family, receiver: Family): Compatibility {
   c.messages = messages;
   return c;
 }
+
+export interface CompatibilityCell {
+  driver: string;
+  receiver: string;
+  compatible: boolean | null;
+  receivers: number | null;
+}
+
+/** Every driver → receiver pair of the given families (row-major: drivers outer). */
+export function compatibilityMatrix(families: readonly Family[]): CompatibilityCell[] {
+  const out: CompatibilityCell[] = [];
+  for (const d of families)
+    for (const r of families) {
+      const c = compatibility(d, r);
+      out.push({ driver: d.id, receiver: r.id, compatible: c.compatible, receivers: c.receivers.value });
+    }
+  return out;
+}

@@ -41,6 +41,13 @@ export function validateFamily(f: Partial<Family>): FamilyProblem[] {
   if (f.volMax !== undefined && f.vilMax !== undefined && f.volMax >= f.vilMax) add("volMax", "VOL(max) must be below VIL(max), or the family cannot drive its own inputs low");
   if (f.vilMax !== undefined && f.vihMin !== undefined && f.vilMax >= f.vihMin) add("vilMax", "VIL(max) must be below VIH(min)");
   if (f.supplyV !== undefined && f.vohMin !== undefined && f.vohMin > f.supplyV) add("vohMin", "VOH(min) cannot exceed the supply voltage");
+  if (f.ratedDrive !== undefined) {
+    const r = f.ratedDrive;
+    for (const k of ["iohMa", "iolMa", "vohMin", "volMax"] as const) {
+      if (typeof r[k] !== "number" || !Number.isFinite(r[k]) || r[k] < 0) add(`ratedDrive.${k}`, `ratedDrive.${k} must be a number of at least 0`);
+    }
+    if (f.vohMin !== undefined && r.vohMin > f.vohMin) add("ratedDrive.vohMin", "the rated point's VOH(min) cannot exceed the light-load VOH(min)");
+  }
   if (f.gates !== undefined) {
     if (!Array.isArray(f.gates)) add("gates", "gates must be a list");
     else

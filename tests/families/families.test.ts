@@ -158,3 +158,14 @@ describe("validateFamily", () => {
     expect(p.find((x) => x.field === "vohMin")!.message).toMatch(/VOH\(min\) must be above VIH\(min\)/);
   });
 });
+
+describe("compatibility matrix", () => {
+  it("covers every pair and matches the handbook cases", async () => {
+    const { compatibilityMatrix } = await import("../../lib/families/index");
+    const m = compatibilityMatrix(BUILT_IN_FAMILIES);
+    expect(m.length).toBe(BUILT_IN_FAMILIES.length ** 2);
+    // handbook tables: TTL high level 2.4 V fails a 3.5 V CMOS threshold; each family drives itself
+    expect(m.find((c) => c.driver === "ttl-std-5v" && c.receiver === "cmos-hc-5v")?.compatible).toBe(false);
+    for (const f of BUILT_IN_FAMILIES) expect(m.find((c) => c.driver === f.id && c.receiver === f.id)?.compatible).toBe(true);
+  });
+});
