@@ -25,7 +25,7 @@ export function toVerilog(netlist: Netlist, options: HdlOptions = {}): string {
   const wires = netlist.gates.map((g) => g.output).filter((n) => !portSet.has(n));
   const names = new Set([...portSet, ...wires]);
   const lines: string[] = [];
-  for (const h of options.header ?? []) lines.push(`// ${h}`);
+  for (const h of options.header ?? []) lines.push(`// ${h.replace(/[\r\n]+/g, " ")}`);
   lines.push("`timescale 1ns / 1ps");
   lines.push(`module ${v(mod)}(${[...inPorts, ...outPorts].map(v).join(", ")});`);
   if (inPorts.length) lines.push(`  input ${inPorts.map(v).join(", ")};`);

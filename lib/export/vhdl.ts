@@ -6,7 +6,10 @@ import type { HdlOptions } from "./verilog";
 
 /** Renders the netlist as VHDL; output ports are read inside the architecture, which VHDL-2008 allows. */
 export function toVhdl(netlist: Netlist, options: HdlOptions = {}): string {
-  const ent = unitName(options.name);
+  const taken = new Set([...netlist.inputs, ...netlist.complements.map((c) => c.net), ...netlist.outputs.map((o) => o.name), ...netlist.gates.map((g) => g.output)].map((x) => x.toLowerCase()));
+  let ent = unitName(options.name);
+  // a port or signal named like the entity would hide it
+  while (taken.has(ent.toLowerCase())) ent = `${ent}_unit`;
   const nm = vhdlNamer();
   const entName = nm(ent);
   const term = (net: string) => (net === CONST0 ? "'0'" : net === CONST1 ? "'1'" : nm(net));
@@ -15,7 +18,7 @@ export function toVhdl(netlist: Netlist, options: HdlOptions = {}): string {
   const portSet = new Set([...inPorts, ...outPorts]);
   const signals = netlist.gates.map((g) => g.output).filter((n) => !portSet.has(n));
   const lines: string[] = [];
-  for (const h of options.header ?? []) lines.push(`-- ${h}`);
+  for (const h of options.header ?? []) lines.push(`-- ${h.replace(/[\r\n]+/g, " ")}`);
   lines.push("library ieee;", "use ieee.std_logic_1164.all;", "");
   lines.push(`entity ${entName} is`);
   const ports = [...inPorts.map((p) => `${nm(p)} : in std_logic`), ...outPorts.map((p) => `${nm(p)} : out std_logic`)];

@@ -95,3 +95,19 @@ describe("schematic layout", () => {
     }
   });
 });
+
+describe("layout of constants and aliases", () => {
+  it("draws constant sources and routes output aliases", async () => {
+    const c: CoverSet = { inputs: ["a", "b", "c"], outputs: [
+      { name: "stuck", form: "sop", cubes: [] },
+      { name: "wide", form: "sop", cubes: ["111"].map(cubeFromString) },
+      { name: "same", form: "sop", cubes: ["1--"].map(cubeFromString) },
+    ] };
+    // a family whose only AND is 4 wide forces a tied input
+    const r = mapCovers(c, { id: "w4", name: "Four wide", fanOut: 10, gates: [{ type: "AND", widths: [{ width: 4, perPackage: 2 }] }, { type: "OR", widths: [{ width: 2, perPackage: 4 }] }, { type: "NOT", widths: [{ width: 1, perPackage: 6 }] }] });
+    expect(r.netlist.gates[0]!.inputs).toContain("1");
+    const l = await layoutNetlist(r.netlist);
+    expect(l.nodes.filter((x) => x.kind === "const").map((x) => x.label).sort()).toEqual(["0", "1"]);
+    expect(l.edges.length).toBe(r.netlist.gates.reduce((s, g) => s + g.inputs.length, 0) + r.netlist.outputs.length);
+  });
+});
