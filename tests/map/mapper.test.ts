@@ -258,3 +258,28 @@ describe("families without inverters", () => {
     checkAgainstCovers(covers, r.netlist);
   });
 });
+
+describe("minimum depth", () => {
+  it("an n-literal product at fan-in k: ceil((n − 1)/(k − 1)) gates over ceil(log_k n) levels", () => {
+    // common practice; the levels brute-forced here as the fewest d with k^d ≥ n
+    fc.assert(
+      fc.property(fc.integer({ min: 2, max: 24 }), fc.integer({ min: 2, max: 8 }), (n, k) => {
+        const covers: CoverSet = { inputs: Array.from({ length: n }, (_, i) => `p${i}`), outputs: [sop("all_shut", "1".repeat(n))] };
+        const r = mapCovers(covers, user(k, 10));
+        let d = 0;
+        while (k ** d < n) d++;
+        expect(r.netlist.gates.length).toBe(Math.ceil((n - 1) / (k - 1)));
+        expect(levels(r.netlist).get(r.netlist.outputs[0]!.net)).toBe(d);
+      }),
+      { numRuns: 60 },
+    );
+  });
+  it("a late product takes the short side of the sum tree", () => {
+    // worked by hand at fan-in 2: abcd arrives after 2 levels, e f g at 0;
+    // ((e + f) + g) + abcd finishes at 3, a balanced ((abcd + e) + (f + g)) at 4
+    const covers: CoverSet = { inputs: letters(7), outputs: [sop("drain", "1111---", "----1--", "-----1-", "------1")] };
+    const r = mapCovers(covers, user(2, 10));
+    expect(levels(r.netlist).get(r.netlist.outputs[0]!.net)).toBe(3);
+    checkAgainstCovers(covers, r.netlist);
+  });
+});
