@@ -3,6 +3,7 @@ import path from "node:path";
 import type { Metadata } from "next";
 import { marked } from "marked";
 import { SiteHeader } from "@/components/ui/SiteHeader";
+import { TryIt } from "./_components/TryIt";
 
 export const metadata: Metadata = {
   title: "Equation language",
@@ -17,6 +18,7 @@ export default async function LanguagePage() {
     <>
       <SiteHeader />
       <main className="mx-auto max-w-3xl px-6 py-10">
+        <TryIt />
         {/* the Markdown is ours, from the repository, so it is rendered as is */}
         <article className="doc" dangerouslySetInnerHTML={{ __html: html }} />
       </main>

@@ -8,7 +8,7 @@
  */
 import Editor, { loader } from "@monaco-editor/react";
 import type * as Monaco from "monaco-editor";
-import { useEffect, useRef, useState } from "react";
+import { useEffect, useMemo, useRef, useState } from "react";
 import type { Diagnostic } from "../../lib/lang/index";
 import { FANBOUND_LANGUAGE_ID, NIGHT_THEME, PAPER_THEME, registerFanboundLanguage, setDiagnosticsMarkers } from "./fanbound-language";
 
@@ -71,7 +71,49 @@ export default function EquationEditor({
   const [monaco, setMonaco] = useState<MonacoApi | null>(null);
   const [failed, setFailed] = useState<string | null>(null);
   const editorRef = useRef<Monaco.editor.IStandaloneCodeEditor | null>(null);
+  // The model is the source of truth while typing. React may commit a render
+  // whose `value` is a text the editor reported a few keystrokes ago; pushing
+  // that back would undo the newer keystrokes, so only values the editor did
+  // not report itself are written into the model.
+  const reported = useRef(new Set<string>());
   const dark = useSystemDark();
+  // A fresh options object on every render makes Monaco re-apply them and
+  // drop keystrokes typed meanwhile, so they change only with their inputs.
+  const options = useMemo<Monaco.editor.IStandaloneEditorConstructionOptions>(
+    () => ({
+      readOnly,
+      ariaLabel,
+      minimap: { enabled: false },
+      fontFamily: "var(--font-mono), ui-monospace, monospace",
+      fontSize: 14,
+      lineHeight: 21,
+      tabSize: 2,
+      insertSpaces: true,
+      scrollBeyondLastLine: false,
+      renderLineHighlight: "line",
+      lineNumbersMinChars: 3,
+      glyphMargin: false,
+      folding: true,
+      wordBasedSuggestions: "off",
+      automaticLayout: true,
+      fixedOverflowWidgets: true,
+    }),
+    [readOnly, ariaLabel],
+  );
+
+  useEffect(() => {
+    const editor = editorRef.current;
+    const model = editor?.getModel();
+    if (!editor || !model) return;
+    if (value === model.getValue()) {
+      reported.current.clear();
+      return;
+    }
+    if (reported.current.has(value)) return;
+    reported.current.clear();
+    editor.executeEdits("fanbound-value", [{ range: model.getFullModelRange(), text: value }]);
+    editor.pushUndoStop();
+  }, [value]);
 
   useEffect(() => {
     let live = true;
@@ -109,32 +151,18 @@ export default function EquationEditor({
         height="100%"
         language={FANBOUND_LANGUAGE_ID}
         theme={theme ?? (dark ? NIGHT_THEME : PAPER_THEME)}
-        value={value}
-        onChange={(v) => onChange?.(v ?? "")}
+        defaultValue={value}
+        onChange={(v) => {
+          reported.current.add(v ?? "");
+          onChange?.(v ?? "");
+        }}
         onMount={(editor) => {
           editorRef.current = editor;
           const model = editor.getModel();
           if (model) setDiagnosticsMarkers(monaco, model, diagnostics);
         }}
         loading={<span className="font-mono text-sm text-graphite">Loading the editor…</span>}
-        options={{
-          readOnly,
-          ariaLabel,
-          minimap: { enabled: false },
-          fontFamily: "var(--font-mono), ui-monospace, monospace",
-          fontSize: 14,
-          lineHeight: 21,
-          tabSize: 2,
-          insertSpaces: true,
-          scrollBeyondLastLine: false,
-          renderLineHighlight: "line",
-          lineNumbersMinChars: 3,
-          glyphMargin: false,
-          folding: true,
-          wordBasedSuggestions: "off",
-          automaticLayout: true,
-          fixedOverflowWidgets: true,
-        }}
+        options={options}
       />
     </div>
   );

@@ -108,7 +108,7 @@ export function registerFanboundLanguage(monaco: MonacoApi): void {
   defineThemes(monaco);
 
   languages.registerCompletionItemProvider(FANBOUND_LANGUAGE_ID, {
-    triggerCharacters: [" ", "(", ","],
+    triggerCharacters: ["(", ","],
     provideCompletionItems(model, position) {
       const word = model.getWordUntilPosition(position);
       const range = new monaco.Range(position.lineNumber, word.startColumn, position.lineNumber, word.endColumn);
@@ -175,13 +175,13 @@ export function registerFanboundLanguage(monaco: MonacoApi): void {
       let head = `**${roleLabel[sym.role]}** \`${sym.name}\``;
       if (sym.role === "input") {
         const inputs = all.filter((s) => s.role === "input");
-        const k = inputs.findIndex((s) => s === sym);
-        head += ` — input ${k + 1} of ${inputs.length}, minterm bit ${inputs.length - 1 - k}`;
+        const k = inputs.findIndex((s) => s.declared.line === sym.declared.line && s.declared.column === sym.declared.column);
+        head += ` — input ${k + 1} of ${inputs.length}, minterm bit ${inputs.length - 1 - k} (the first input is the most significant)`;
       }
       const where = sym.defined ? `defined on line ${at.line}` : `declared on line ${at.line}`;
       return {
         range,
-        contents: [{ value: `${head} (${where})` }, { value: "```fanbound\n" + lines.join("\n") + "\n```" }],
+        contents: [{ value: `${head}; ${where}` }, { value: "```fanbound\n" + lines.join("\n") + "\n```" }],
       };
     },
   });
