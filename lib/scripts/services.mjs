@@ -261,6 +261,8 @@ export function appEnv(profile, extra = {}) {
     MAIL_DIR: profile.mailDir,
     NEXTAUTH_URL: `http://127.0.0.1:${profile.webPort}`,
     NEXTAUTH_SECRET: process.env.NEXTAUTH_SECRET ?? localSecret(),
+    // The local mail catcher runs with every profile, so the captured-mail page (/dev/mail) may show.
+    FANBOUND_MAIL_CATCHER: "1",
     ...extra,
   };
 }

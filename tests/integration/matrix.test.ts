@@ -90,7 +90,7 @@ afterAll(async () => {
 
 type Row = {
   name: string;
-  run: (who: ActorName, token: string | null) => Promise<{ status: number; json: Record<string, any> }>;
+  run: (who: ActorName, token: string | null) => Promise<{ status: number; json: Record<string, unknown> | null }>;
   expect: Statuses;
 };
 

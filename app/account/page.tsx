@@ -1,0 +1,35 @@
+import type { Metadata } from "next";
+import { SiteHeader } from "@/components/ui/SiteHeader";
+import { requireSignedIn } from "@/lib/auth/session";
+import { getMe } from "@/lib/data/users";
+import { listTokens } from "@/lib/data/tokens";
+import { SignOutButton } from "./_components/SignOutButton";
+import { TokenManager } from "./_components/TokenManager";
+
+export const metadata: Metadata = { title: "Account" };
+export const dynamic = "force-dynamic";
+
+export default async function AccountPage() {
+  const actor = await requireSignedIn("/account");
+  const [me, tokens] = await Promise.all([getMe({ actor }), listTokens({ actor })]);
+  return (
+    <>
+      <SiteHeader>
+        <span className="text-graphite">{me.user.email}</span>
+        <SignOutButton />
+      </SiteHeader>
+      <main className="mx-auto max-w-5xl px-4 py-10">
+        <h1 className="text-2xl font-semibold">Account</h1>
+        <p className="mt-1 text-graphite">{me.user.name} · {me.user.email}</p>
+        <section className="mt-8">
+          <h2 className="text-sm font-semibold uppercase tracking-wide text-graphite">Personal API tokens</h2>
+          <p className="mb-4 mt-1 max-w-2xl text-sm text-graphite">
+            For scripts and continuous integration. A token acts as you in every workspace you belong to, until it
+            expires or you revoke it. The API is described at <a href="/api/v1/openapi.json" className="font-mono text-accent hover:underline">/api/v1/openapi.json</a>.
+          </p>
+          <TokenManager initial={tokens} />
+        </section>
+      </main>
+    </>
+  );
+}
