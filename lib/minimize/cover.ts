@@ -15,6 +15,8 @@ export interface CoverProblem {
   weight: number[];
   rowCount: number;
   deadline: number;
+  /** A known cover (column indices) to start from. */
+  incumbent?: number[];
   /** Core size (rows × columns) above which the exact search is not attempted; default 3e8 (about 80 MB of bitsets). */
   maxCoreCells?: number;
 }
@@ -75,6 +77,11 @@ export function solveCover(p: CoverProblem): CoverSolution {
     p.deadline,
     cells > (p.maxCoreCells ?? 3e8),
   );
+  if (p.incumbent) {
+    const coreIndex = new Map(coreCols.map((c, i) => [c, i]));
+    const mapped = p.incumbent.filter((c) => coreIndex.has(c)).map((c) => coreIndex.get(c)!);
+    bb.offer(mapped);
+  }
   const res = bb.run();
   for (const c of res.chosen) chosen.push(coreCols[c]!);
   return { chosen, weight: base + res.weight, lowerBound: base + res.lowerBound, exact: res.exact };
@@ -83,6 +90,7 @@ export function solveCover(p: CoverProblem): CoverSolution {
 /** Dominance tests at inner nodes: bit 0 columns, bit 1 rows (the root always runs both). */
 let NODE_DOMINANCE = 1;
 const ROOT_ITERS = 300;
+const NODE_ITERS = 40;
 export function setNodeDominance(d: number): void {
   NODE_DOMINANCE = d;
 }
@@ -123,6 +131,18 @@ class BranchAndBound {
       }
     }
     this.rowColsS = lists.map((l) => Int32Array.from(l));
+  }
+
+  /** Offers a known cover of the core as incumbent. */
+  offer(chosen: number[]): void {
+    const covered = new Uint8Array(this.R);
+    for (const c of chosen) for (const r of this.cols[c]!) covered[r] = 1;
+    if (!covered.every((x) => x === 1)) return;
+    const w = chosen.reduce((a, c) => a + this.w[c]!, 0);
+    if (w < this.best) {
+      this.best = w;
+      this.bestChosen = chosen.slice();
+    }
   }
 
   run(): { chosen: number[]; weight: number; lowerBound: number; exact: boolean } {
@@ -500,7 +520,7 @@ class BranchAndBound {
     }
     if (cost + lb >= this.best) return;
     // Lagrangian bound and reduced-cost fixing.
-    const lag = this.lagrange(rowsA, colsA, u, depth === 0 ? 300 : 40, this.best - cost);
+    const lag = this.lagrange(rowsA, colsA, u, depth === 0 ? ROOT_ITERS : NODE_ITERS, this.best - cost);
     if (cost + Math.ceil(lag.lb - 1e-6) >= this.best) return;
     let fixed = false;
     for (const c of lag.liveCols) {

@@ -14,7 +14,7 @@ import type { Cube, FunctionSpec } from "../logic";
 import { MAX_INPUTS, TRUTH_TABLE_MAX_INPUTS, fullMask, popcount, tableFromCubes, tableMinterms } from "../logic";
 import { verifyCovers } from "../verify";
 import { independentPoints, tableOracle, cubeOracle, type BoundPoint } from "./bound";
-import { boundFromSurrogate, columnWeight, designCost, gatesFor, validateModel } from "./cost";
+import { PRODUCT_WEIGHT, boundFromSurrogate, columnWeight, designCost, gatesFor, validateModel } from "./cost";
 import { solveCover } from "./cover";
 import { formatCover } from "./expression";
 import { HeuristicTimeout, heuristicCover } from "./heuristic";
@@ -31,7 +31,7 @@ export { formatCover } from "./expression";
 export const DEFAULTS = {
   form: "sop" as const,
   cost: { kind: "products" } as CostModel,
-  maxPrimes: 20_000,
+  maxPrimes: 100_000,
   timeLimitMs: 10_000,
   /** Implicants the Quine–McCluskey tables may hold in total before the exact route gives way. */
   maxImplicants: 2_000_000,
@@ -130,13 +130,25 @@ function costOfCovers(model: CostModel, covers: Cube[][]): number {
   return designCost(model, [...distinct.values()], covers.map((c) => c.length));
 }
 
-/** Exact route over a group of outputs sharing terms. Throws ExactLimit beyond its limits. */
-function exactGroup(
+/** The covering problem of the exact route: rows (output, ON minterm), columns multi-output primes. */
+export interface CoveringProblem {
+  /** All multi-output primes (value, mask, tag: bit j = output j). */
+  primes: TaggedPrime[];
+  /** The primes that reach at least one row, in column order. */
+  columns: TaggedPrime[];
+  /** colRows[c]: rows covered by column c. */
+  colRows: Int32Array[];
+  /** Integer weight of each column under the cost model (see ./cost). */
+  weight: number[];
+  rowCount: number;
+}
+
+function buildProblem(
   n: number,
   targets: Target[],
   model: CostModel,
   limits: { maxPrimes: number; maxImplicants: number; deadline: number },
-): Solved {
+): CoveringProblem & { rowOf: Map<number, number>[] } {
   const words = targets[0]!.onT!.length;
   const care = new Uint32Array(words);
   for (const t of targets) for (let w = 0; w < words; w++) care[w]! |= t.onT![w]! | t.dcT![w]!;
@@ -151,14 +163,12 @@ function exactGroup(
     return tag;
   };
   const all = taggedPrimes(n, minterms, tagOf, limits);
-  // Rows: (output, ON minterm). Columns: primes reaching at least one row.
   const full = fullMask(n);
-  const rowOf = targets.map((t) => {
-    const map = new Map<number, number>();
-    return { t, map };
-  });
+  const rowOf = targets.map(() => new Map<number, number>());
   let rowCount = 0;
-  for (const r of rowOf) for (const m of tableMinterms(r.t.onT!, n)) r.map.set(m, rowCount++);
+  targets.forEach((t, j) => {
+    for (const m of tableMinterms(t.onT!, n)) rowOf[j]!.set(m, rowCount++);
+  });
   const colRows: Int32Array[] = [];
   const weight: number[] = [];
   const cols: TaggedPrime[] = [];
@@ -171,7 +181,7 @@ function exactGroup(
       const m = (p.value | sub) >>> 0;
       for (let j = 0; j < targets.length; j++) {
         if (!((p.tag >>> j) & 1)) continue;
-        const r = rowOf[j]!.map.get(m);
+        const r = rowOf[j]!.get(m);
         if (r !== undefined) buf.push(r);
       }
       if (sub === free) break;
@@ -182,11 +192,63 @@ function exactGroup(
     colRows.push(Int32Array.from(buf));
     weight.push(columnWeight(model, popcount(p.mask)));
   }
+  return { primes: all, columns: cols, colRows, weight, rowCount, rowOf };
+}
+
+/**
+ * The covering problem minimize() solves on its exact route (SOP form), for
+ * comparison with other solvers. Inputs ≤ TRUTH_TABLE_MAX_INPUTS; at most 31 outputs.
+ */
+export function coveringProblem(spec: FunctionSpec, options: { cost?: CostModel; form?: "sop" | "pos" } = {}): CoveringProblem {
+  const n = spec.inputs.length;
+  const p = buildProblem(n, buildTargets(spec, options.form ?? "sop"), options.cost ?? DEFAULTS.cost, {
+    maxPrimes: Infinity,
+    maxImplicants: Infinity,
+    deadline: Infinity,
+  });
+  return { primes: p.primes, columns: p.columns, colRows: p.colRows, weight: p.weight, rowCount: p.rowCount };
+}
+
+/**
+ * Products-then-literals in two searches, because one search over the
+ * combined weight must resolve literal differences everywhere and explores
+ * far more nodes. First the fewest products P* (unit weights) with a cover
+ * of L1 literals; then weights M + literals with M = max(1, L1 - P*): a cover
+ * with more products then weighs at least M·(P*+1) + P* + 1 > M·P* + L*, so
+ * the second optimum still has P* products and the fewest literals among
+ * them. Returns weights in the {@link columnWeight} scale.
+ */
+function lexicographicCover(prob: CoveringProblem, model: CostModel, deadline: number) {
+  const { colRows, weight, rowCount } = prob;
+  if (model.kind !== "products") return solveCover({ colRows, weight, rowCount, deadline });
+  const lits = prob.columns.map((p) => popcount(p.mask));
+  const s1 = solveCover({ colRows, weight: lits.map(() => 1), rowCount, deadline });
+  const P = s1.chosen.length;
+  const L1 = s1.chosen.reduce((a, c) => a + lits[c]!, 0);
+  const M = Math.max(1, L1 - P);
+  const s2 = solveCover({ colRows, weight: lits.map((l) => M + l), rowCount, deadline, incumbent: s1.chosen });
+  const chosen = s2.chosen.length === P || !s1.exact ? s2.chosen : s1.chosen;
+  const w = chosen.reduce((a, c) => a + weight[c]!, 0);
+  // Bound in the combined scale: at least the proven product count, each with at least one literal... kept simple:
+  // products bound times the product weight (literals add nothing to the bound).
+  const lb = s1.exact && s2.exact ? w : Math.min(w, s1.lowerBound * PRODUCT_WEIGHT);
+  return { chosen, weight: w, lowerBound: lb, exact: s1.exact && s2.exact };
+}
+
+/** Exact route over a group of outputs sharing terms. Throws ExactLimit beyond its limits. */
+function exactGroup(
+  n: number,
+  targets: Target[],
+  model: CostModel,
+  limits: { maxPrimes: number; maxImplicants: number; deadline: number },
+): Solved {
+  const prob = buildProblem(n, targets, model, limits);
+  const { colRows, weight, rowCount } = prob;
+  const all = prob.primes;
+  const cols = prob.columns;
+  const rowOf = prob.rowOf.map((map, j) => ({ t: targets[j]!, map }));
   const live = targets.filter((t) => t.on.length > 0 && rowOf.some((r) => r.t === t && r.map.size > 0)).length;
-  const sol =
-    rowCount === 0
-      ? { chosen: [], weight: 0, lowerBound: 0, exact: true }
-      : solveCover({ colRows, weight, rowCount, deadline: limits.deadline });
+  const sol = rowCount === 0 ? { chosen: [], weight: 0, lowerBound: 0, exact: true } : lexicographicCover(prob, model, limits.deadline);
   const covers = assignTerms(n, targets, sol.chosen.map((c) => cols[c]!));
   const cost = costOfCovers(model, covers);
   const bound = Math.min(cost, boundFromSurrogate(model, sol.lowerBound, live));
@@ -303,7 +365,7 @@ function pointsToCost(model: CostModel, k: number, _indep: number): number {
 /**
  * Minimizes every output of the specification as a two-level cover.
  * Defaults: SOP, the products-then-literals cost, exact route first with at
- * most 20 000 primes, 10 000 ms in total. Throws {@link LimitError} when a
+ * most 100 000 primes, 10 000 ms in total. Throws {@link LimitError} when a
  * limit stops the run (too many inputs, or not even a heuristic cover in time).
  */
 export function minimize(spec: FunctionSpec, options: MinimizeOptions = {}): MinimizeResult {

@@ -19,7 +19,7 @@ export interface MinimizeOptions {
   cost?: CostModel;
   /** Skip the exact route and run the expand / irredundant / reduce loop. Default false. */
   heuristic?: boolean;
-  /** The exact route gives way to the heuristic above this many prime implicants. Default 20 000. */
+  /** The exact route gives way to the heuristic above this many prime implicants. Default 100 000. */
   maxPrimes?: number;
   /** Wall-clock budget of one run in milliseconds. Default 10 000. */
   timeLimitMs?: number;

@@ -1,0 +1,87 @@
+/**
+ * `npm run bench`: seeded random functions (8–16 inputs, 40 % ON, 10 % DC)
+ * and structured ones, each minimized by minimize() and, when that result is
+ * exact, also by the generic route (all primes, then a highs MILP), printing
+ * one table row per case and a summary against the targets.
+ */
+import { popcount } from "../logic";
+import { columnWeight } from "../minimize/cost";
+import { minimize, type MinimizeResult } from "../minimize";
+import { randomCase, structuredCases, type BenchCase } from "./cases";
+import { genericRoute, loadSolver } from "./generic";
+
+interface Row {
+  c: BenchCase;
+  r: MinimizeResult;
+  generic: { ms: number; agree: boolean | null; status: string } | null;
+}
+
+/** Σ column weights of the distinct terms, the quantity both routes minimize. */
+function coverWeight(r: MinimizeResult): number {
+  const seen = new Map<string, number>();
+  for (const o of r.outputs) for (const c of o.cubes) seen.set(`${c.value}/${c.mask}`, popcount(c.mask));
+  let w = 0;
+  for (const lits of seen.values()) w += columnWeight({ kind: "products" }, lits);
+  return w;
+}
+
+const pad = (s: string | number, w: number) => String(s).padStart(w);
+
+async function main(): Promise<void> {
+  const quick = process.argv.includes("--quick");
+  await loadSolver();
+  const cases: { c: BenchCase; timeLimitMs: number }[] = [];
+  const seeds: Record<number, number> = quick ? { 8: 3, 10: 3, 12: 1, 14: 1, 16: 1 } : { 8: 11, 10: 11, 12: 5, 14: 3, 16: 2 };
+  for (const n of [8, 10, 12, 14, 16]) for (let s = 1; s <= seeds[n]!; s++) cases.push({ c: randomCase(n, s), timeLimitMs: 5000 });
+  for (const c of structuredCases()) cases.push({ c, timeLimitMs: 10_000 });
+
+  const header = `${"case".padEnd(24)}${pad("in", 4)}${pad("out", 4)}${pad("primes", 8)}${pad("cover", 7)}${pad("bound", 7)} exact${pad("gap%", 7)}${pad("ms", 8)}${pad("MILP ms", 9)}${pad("ratio", 8)}  agree`;
+  console.log(header);
+  console.log("-".repeat(header.length));
+  const rows: Row[] = [];
+  for (const { c, timeLimitMs } of cases) {
+    const r = minimize(c.spec, { timeLimitMs });
+    let generic: Row["generic"] = null;
+    if (r.exact && r.route === "exact") {
+      const g = await genericRoute(c.spec);
+      generic = { ms: g.ms, agree: g.weight === null ? null : g.weight === coverWeight(r), status: g.status };
+    }
+    rows.push({ c, r, generic });
+    const gap = r.lowerBound > 0 ? ((r.cost - r.lowerBound) / r.lowerBound) * 100 : 0;
+    const ratio = generic ? generic.ms / Math.max(1, r.ms) : NaN;
+    console.log(
+      `${c.name.padEnd(24)}${pad(c.spec.inputs.length, 4)}${pad(c.spec.outputs.length, 4)}${pad(r.primes < 0 ? "-" : r.primes, 8)}${pad(r.cost, 7)}${pad(r.lowerBound, 7)} ${r.exact ? " yes " : " no  "}${pad(gap.toFixed(1), 7)}${pad(r.ms, 8)}${pad(generic ? generic.ms.toFixed(0) : "-", 9)}${pad(generic ? ratio.toFixed(1) + "x" : "-", 8)}  ${generic ? (generic.agree === null ? generic.status : generic.agree ? "yes" : "NO") : "-"}`,
+    );
+  }
+
+  const median = (xs: number[]) => {
+    const s = xs.slice().sort((a, b) => a - b);
+    return s.length ? s[Math.floor((s.length - 1) / 2)]! : NaN;
+  };
+  console.log("\nsummary");
+  for (const n of [8, 10, 12, 14, 16]) {
+    const rs = rows.filter((x) => x.c.kind === "random" && x.c.spec.inputs.length === n);
+    const exact = rs.filter((x) => x.r.exact).length;
+    const gaps = rs.map((x) => (x.r.lowerBound > 0 ? (x.r.cost - x.r.lowerBound) / x.r.lowerBound : 0) * 100);
+    console.log(
+      `  random ${n}: ${exact}/${rs.length} exact, median ${median(rs.map((x) => x.r.ms))} ms, max ${Math.max(...rs.map((x) => x.r.ms))} ms, worst gap ${Math.max(...gaps).toFixed(1)} %`,
+    );
+  }
+  const st = rows.filter((x) => x.c.kind === "structured");
+  const stOk = st.filter((x) => x.r.exact && x.r.ms <= 2000);
+  console.log(`  structured: ${stOk.length}/${st.length} exact within 2 s; not: ${st.filter((x) => !(x.r.exact && x.r.ms <= 2000)).map((x) => x.c.name).join(", ") || "none"}`);
+  const compared = rows.filter((x) => x.generic && x.c.spec.inputs.length >= 8);
+  const ratios = compared.map((x) => x.generic!.ms / Math.max(1, x.r.ms));
+  const disagree = rows.filter((x) => x.generic && x.generic.agree === false).map((x) => x.c.name);
+  console.log(
+    `  generic route (≥ 8 inputs, ${compared.length} exact cases): median ratio ${median(ratios).toFixed(1)}x, min ${Math.min(...ratios).toFixed(1)}x; ${compared.filter((x, i) => ratios[i]! >= 5).length}/${compared.length} at least 5x; cost disagreements: ${disagree.join(", ") || "none"}`,
+  );
+}
+
+main().then(
+  () => process.exit(0),
+  (e: unknown) => {
+    console.error(e);
+    process.exit(1);
+  },
+);
