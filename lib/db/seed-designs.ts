@@ -1,10 +1,147 @@
+/**
+ * The demo designs of Ferrow Lock & Weir, each with revisions that tell how it
+ * grew: an added impossible combination, a family change, a fan-in fix. Every
+ * figure stored comes from running the real pipeline on that revision.
+ */
+import { readFileSync } from "node:fs";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+import { Op } from "sequelize";
 import type { initModels } from "../../models";
+import { BUILT_IN_FAMILIES } from "../families";
+import { compileDesign, type DesignSettings } from "../pipeline";
+import { revisionStats } from "../pipeline/stats";
 
 type Models = ReturnType<typeof initModels>;
+type Settings = Omit<DesignSettings, "familyId">;
 
-/** Demo designs arrive with the workbench; until then the workspace starts empty. */
+interface Step {
+  message: string;
+  author: "designer" | "owner";
+  family: string;
+  settings?: Settings;
+  /** Source of this revision, from the example file's text. */
+  edit?: (full: string) => string;
+}
+
+interface DemoDesign {
+  name: string;
+  description: string;
+  file: string;
+  steps: Step[];
+}
+
+const here = path.dirname(fileURLToPath(import.meta.url));
+const examples = path.join(here, "../lang/examples");
+/** The example without its impossible-combination lines: how a first draft reads. */
+const withoutNever = (s: string) => s.split("\n").filter((l) => !/^\s*never\b/.test(l)).join("\n");
+
+export const DEMO_DESIGNS: DemoDesign[] = [
+  {
+    name: "Chamber interlock",
+    description: "Gate-open permits, paddle enables and the alarm for one lock chamber",
+    file: "chamber-interlock.fnb",
+    steps: [
+      { message: "First cut of the gate permits, paddles and alarm", author: "designer", family: "ttl-std-5v", edit: withoutNever },
+      { message: "The chamber cannot be level with both pounds: add it as impossible", author: "designer", family: "ttl-std-5v" },
+      { message: "New controller board uses high-speed CMOS", author: "designer", family: "cmos-hc-5v" },
+      { message: "Fit the spare two-input NANDs on the board: NAND–NAND, fan-in 2", author: "designer", family: "cmos-hc-5v", settings: { form: "nand", fanIn: 2 } },
+    ],
+  },
+  {
+    name: "Status lamp decode",
+    description: "Controller state code to the lock keeper's panel lamps, with lamp test",
+    file: "status-lamps.fnb",
+    steps: [
+      { message: "Decode the six states to the panel lamps", author: "designer", family: "ttl-ls-5v", edit: withoutNever },
+      { message: "Codes 6 and 7 are never sent: use them as don't-cares", author: "designer", family: "ttl-ls-5v" },
+      { message: "Lamp drivers load each output like four inputs", author: "owner", family: "ttl-ls-5v", settings: { outputPinLoad: 4 } },
+    ],
+  },
+  {
+    name: "Chamber level display",
+    description: "4-bit level code (0 to 9) to one 7-segment digit",
+    file: "level-display.fnb",
+    steps: [
+      { message: "Segments from the level code", author: "designer", family: "ttl-std-5v", edit: withoutNever },
+      { message: "Codes 10 to 15 cannot come from the probe", author: "designer", family: "ttl-std-5v" },
+      { message: "Display board runs at 3.3 V", author: "designer", family: "lvcmos-3v3" },
+    ],
+  },
+  {
+    name: "Paddle driver decode",
+    description: "Raise and lower coils of four paddles, chosen by a 2-bit select, with enable",
+    file: "paddle-driver.fnb",
+    steps: [
+      { message: "Coil decode with drive enable", author: "designer", family: "cmos-hct-5v" },
+      { message: "Try NOR–NOR for the relay board", author: "designer", family: "cmos-hct-5v", settings: { form: "nor" } },
+      { message: "Back to AND–OR; complemented selects come from the latch", author: "designer", family: "cmos-hct-5v", settings: { complementedInputs: true } },
+    ],
+  },
+  {
+    name: "Fault priority encoder",
+    description: "Eight fault lines to a 3-bit code of the most urgent, and valid",
+    file: "fault-priority.fnb",
+    steps: [
+      { message: "Priority encoder for the eight fault lines", author: "designer", family: "ttl-ls-5v" },
+      { message: "Move to high-speed CMOS, four-input gates only", author: "designer", family: "cmos-hc-5v", settings: { fanIn: 4 } },
+      { message: "Valid drives the alarm board and the logger: fan-out 4 to be safe", author: "owner", family: "cmos-hc-5v", settings: { fanIn: 4, fanOut: 4 } },
+    ],
+  },
+];
+
+/** Creates each demo design that does not exist yet, with its revisions. */
 export async function seedDemoDesigns(
-  _models: Models,
-  _workspace: InstanceType<Models["Workspace"]>,
-  _users: Record<string, InstanceType<Models["User"]>>,
-): Promise<void> {}
+  models: Models,
+  workspace: InstanceType<Models["Workspace"]>,
+  users: Record<string, InstanceType<Models["User"]>>,
+): Promise<number> {
+  const { Design, Revision, LogicFamilyRecord } = models;
+  const familyRows = await LogicFamilyRecord.findAll({ where: { workspaceId: { [Op.is]: null } } });
+  const familyByKey = new Map(familyRows.map((f) => [f.key, f]));
+  let created = 0;
+  const day = 24 * 3600 * 1000;
+  for (const [di, demo] of DEMO_DESIGNS.entries()) {
+    if (await Design.findOne({ where: { workspaceId: workspace.id, name: demo.name } })) continue;
+    const full = readFileSync(path.join(examples, demo.file), "utf8");
+    const first = demo.steps[0]!;
+    const design = await Design.create({
+      workspaceId: workspace.id,
+      name: demo.name,
+      description: demo.description,
+      familyId: familyByKey.get(first.family)!.id,
+      settings: {},
+      draftSource: "",
+      createdBy: users.designer!.id,
+      archivedAt: null,
+    });
+    let last: { source: string; family: string; settings: Settings } | null = null;
+    for (const [i, step] of demo.steps.entries()) {
+      const source = step.edit ? step.edit(full) : full;
+      const settings = step.settings ?? {};
+      const family = BUILT_IN_FAMILIES.find((f) => f.id === step.family)!;
+      const result = compileDesign(source, { familyId: step.family, ...settings });
+      const stats = revisionStats(result);
+      if (!stats) {
+        throw new Error(`demo design "${demo.name}" revision ${i + 1} did not compile: ${result.error?.message ?? "errors"}`);
+      }
+      await Revision.create({
+        designId: design.id,
+        number: i + 1,
+        source,
+        familyId: familyByKey.get(step.family)!.id,
+        familySnapshot: { ...family },
+        settings: { ...settings },
+        stats: { ...stats },
+        authorId: users[step.author]!.id,
+        message: step.message,
+        // Spread the story over the past weeks, oldest first.
+        createdAt: new Date(Date.now() - ((DEMO_DESIGNS.length - di) * 6 + (demo.steps.length - i)) * day),
+      });
+      last = { source, family: step.family, settings };
+    }
+    await design.update({ draftSource: last!.source, familyId: familyByKey.get(last!.family)!.id, settings: { ...last!.settings } });
+    created++;
+  }
+  return created;
+}

@@ -8,7 +8,7 @@ import { Sequelize, Op } from "sequelize";
 import pg from "pg";
 import { initModels, type Role } from "../../models";
 import { hashPassword } from "../auth/password";
-import { BUILTIN_FAMILIES } from "../families";
+import { BUILT_IN_FAMILIES } from "../families";
 import { DEMO_PASSWORD, DEMO_USERS, DEMO_WORKSPACE } from "../scripts/demo.mjs";
 import { seedDemoDesigns } from "./seed-designs";
 
@@ -19,7 +19,7 @@ async function main() {
   const models = initModels(sequelize);
   const { User, Workspace, Membership, LogicFamilyRecord } = models;
   try {
-    for (const family of BUILTIN_FAMILIES) {
+    for (const family of BUILT_IN_FAMILIES) {
       const [row, created] = await LogicFamilyRecord.findOrCreate({
         where: { key: family.id, workspaceId: { [Op.is]: null } },
         defaults: { key: family.id, name: family.name, builtin: true, data: { ...family }, workspaceId: null },
@@ -47,7 +47,7 @@ async function main() {
       });
     }
     await seedDemoDesigns(models, workspace, users);
-    console.log(`seeded: ${BUILTIN_FAMILIES.length} built-in families, workspace "${workspace.name}"`);
+    console.log(`seeded: ${BUILT_IN_FAMILIES.length} built-in families, workspace "${workspace.name}"`);
   } finally {
     await sequelize.close();
   }

@@ -54,3 +54,12 @@ export async function screenshot(page: Page, name: string): Promise<string> {
   await page.screenshot({ path: file, fullPage: true });
   return file;
 }
+
+/** Signs in through the sign-in page and waits for the workspace to open. */
+export async function signIn(page: Page, email: string, password: string): Promise<void> {
+  await page.goto(`${BASE_URL}/signin`);
+  await page.fill('input[name="email"]', email);
+  await page.fill('input[name="password"]', password);
+  await page.click('button[type="submit"]');
+  await page.waitForURL(/\/w\//, { timeout: 30_000 });
+}

@@ -1,0 +1,32 @@
+import { redirect } from "next/navigation";
+import { getServerSession } from "next-auth";
+import Link from "next/link";
+import { authOptions } from "@/lib/auth/options";
+import { SiteHeader } from "@/components/ui/SiteHeader";
+import { SignOutButton } from "@/components/ui/SignOutButton";
+import { Providers } from "@/components/ui/Providers";
+import { WorkspaceNav } from "@/components/workspace/WorkspaceNav";
+
+export const dynamic = "force-dynamic";
+
+export default async function WorkspaceLayout({ children, params }: { children: React.ReactNode; params: Promise<{ ws: string }> }) {
+  const { ws } = await params;
+  const session = await getServerSession(authOptions);
+  if (!session?.user) redirect(`/signin?callbackUrl=/w/${encodeURIComponent(ws)}`);
+  return (
+    <Providers>
+      <SiteHeader>
+        <Link href="/account" className="text-graphite hover:text-ink">
+          {session.user.email}
+        </Link>
+        <SignOutButton />
+      </SiteHeader>
+      <div className="border-b border-rule bg-paper">
+        <div className="mx-auto flex h-10 max-w-[100rem] items-center px-4">
+          <WorkspaceNav ws={ws} />
+        </div>
+      </div>
+      {children}
+    </Providers>
+  );
+}

@@ -1,0 +1,10 @@
+"use client";
+import { signOut } from "next-auth/react";
+
+export function SignOutButton() {
+  return (
+    <button type="button" onClick={() => signOut({ callbackUrl: "/" })} className="text-graphite hover:text-ink">
+      Sign out
+    </button>
+  );
+}

@@ -1,0 +1,63 @@
+"use client";
+import Link from "next/link";
+import type { RevisionSummary } from "@/lib/client/types";
+import { RevisionChart } from "./RevisionChart";
+import { fmtInt, fmtNs, fmtWhen } from "@/components/workspace/format";
+
+const formats = [
+  ["verilog", "Verilog"],
+  ["vhdl", "VHDL"],
+  ["csv", "CSV"],
+  ["json", "JSON"],
+] as const;
+
+/** The design's revisions, newest first, with their figures, a chart and the downloads. */
+export function RevisionsPanel({ ws, designId, revisions }: { ws: string; designId: string; revisions: RevisionSummary[] }) {
+  const base = `/api/v1/workspaces/${ws}/designs/${designId}/revisions`;
+  return (
+    <div className="grid gap-6 lg:grid-cols-[1fr_36rem]">
+      <div className="overflow-x-auto">
+        <table className="w-full text-sm" data-testid="revision-list">
+          <thead className="border-b border-rule text-left text-xs uppercase tracking-wide text-graphite">
+            <tr>
+              <th className="px-2 py-1.5">No.</th>
+              <th className="px-2 py-1.5">Message</th>
+              <th className="px-2 py-1.5">Author</th>
+              <th className="px-2 py-1.5">When</th>
+              <th className="px-2 py-1.5 text-right">Gates</th>
+              <th className="px-2 py-1.5 text-right">Depth</th>
+              <th className="px-2 py-1.5 text-right">Delay (est.)</th>
+              <th className="px-2 py-1.5">Files</th>
+            </tr>
+          </thead>
+          <tbody className="tabular">
+            {revisions.map((r) => (
+              <tr key={r.id} className="border-b border-rule/50 last:border-0" data-revision={r.number}>
+                <td className="px-2 py-1 font-mono">
+                  <Link href={`/w/${ws}/d/${designId}/r/${r.number}`} className="text-accent hover:underline">r{r.number}</Link>
+                </td>
+                <td className="px-2 py-1">{r.message}</td>
+                <td className="px-2 py-1 text-graphite">{r.author.name}</td>
+                <td className="px-2 py-1 text-graphite" title={r.createdAt}>{fmtWhen(r.createdAt)}</td>
+                <td className="px-2 py-1 text-right font-mono">{fmtInt(r.stats.gates as number | undefined)}</td>
+                <td className="px-2 py-1 text-right font-mono">{fmtInt(r.stats.depth as number | undefined)}</td>
+                <td className="px-2 py-1 text-right font-mono">{fmtNs(r.stats.delayNs as number | null | undefined)}</td>
+                <td className="whitespace-nowrap px-2 py-1 text-xs">
+                  {formats.map(([f, label]) => (
+                    <a key={f} href={`${base}/${r.number}/export?format=${f}`} className="mr-2 text-graphite hover:text-ink" download>
+                      {label}
+                    </a>
+                  ))}
+                </td>
+              </tr>
+            ))}
+            {revisions.length === 0 && (
+              <tr><td colSpan={8} className="px-2 py-6 text-center text-graphite">No revisions yet — save one with Ctrl+S.</td></tr>
+            )}
+          </tbody>
+        </table>
+      </div>
+      <RevisionChart revisions={revisions} />
+    </div>
+  );
+}

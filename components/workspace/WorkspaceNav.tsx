@@ -1,0 +1,24 @@
+"use client";
+import Link from "next/link";
+import { usePathname } from "next/navigation";
+import useSWR from "swr";
+import type { WorkspaceInfo } from "@/lib/client/types";
+import { RoleBadge } from "@/components/ui/RoleBadge";
+
+export function WorkspaceNav({ ws }: { ws: string }) {
+  const { data } = useSWR<{ workspace: WorkspaceInfo }>(`/api/v1/workspaces/${ws}`);
+  const path = usePathname();
+  const link = (href: string, label: string) => (
+    <Link href={href} className={path === href ? "text-ink" : "hover:text-ink"} aria-current={path === href ? "page" : undefined}>
+      {label}
+    </Link>
+  );
+  return (
+    <div className="flex items-center gap-4 text-sm text-graphite">
+      <span className="font-semibold text-ink">{data?.workspace.name ?? ws}</span>
+      {data && <RoleBadge role={data.workspace.role} />}
+      {link(`/w/${ws}`, "Designs")}
+      {link(`/w/${ws}/families`, "Families")}
+    </div>
+  );
+}

@@ -1,0 +1,73 @@
+/** Shapes the REST API answers with, as the pages use them. */
+import type { Role } from "../../models";
+
+export type { Role };
+
+export interface WorkspaceInfo {
+  id: string;
+  slug: string;
+  name: string;
+  role: Role;
+  settings?: Record<string, unknown>;
+}
+
+export interface Person {
+  id: string;
+  name: string;
+}
+
+export interface FamilyRef {
+  id: string;
+  key: string;
+  name: string;
+}
+
+export interface FamilyItem extends FamilyRef {
+  builtin: boolean;
+  fanIn: number;
+  fanOut: number;
+  data: Record<string, unknown>;
+}
+
+/** Figures stored with each revision (computed by the server's pipeline). */
+export interface RevisionStats {
+  gates?: number;
+  depth?: number;
+  delayNs?: number | null;
+  staticMw?: number | null;
+  dynamicMw?: number | null;
+  products?: number;
+  literals?: number;
+  exact?: boolean;
+  packages?: number | Record<string, number>;
+  transistors?: number | null;
+  [key: string]: unknown;
+}
+
+export interface RevisionSummary {
+  id: string;
+  number: number;
+  message: string;
+  author: Person;
+  createdAt: string;
+  stats: RevisionStats;
+  family?: FamilyRef;
+}
+
+export interface DesignItem {
+  id: string;
+  name: string;
+  description: string;
+  family: FamilyRef;
+  latestRevision: (Omit<RevisionSummary, "id" | "family"> & { id?: string }) | null;
+  updatedAt: string;
+  archivedAt: string | null;
+  createdBy: Person;
+  draftSource?: string;
+  settings?: Record<string, unknown>;
+}
+
+export interface Page<T> {
+  items: T[];
+  nextCursor: string | null;
+}

@@ -1,0 +1,64 @@
+/**
+ * The figures stored with each revision and shown in the design list: a
+ * small, flat summary of one pipeline run, so lists sort and chart without
+ * recomputing anything.
+ */
+import type { PipelineResult } from "./index";
+
+export interface RevisionStats {
+  inputs: number;
+  outputs: number;
+  /** Distinct product (or sum) terms of the two-level cover. */
+  products: number;
+  literals: number;
+  /** Terms shared by more than one output. */
+  shared: number;
+  /** The cover is a proven minimum under the cost model. */
+  exact: boolean;
+  /** Cost of the cover and the proven lower bound under the cost model. */
+  cost: number;
+  lowerBound: number;
+  gates: number;
+  depth: number;
+  /** Estimated critical path delay, ns; null when the family has no delay model. */
+  delayNs: number | null;
+  packages: number | null;
+  transistors: number | null;
+  staticMw: number | null;
+  dynamicMw: number | null;
+  /** Heaviest net load in unit loads. */
+  maxLoad: number;
+  verified: boolean;
+}
+
+/** Stats of a successful run; null when the run stopped before a netlist. */
+export function revisionStats(r: PipelineResult): RevisionStats | null {
+  if (!r.ok || !r.minimized || !r.analysis || !r.spec) return null;
+  const m = r.minimized;
+  const a = r.analysis;
+  return {
+    inputs: r.spec.inputs.length,
+    outputs: r.spec.outputs.length,
+    products: countDistinctTerms(m),
+    literals: m.outputs.reduce((s, o) => s + o.literals, 0),
+    shared: m.shared,
+    exact: m.exact,
+    cost: m.cost,
+    lowerBound: m.lowerBound,
+    gates: a.gates,
+    depth: a.depth,
+    delayNs: a.criticalPath.delay.value,
+    packages: a.packages,
+    transistors: a.transistors,
+    staticMw: a.staticPower.value,
+    dynamicMw: a.dynamicPower.value,
+    maxLoad: a.maxLoad,
+    verified: r.verification?.ok ?? false,
+  };
+}
+
+function countDistinctTerms(m: NonNullable<PipelineResult["minimized"]>): number {
+  const seen = new Set<string>();
+  for (const o of m.outputs) for (const c of o.cubes) seen.add(`${o.form}:${c.value}:${c.mask}`);
+  return seen.size;
+}

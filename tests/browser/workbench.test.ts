@@ -1,0 +1,109 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { BASE_URL, openBrowser, screenshot, signIn, type Session } from "../support/browser";
+import { DEMO_PASSWORD } from "../../lib/scripts/demo.mjs";
+
+/** Product terms of an SOP expression as sets of literals, so term and literal order do not matter. */
+function terms(expr: string): string[] {
+  return expr
+    .split("+")
+    .map((t) => t.split("*").map((l) => l.trim()).sort().join("*"))
+    .sort();
+}
+
+describe("the designer's workbench in chromium", () => {
+  let s: Session;
+  beforeAll(async () => {
+    s = await openBrowser();
+  });
+  afterAll(async () => {
+    await s?.close();
+  });
+
+  it("lets the designer create a design, type equations, watch the result follow and save a revision", async () => {
+    const { page } = s;
+    await signIn(page, "designer@ferrow.example", DEMO_PASSWORD);
+    await page.waitForSelector('[data-testid="design-table"] tbody tr a');
+    await screenshot(page, "workspace-home");
+
+    const name = `Weir sluice ${Date.now()}`;
+    await page.getByRole("button", { name: "New design" }).click();
+    await page.fill('input[name="name"]', name);
+    await page.getByRole("button", { name: "Create" }).click();
+    await page.waitForURL(/\/d\//);
+    await page.waitForSelector(".monaco-editor textarea");
+
+    // Type a small design line by line (Escape closes any completion list before Enter).
+    await page.click(".monaco-editor");
+    const lines = ["inputs a, b, c", "outputs f", "f = a * b + a * b' * c"];
+    for (const line of lines) {
+      await page.keyboard.type(line);
+      await page.keyboard.press("Escape");
+      await page.keyboard.press("Enter");
+    }
+    // a·b + a·b'·c = a·b + a·c (absorption: x + x'y = x + y, with x = b inside a) — Boolean algebra, any textbook.
+    const expr = page.locator('[data-output="f"] [data-testid="expression"]');
+    await expect.poll(async () => terms(await expr.innerText()), { timeout: 30_000 }).toEqual(["a*b", "a*c"]);
+    await page.getByRole("tab", { name: /Gates/ }).click();
+    const rowsBefore = await page.locator('[data-testid="gate-table"] tbody tr').count();
+    expect(rowsBefore).toBeGreaterThan(0);
+
+    // Add a term that absorbs everything with a: the cover shrinks to the single literal a.
+    await page.keyboard.press("Control+End");
+    await page.keyboard.type(" + a * c'");
+    await page.keyboard.press("Escape");
+    await page.getByRole("tab", { name: "Minimized" }).click();
+    // a·b + a·b'·c + a·c' = a (every combination with a = 1 is covered) — checked by hand over the 4 cases of b, c.
+    await expect.poll(async () => (await expr.innerText()).trim(), { timeout: 30_000 }).toBe("a");
+    await page.getByRole("tab", { name: /Gates/ }).click();
+    await expect.poll(() => page.locator('[data-testid="gate-table"] tbody tr').count(), { timeout: 10_000 }).not.toBe(rowsBefore);
+    await screenshot(page, "workbench-typed");
+
+    await page.keyboard.press("Control+s");
+    await page.fill("#rev-message", "Sluice opens whenever the weir is armed");
+    await page.getByRole("button", { name: "Save", exact: true }).click();
+    const row = page.locator('[data-testid="revision-list"] tr[data-revision="1"]');
+    await expect.poll(() => row.innerText(), { timeout: 20_000 }).toContain("Sluice opens whenever the weir is armed");
+    await screenshot(page, "workbench-saved");
+    expect(s.outside).toEqual([]);
+  });
+
+  it("draws the schematic with one symbol per netlist gate, the critical path marked", async () => {
+    const { page } = s;
+    await page.goto(`${BASE_URL}/w/ferrow-controls`);
+    const compiled = page.waitForResponse((r) => r.url().endsWith("/api/v1/compile") && r.status() === 200, { timeout: 30_000 });
+    await page.getByRole("link", { name: "Chamber interlock" }).click();
+    const body = (await (await compiled).json()) as { result: { netlist: { gates: unknown[] } } };
+    const n = body.result.netlist.gates.length;
+    expect(n).toBeGreaterThan(5);
+    await expect.poll(() => page.locator('[data-testid="schematic"] g[data-gate]').count(), { timeout: 20_000 }).toBe(n);
+    expect(await page.locator('[data-testid="schematic"] polyline.stroke-accent').count()).toBeGreaterThan(0);
+    // A click on a symbol finds its row in the gate table.
+    const first = page.locator('[data-testid="schematic"] g[data-gate]').first();
+    const id = await first.getAttribute("data-gate");
+    await first.click();
+    await expect.poll(() => page.locator(`#gate-row-${id}`).getAttribute("class")).toContain("bg-accent");
+    await screenshot(page, "schematic");
+    expect(s.outside).toEqual([]);
+  });
+
+  it("shows the viewer no edit controls", async () => {
+    const v = await openBrowser();
+    try {
+      await signIn(v.page, "viewer@ferrow.example", DEMO_PASSWORD);
+      await v.page.waitForSelector('[data-testid="design-table"] tbody tr a');
+      expect(await v.page.getByRole("button", { name: "New design" }).count()).toBe(0);
+      expect(await v.page.getByRole("button", { name: "Rename" }).count()).toBe(0);
+      await v.page.getByRole("link", { name: "Chamber level display" }).click();
+      await v.page.waitForSelector('[data-testid="settings"] select');
+      await expect.poll(() => v.page.getByText("read only for your role").count(), { timeout: 15_000 }).toBe(1);
+      expect(await v.page.getByRole("button", { name: "Save revision" }).count()).toBe(0);
+      for (const sel of await v.page.locator('[data-testid="settings"] select, [data-testid="settings"] input').all()) {
+        expect(await sel.isDisabled()).toBe(true);
+      }
+      await screenshot(v.page, "viewer-workbench");
+      expect(v.outside).toEqual([]);
+    } finally {
+      await v.close();
+    }
+  });
+});
