@@ -2,24 +2,24 @@ import "server-only";
 /**
  * The seam between the API and lib/pipeline: source, settings and a family
  * record in; diagnostics, covers, netlist, analysis and the figures a revision
- * stores out. Minimization runs on a worker thread with a time budget so a
- * long run does not hold the server; compile limits become a 422 naming the limit.
+ * stores out. Compile limits become a 422 naming the limit.
+ *
+ * The minimizer runs in-thread with its wall-clock budget: the worker variant
+ * (lib/minimize/worker.ts) boots through tsx from source files, which the Next
+ * server bundle cannot load.
  */
 import type { z } from "zod";
 import { compileSource, type Diagnostic } from "../lang";
 import { LimitError, minimize, type MinimizeResult } from "../minimize";
-import { minimizeInWorker } from "../minimize/worker";
 import { finish, minimizeOptionsFor, type DesignSettings, type ExportFormat } from "../pipeline";
 import type { Family } from "../families";
 import { AppError } from "./errors";
 
-import { CompileSettings } from "./routes";
+import type { CompileSettings as CompileSettingsSchema } from "./routes";
+export type CompileSettings = Omit<z.infer<typeof CompileSettingsSchema>, "familyId">;
 
-export { CompileSettings };
-export type CompileSettings = Omit<z.infer<typeof CompileSettings>, "familyId">;
-
-/** Wall-clock budget of one minimization behind the API: 20 000 ms. */
-export const COMPILE_BUDGET_MS = 20_000;
+/** Wall-clock budget of one minimization behind the API: 10 000 ms (the exact route then gives way to the heuristic). */
+export const COMPILE_BUDGET_MS = 10_000;
 
 /** Figures stored with a revision; gates, depth and delayNs are the sort keys of the design list. */
 export interface RevisionStats {
@@ -59,20 +59,7 @@ export function storedSettings(s: CompileSettings & { familyId?: string }): Reco
   return rest;
 }
 
-// Set when the worker cannot start in this server build; later runs then minimize in-thread.
-let workerUnavailable = false;
-
-async function runMinimize(spec: Parameters<typeof minimize>[0], options: Parameters<typeof minimize>[1]) {
-  if (!workerUnavailable) {
-    try {
-      return await minimizeInWorker(spec, options, { budgetMs: COMPILE_BUDGET_MS });
-    } catch (e) {
-      if (e instanceof LimitError) throw e;
-      if ((e as Error).name !== "Error" && (e as Error).name !== "TypeError") throw e;
-      workerUnavailable = true;
-      console.warn(`minimization worker unavailable, minimizing in-thread: ${(e as Error).message}`);
-    }
-  }
+function runMinimize(spec: Parameters<typeof minimize>[0], options: Parameters<typeof minimize>[1]) {
   return minimize(spec, { ...options, timeLimitMs: COMPILE_BUDGET_MS });
 }
 
@@ -92,7 +79,7 @@ export async function compileDesign(
   const full: DesignSettings = { ...storedSettings(settings), familyId: family.id };
   let minimized: MinimizeResult;
   try {
-    minimized = await runMinimize(compiled.spec, minimizeOptionsFor(full, family));
+    minimized = runMinimize(compiled.spec, minimizeOptionsFor(full, family));
   } catch (e) {
     if (e instanceof LimitError) {
       throw new AppError("compile_limit", `Compile limit ${e.limit} reached: ${e.message}`, { limit: e.limit, value: e.value, hint: e.hint });

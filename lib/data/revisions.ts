@@ -7,7 +7,8 @@ import "server-only";
  */
 import { db } from "../db/connection";
 import { AppError, notFound } from "../api/errors";
-import { compileDesign, CompileSettings, storedSettings } from "../api/compile";
+import { compileDesign, storedSettings, type CompileSettings as Settings } from "../api/compile";
+import { CompileSettings } from "../api/routes";
 import type { Family } from "../families";
 import { decodeCursor, encodeCursor, iso, requireAccess, type Actor } from "./access";
 import { familyOf } from "./families";
@@ -102,7 +103,7 @@ export async function createRevision(p: {
   message: string;
   source: string;
   familyId: string;
-  settings: CompileSettings;
+  settings: Settings;
 }): Promise<RevisionDetail> {
   const { workspace } = await requireAccess(p.actor, p.slug, "revision.save");
   await designIn(workspace.id, p.designId);

@@ -1,7 +1,7 @@
 import NextAuth from "next-auth";
 import { authOptions } from "@/lib/auth/options";
 import { clientIp, limiters } from "@/lib/api/rate-limit";
-import { errorResponse } from "@/lib/api/errors";
+import { AppError, errorBody } from "@/lib/api/errors";
 
 const handler = NextAuth(authOptions);
 
@@ -21,7 +21,13 @@ async function POST(req: Request, ctx: Ctx) {
     try {
       limiters.signIn.enforce(`${clientIp(req)}|${nextauth[1]}|${email}`, "sign-in");
     } catch (e) {
-      return errorResponse(e);
+      if (!(e instanceof AppError)) throw e;
+      // next-auth's client reads `url` from the answer; it carries the error to the sign-in form.
+      const url = new URL("/signin?error=RateLimited", process.env.NEXTAUTH_URL ?? req.url).toString();
+      return new Response(JSON.stringify({ ...errorBody(e), url }), {
+        status: 429,
+        headers: { "content-type": "application/json", "retry-after": String(e.retryAfter ?? 60) },
+      });
     }
   }
   return handler(req, ctx);
