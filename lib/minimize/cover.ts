@@ -15,6 +15,8 @@ export interface CoverProblem {
   weight: number[];
   rowCount: number;
   deadline: number;
+  /** At most this many columns in the cover (the search then looks only among such covers). */
+  maxColumns?: number;
   /** A known cover (column indices) to start from. */
   incumbent?: number[];
   /** Core size (rows × columns) above which the exact search is not attempted; default 3e8 (about 80 MB of bitsets). */
@@ -77,6 +79,7 @@ export function solveCover(p: CoverProblem): CoverSolution {
     p.deadline,
     cells > (p.maxCoreCells ?? 3e8),
   );
+  if (p.maxColumns !== undefined) bb.card = p.maxColumns - chosen.length;
   if (p.incumbent) {
     const coreIndex = new Map(coreCols.map((c, i) => [c, i]));
     const mapped = p.incumbent.filter((c) => coreIndex.has(c)).map((c) => coreIndex.get(c)!);
@@ -89,8 +92,10 @@ export function solveCover(p: CoverProblem): CoverSolution {
 
 /** Dominance tests at inner nodes: bit 0 columns, bit 1 rows (the root always runs both). */
 let NODE_DOMINANCE = 1;
-const ROOT_ITERS = 300;
-const NODE_ITERS = 40;
+const ROOT_ITERS = 600;
+const NODE_ITERS = 100;
+/** Subgradient steps without improvement before the step size halves. */
+const STALL = 15;
 export function setNodeDominance(d: number): void {
   NODE_DOMINANCE = d;
 }
@@ -104,6 +109,8 @@ class BranchAndBound {
   readonly rowColsS: Int32Array[];
   best = Infinity;
   bestChosen: number[] = [];
+  /** Column budget of the core, or -1 for none. */
+  card = -1;
   aborted = false;
   nodes = 0;
 
@@ -138,6 +145,7 @@ class BranchAndBound {
     const covered = new Uint8Array(this.R);
     for (const c of chosen) for (const r of this.cols[c]!) covered[r] = 1;
     if (!covered.every((x) => x === 1)) return;
+    if (this.card >= 0 && chosen.length > this.card) return;
     const w = chosen.reduce((a, c) => a + this.w[c]!, 0);
     if (w < this.best) {
       this.best = w;
@@ -150,15 +158,17 @@ class BranchAndBound {
     for (let r = 0; r < this.R; r++) rowsA[r >>> 5]! |= 1 << (r & 31);
     const colsA = new Uint32Array(this.WC);
     for (let c = 0; c < this.cols.length; c++) colsA[c >>> 5]! |= 1 << (c & 31);
-    this.greedy(rowsA, colsA);
-    const u = new Float64Array(this.R);
+    if (this.card < 0) this.greedy(rowsA, colsA);
+    const u = new Float64Array(this.R + 1);
     for (let r = 0; r < this.R; r++) u[r] = Infinity;
+    // Start the budget multiplier where the combined products-then-literals weight would put it.
+    u[this.R] = this.card >= 0 && this.bestChosen.length ? Math.max(1, this.best / this.bestChosen.length) : 0;
     for (let c = 0; c < this.cols.length; c++) {
       const share = this.w[c]! / this.cols[c]!.length;
       for (const r of this.cols[c]!) if (share < u[r]!) u[r] = share;
     }
     if (this.sparseOnly) {
-      const lag = this.lagrange(rowsA, colsA, u, ROOT_ITERS, this.best);
+      const lag = this.lagrange(rowsA, colsA, u, ROOT_ITERS, this.best, this.card);
       const lb = Math.min(this.best, Math.max(this.bound(rowsA, colsA).lb, Math.ceil(lag.lb - 1e-6)));
       return { chosen: this.bestChosen, weight: this.best, lowerBound: lb, exact: lb === this.best };
     }
@@ -168,7 +178,7 @@ class BranchAndBound {
     const add = this.reduce(rootRows, rootCols, picked);
     let rootBound = add + this.bound(rootRows, rootCols).lb;
     if (add >= 0) {
-      const lag = this.lagrange(rootRows, rootCols, u.slice(), ROOT_ITERS, this.best - add);
+      const lag = this.lagrange(rootRows, rootCols, u.slice(), ROOT_ITERS, this.best - add, this.card < 0 ? -1 : this.card - picked.length);
       rootBound = Math.max(rootBound, add + Math.ceil(lag.lb - 1e-6));
     }
     this.search(rowsA, colsA, 0, [], u, 0);
@@ -388,7 +398,7 @@ class BranchAndBound {
   }
 
   /** Independent-row bound and the live row with the fewest columns (the branching row). */
-  private bound(rowsA: Uint32Array, colsA: Uint32Array): { lb: number; branchRow: number } {
+  private bound(rowsA: Uint32Array, colsA: Uint32Array): { lb: number; branchRow: number; independent: number } {
     const rows: number[] = [];
     const deg: number[] = [];
     for (let k = 0; k < this.WR; k++) {
@@ -401,13 +411,15 @@ class BranchAndBound {
         deg[r] = this.rowDegree(r, colsA);
       }
     }
-    if (rows.length === 0) return { lb: 0, branchRow: -1 };
+    if (rows.length === 0) return { lb: 0, branchRow: -1, independent: 0 };
     rows.sort((a, b) => deg[a]! - deg[b]!);
     const blocked = new Uint8Array(this.R);
     const tmp: number[] = [];
     let lb = 0;
+    let independent = 0;
     for (const r of rows) {
       if (blocked[r]) continue;
+      independent++;
       this.colsOfRow(r, colsA, tmp);
       let m = Infinity;
       for (const c of tmp) {
@@ -417,7 +429,7 @@ class BranchAndBound {
       }
       lb += m;
     }
-    return { lb, branchRow: rows[0]! };
+    return { lb, branchRow: rows[0]!, independent };
   }
 
 
@@ -433,6 +445,8 @@ class BranchAndBound {
     u: Float64Array,
     iters: number,
     gapTarget: number,
+    /** Column budget K ≥ 0 relaxed with the multiplier u[R], or -1. */
+    K = -1,
   ): { lb: number; rc: Float64Array; liveCols: number[] } {
     const liveRows: number[] = [];
     for (let k = 0; k < this.WR; k++) {
@@ -460,32 +474,38 @@ class BranchAndBound {
     let best = -Infinity;
     let lambda = 2;
     let stall = 0;
+    const R = this.R;
     for (let it = 0; it < iters; it++) {
       let L = 0;
       for (const r of liveRows) {
         L += u[r]!;
         g[r] = 1;
       }
+      const mu = K >= 0 ? u[R]! : 0;
+      if (K >= 0) L -= mu * K;
+      let used = 0;
       for (let i = 0; i < liveCols.length; i++) {
         const c = liveCols[i]!;
-        let s = this.w[c]!;
+        let s = this.w[c]! + mu;
         const rs = colLive[i]!;
         for (let q = 0; q < rs.length; q++) s -= u[rs[q]!]!;
         rc[c] = s;
         if (s < 0) {
           L += s;
+          used++;
           for (let q = 0; q < rs.length; q++) g[rs[q]!]!--;
         }
       }
+      const gmu = K >= 0 ? used - K : 0;
       if (L > best + 1e-9) {
         best = L;
         for (const c of liveCols) bestRc[c] = rc[c]!;
         stall = 0;
-      } else if (++stall >= 5) {
+      } else if (++stall >= STALL) {
         lambda /= 2;
         stall = 0;
       }
-      let norm = 0;
+      let norm = gmu * gmu;
       for (const r of liveRows) norm += g[r]! * g[r]!;
       if (norm === 0 || best >= gapTarget - 1e-6) break;
       const target = Number.isFinite(gapTarget) ? gapTarget : 1.05 * Math.abs(L) + 1;
@@ -494,6 +514,7 @@ class BranchAndBound {
         const v = u[r]! + t * g[r]!;
         u[r] = v > 0 ? v : 0;
       }
+      if (K >= 0) u[R] = Math.max(0, mu + t * gmu);
       if (lambda < 1e-4) break;
     }
     return { lb: best, rc: bestRc, liveCols };
@@ -510,7 +531,10 @@ class BranchAndBound {
     if (add < 0) return;
     cost += add;
     const here = chosen.concat(picked);
-    const { lb, branchRow } = this.bound(rowsA, colsA);
+    const K = this.card < 0 ? -1 : this.card - here.length;
+    if (this.card >= 0 && K < 0) return;
+    const { lb, branchRow, independent } = this.bound(rowsA, colsA);
+    if (K >= 0 && branchRow >= 0 && independent > K) return;
     if (branchRow < 0) {
       if (cost < this.best) {
         this.best = cost;
@@ -520,7 +544,7 @@ class BranchAndBound {
     }
     if (cost + lb >= this.best) return;
     // Lagrangian bound and reduced-cost fixing.
-    const lag = this.lagrange(rowsA, colsA, u, depth === 0 ? ROOT_ITERS : NODE_ITERS, this.best - cost);
+    const lag = this.lagrange(rowsA, colsA, u, depth === 0 ? ROOT_ITERS : NODE_ITERS, this.best - cost, K);
     if (cost + Math.ceil(lag.lb - 1e-6) >= this.best) return;
     let fixed = false;
     for (const c of lag.liveCols) {
@@ -548,6 +572,7 @@ class BranchAndBound {
         return;
       }
       if (cost + b2.lb >= this.best) return;
+      if (K >= 0 && (more.length > K || b2.independent > K - more.length)) return;
       branch = b2.branchRow;
     }
     const cand: number[] = [];

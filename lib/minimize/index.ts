@@ -212,11 +212,10 @@ export function coveringProblem(spec: FunctionSpec, options: { cost?: CostModel;
 /**
  * Products-then-literals in two searches, because one search over the
  * combined weight must resolve literal differences everywhere and explores
- * far more nodes. First the fewest products P* (unit weights) with a cover
- * of L1 literals; then weights M + literals with M = max(1, L1 - P*): a cover
- * with more products then weighs at least M·(P*+1) + P* + 1 > M·P* + L*, so
- * the second optimum still has P* products and the fewest literals among
- * them. Returns weights in the {@link columnWeight} scale.
+ * far more nodes. First the fewest products P* (unit weights); then the
+ * fewest literals among covers of at most P* columns (the column budget is
+ * relaxed into the Lagrangian bound and checked against independent rows).
+ * Returns weights in the {@link columnWeight} scale.
  */
 function lexicographicCover(prob: CoveringProblem, model: CostModel, deadline: number) {
   const { colRows, weight, rowCount } = prob;
@@ -224,9 +223,7 @@ function lexicographicCover(prob: CoveringProblem, model: CostModel, deadline: n
   const lits = prob.columns.map((p) => popcount(p.mask));
   const s1 = solveCover({ colRows, weight: lits.map(() => 1), rowCount, deadline });
   const P = s1.chosen.length;
-  const L1 = s1.chosen.reduce((a, c) => a + lits[c]!, 0);
-  const M = Math.max(1, L1 - P);
-  const s2 = solveCover({ colRows, weight: lits.map((l) => M + l), rowCount, deadline, incumbent: s1.chosen });
+  const s2 = solveCover({ colRows, weight: lits, rowCount, deadline, incumbent: s1.chosen, maxColumns: P });
   const chosen = s2.chosen.length === P || !s1.exact ? s2.chosen : s1.chosen;
   const w = chosen.reduce((a, c) => a + weight[c]!, 0);
   // Bound in the combined scale: at least the proven product count, each with at least one literal... kept simple:
