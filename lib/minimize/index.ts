@@ -400,8 +400,13 @@ export function minimize(spec: FunctionSpec, options: MinimizeOptions = {}): Min
     }
     // A search cut short keeps its cover only if the heuristic does not beat it.
     if (solved && !solved.exact && Date.now() < deadline) {
-      const h = heuristicAll(n, targets, model, deadline, timeLimitMs);
-      if (costOfCovers(model, h.covers) < costOfCovers(model, solved.covers)) {
+      let h: Solved | null = null;
+      try {
+        h = heuristicAll(n, targets, model, deadline, timeLimitMs);
+      } catch (e) {
+        if (!(e instanceof LimitError)) throw e;
+      }
+      if (h && costOfCovers(model, h.covers) < costOfCovers(model, solved.covers)) {
         solved = { ...h, designBound: Math.max(h.designBound, solved.designBound), primes: solved.primes };
       }
       solved.exact = costOfCovers(model, solved.covers) === solved.designBound;
