@@ -6,6 +6,7 @@
 import { MAX_INPUTS } from "../logic/index";
 import type { Expr, Name, Program, Range, Rhs, SetClause, Statement } from "./ast";
 import { error, warning, type Diagnostic } from "./diagnostics";
+import { depthFirst } from "./graph";
 
 export type AssignStatement = Extract<Statement, { kind: "assign" }>;
 export type BlockStatement = Extract<Statement, { kind: "block" }>;
@@ -99,8 +100,16 @@ export function checkProgram(program: Program, diagnostics: Diagnostic[]): Check
     );
   }
   const design = checkScope(ctx, "design", inputs, outputs, program.statements, "the design");
+  if (outputs.length === 0) {
+    diagnostics.push(warning("the design declares no outputs; add an outputs line such as outputs alarm", firstRange(program)));
+  }
   checkBlockRecursion(ctx);
   return { design, blocks, nevers };
+}
+
+function firstRange(p: Program): Range {
+  const s = p.statements[0];
+  return s ? (s.kind === "block" ? s.headerRange : s.range) : { line: 1, column: 1, endLine: 1, endColumn: 1 };
 }
 
 interface Ctx {
@@ -406,6 +415,13 @@ function callsOf(e: Expr, out: Set<string>): void {
   }
 }
 
+/** Signals an expression reads (inputs included). */
+export function refsOfExpr(e: Expr): Set<string> {
+  const out = new Set<string>();
+  refsOf(e, out);
+  return out;
+}
+
 /** Signals read by a definition's right side (inputs included). */
 export function dependencies(def: Definition): Set<string> {
   const out = new Set<string>();
@@ -415,73 +431,50 @@ export function dependencies(def: Definition): Set<string> {
 }
 
 function checkCycles(d: Diagnostic[], scope: Scope): void {
-  const state = new Map<string, 1 | 2>();
-  const stack: string[] = [];
   const reported = new Set<string>();
-  const visit = (name: string) => {
-    state.set(name, 1);
-    stack.push(name);
-    const def = scope.defs.get(name)!;
-    for (const dep of dependencies(def)) {
-      if (!scope.defs.has(dep)) continue;
-      const st = state.get(dep);
-      if (st === 1) {
-        const cycle = stack.slice(stack.indexOf(dep));
-        if (!cycle.some((c) => reported.has(c))) {
-          cycle.forEach((c) => reported.add(c));
-          const first = scope.defs.get(dep)!;
-          d.push(
-            error(
-              `'${dep}' depends on itself: ${[...cycle, dep].join(" → ")}; break the loop, since equations cannot feed back`,
-              first.statement.targets[first.index]!.range,
-            ),
-          );
-        }
-      } else if (st === undefined) {
-        visit(dep);
-      }
-    }
-    stack.pop();
-    state.set(name, 2);
-  };
-  for (const name of scope.defs.keys()) if (!state.has(name)) visit(name);
+  const deps = (name: string) => [...dependencies(scope.defs.get(name)!)].filter((x) => scope.defs.has(x));
+  depthFirst(scope.defs.keys(), deps, {
+    onCycle(cycle) {
+      if (cycle.some((c) => reported.has(c))) return;
+      cycle.forEach((c) => reported.add(c));
+      const head = cycle[0]!;
+      const first = scope.defs.get(head)!;
+      d.push(
+        error(
+          `'${head}' depends on itself: ${[...cycle, head].join(" → ")}; break the loop, since equations cannot feed back`,
+          first.statement.targets[first.index]!.range,
+        ),
+      );
+    },
+  });
+}
+
+/** Definitions reachable from the roots, each after everything it reads (leaves first). */
+export function definitionOrder(scope: Scope, roots: Iterable<string>): string[] {
+  const order: string[] = [];
+  const deps = (name: string) => [...dependencies(scope.defs.get(name)!)].filter((x) => scope.defs.has(x));
+  depthFirst([...roots].filter((r) => scope.defs.has(r)), deps, { onFinish: (n) => order.push(n) });
+  return order;
 }
 
 function checkBlockRecursion(ctx: Ctx): void {
-  const calls = new Map<string, Set<string>>();
+  const calls = new Map<string, string[]>();
   for (const [name, info] of ctx.blocks) {
     const out = new Set<string>();
     for (const s of info.statement.body) if (s.kind === "assign" && s.value.kind === "expr") callsOf(s.value.expr, out);
-    calls.set(name, out);
+    calls.set(name, [...out].filter((c) => ctx.blocks.has(c)));
   }
-  const state = new Map<string, 1 | 2>();
-  const stack: string[] = [];
   const reported = new Set<string>();
-  const visit = (name: string) => {
-    state.set(name, 1);
-    stack.push(name);
-    for (const callee of calls.get(name) ?? []) {
-      if (!ctx.blocks.has(callee)) continue;
-      const st = state.get(callee);
-      if (st === 1) {
-        const cycle = stack.slice(stack.indexOf(callee));
-        if (!cycle.some((c) => reported.has(c))) {
-          cycle.forEach((c) => reported.add(c));
-          ctx.diagnostics.push(
-            error(
-              `block '${callee}' calls itself through ${[...cycle, callee].join(" → ")}; blocks cannot be recursive`,
-              ctx.blocks.get(callee)!.statement.name.range,
-            ),
-          );
-        }
-      } else if (st === undefined) {
-        visit(callee);
-      }
-    }
-    stack.pop();
-    state.set(name, 2);
-  };
-  for (const name of ctx.blocks.keys()) if (!state.has(name)) visit(name);
+  depthFirst(ctx.blocks.keys(), (n) => calls.get(n) ?? [], {
+    onCycle(cycle) {
+      if (cycle.some((c) => reported.has(c))) return;
+      cycle.forEach((c) => reported.add(c));
+      const head = cycle[0]!;
+      ctx.diagnostics.push(
+        error(`block '${head}' calls itself through ${[...cycle, head].join(" → ")}; blocks cannot be recursive`, ctx.blocks.get(head)!.statement.name.range),
+      );
+    },
+  });
 }
 
 /** True when any diagnostic is an error. */

@@ -13,15 +13,53 @@ export class CubeLimitError extends Error {
   }
 }
 
-/** Removes cubes contained in another cube of the list (single-cube containment). */
+/**
+ * Removes duplicates and cubes contained in another cube of the list
+ * (single-cube containment). Kept cubes are grouped by mask, so each check
+ * costs one set lookup per distinct mask rather than one per cube.
+ */
 export function absorb(cubes: readonly Cube[]): Cube[] {
+  if (cubes.length > FULL_ABSORB_MAX) return dedupe(cubes);
   const sorted = [...cubes].sort((a, b) => popcount(a.mask) - popcount(b.mask));
+  const byMask = new Map<number, Set<number>>();
   const kept: Cube[] = [];
-  outer: for (const c of sorted) {
-    for (const k of kept) if (cubeCovers(k, c)) continue outer;
+  for (const c of sorted) {
+    let covered = false;
+    for (const [mask, values] of byMask) {
+      if ((mask & ~c.mask) === 0 && values.has((c.value & mask) >>> 0)) {
+        covered = true;
+        break;
+      }
+    }
+    if (covered) continue;
+    let values = byMask.get(c.mask);
+    if (!values) {
+      values = new Set();
+      byMask.set(c.mask, values);
+    }
+    values.add(c.value);
     kept.push(c);
   }
   return kept;
+}
+
+/**
+ * Longest list that absorb checks for containment; containment only keeps
+ * lists short, so beyond this length (where the check costs more than it
+ * saves) only exact duplicates are removed.
+ */
+export const FULL_ABSORB_MAX = 4000;
+
+function dedupe(cubes: readonly Cube[]): Cube[] {
+  const seen = new Set<string>();
+  const out: Cube[] = [];
+  for (const c of cubes) {
+    const k = `${c.value},${c.mask}`;
+    if (seen.has(k)) continue;
+    seen.add(k);
+    out.push(c);
+  }
+  return out;
 }
 
 function guard(cubes: Cube[], limit: number): Cube[] {
@@ -101,21 +139,23 @@ function complement(f: readonly Cube[], space: number, limit: number): Cube[] {
     }
   }
   const rest = (space & ~best) >>> 0;
-  const c1 = absorb(complement(cofactor(f, best, 1), rest, limit));
-  const c0 = absorb(complement(cofactor(f, best, 0), rest, limit));
-  guard(c1, limit);
-  guard(c0, limit);
+  const c1 = complement(cofactor(f, best, 1), rest, limit);
+  const c0 = complement(cofactor(f, best, 0), rest, limit);
+  if (c1.length + c0.length > 2 * limit) throw new CubeLimitError(limit);
   // cubes present in both halves do not depend on the splitting input
   const key = (c: Cube) => `${c.value},${c.mask}`;
   const in0 = new Set(c0.map(key));
   const in1 = new Set(c1.map(key));
-  const out: Cube[] = [];
+  const merged: Cube[] = [];
+  const split: Cube[] = [];
   for (const c of c1) {
-    if (in0.has(key(c))) out.push(c);
-    else out.push({ value: (c.value | best) >>> 0, mask: (c.mask | best) >>> 0 });
+    if (in0.has(key(c))) merged.push(c);
+    else split.push({ value: (c.value | best) >>> 0, mask: (c.mask | best) >>> 0 });
   }
-  for (const c of c0) if (!in1.has(key(c))) out.push({ value: c.value, mask: (c.mask | best) >>> 0 });
-  return out;
+  for (const c of c0) if (!in1.has(key(c))) split.push({ value: c.value, mask: (c.mask | best) >>> 0 });
+  // each half is free of contained cubes already; only a merged cube can contain a split one
+  if (merged.length === 0 || merged.length * split.length > 4_000_000) return [...merged, ...split];
+  return [...merged, ...split.filter((c) => !merged.some((m) => cubeCovers(m, c)))];
 }
 
 export function cubesXor(a: readonly Cube[], b: readonly Cube[], n: number, limit = Infinity): Cube[] {

@@ -8,7 +8,7 @@
 import { TRUTH_TABLE_MAX_INPUTS, type FunctionSpec, type OutputSpec } from "../logic/index";
 import type { Expr, Name, SetClause } from "./ast";
 import { cubeAlgebra, tableAlgebra, type Algebra } from "./algebra";
-import type { BlockInfo, CheckedProgram, Definition, Scope } from "./check";
+import { definitionOrder, refsOfExpr, type BlockInfo, type CheckedProgram, type Definition, type Scope } from "./check";
 import { CubeLimitError, rangeToCubes } from "./cubes";
 import { error, warning, type Diagnostic } from "./diagnostics";
 import type { LanguageLimits } from "./limits";
@@ -21,6 +21,8 @@ interface Env<V> {
 }
 
 class Evaluator<V> {
+  private readonly orders = new Map<string, string[]>();
+
   constructor(
     private readonly alg: Algebra<V>,
     private readonly blocks: Map<string, BlockInfo>,
@@ -82,6 +84,13 @@ class Evaluator<V> {
       memo: new Map(),
       calls: new Map(),
     };
+    let order = this.orders.get(e.block.text);
+    if (!order) {
+      order = definitionOrder(info.scope, info.scope.defs.keys());
+      this.orders.set(e.block.text, order);
+    }
+    // leaves first, so that evaluation never recurses along a chain of intermediates
+    for (const name of order) this.signal(inner, name);
     const out = info.statement.results.map((r) => this.signal(inner, r.text));
     env.calls.set(e, out);
     return out;
@@ -144,6 +153,7 @@ function support(checked: CheckedProgram): (e: Expr | "all") => number {
       }
     }
   };
+  for (const name of definitionOrder(design, design.defs.keys())) ofSignal(name);
   return (e) => (e === "all" ? all : ofExpr(e));
 }
 
@@ -160,7 +170,7 @@ function bitsOf(mask: number, n: number): number[] {
 
 /**
  * Builds the FunctionSpec of a checked program. Diagnostics for outputs that
- * exceed maxInputsPerOutput (default 30) or maxCubes (default 100000 product
+ * exceed maxInputsPerOutput (default 30) or maxCubes (default 20000 product
  * terms), and for ON/DC overlaps, are appended; the spec is then incomplete
  * and the caller must not use it.
  */
@@ -186,6 +196,8 @@ export function elaborate(checked: CheckedProgram, limits: Required<LanguageLimi
     return c;
   };
 
+  const neverRefs = new Set<string>();
+  for (const e of checked.nevers) for (const r of refsOfExpr(e)) neverRefs.add(r);
   const outputs: OutputSpec[] = [];
   for (const o of design.outputs) {
     const def = design.defs.get(o.text);
@@ -205,6 +217,8 @@ export function elaborate(checked: CheckedProgram, limits: Required<LanguageLimi
     }
     const { alg, ev, env } = contextFor(n <= TRUTH_TABLE_MAX_INPUTS ? bitsOf(supportOf("all"), n) : vars.length <= TRUTH_TABLE_MAX_INPUTS ? vars : null);
     try {
+      // leaves first, so that evaluation never recurses along a chain of intermediates
+      for (const name of definitionOrder(design, [o.text, ...neverRefs])) if (name !== o.text) ev.signal(env, name);
       outputs.push(elaborateOutput(o, def, alg, ev, env, checked, diagnostics));
     } catch (e) {
       if (!(e instanceof CubeLimitError)) throw e;
@@ -279,6 +293,7 @@ export function checkNeverCoverage(checked: CheckedProgram, limits: Required<Lan
   const ev = new Evaluator(alg, checked.blocks);
   const env: Env<unknown> = { scope: checked.design, inputs: checked.design.inputs.map((_, i) => alg.input(i)), memo: new Map(), calls: new Map() };
   try {
+    for (const name of definitionOrder(checked.design, neverRefs(checked))) ev.signal(env, name);
     let never = alg.zero();
     for (const e of checked.nevers) never = alg.or(never, ev.expr(env, e));
     if (alg.isZero(alg.not(never))) {
@@ -287,4 +302,10 @@ export function checkNeverCoverage(checked: CheckedProgram, limits: Required<Lan
   } catch (e) {
     if (!(e instanceof CubeLimitError)) throw e;
   }
+}
+
+function neverRefs(checked: CheckedProgram): Set<string> {
+  const out = new Set<string>();
+  for (const e of checked.nevers) for (const r of refsOfExpr(e)) out.add(r);
+  return out;
 }

@@ -37,9 +37,31 @@ export interface CompiledSource {
  * Parses, checks and elaborates a source. Meaning checks run only when the
  * source has no syntax errors, so one mistake gives one diagnostic.
  * Limits default to DEFAULT_LIMITS (200000 characters, 2000 statements,
- * 30 inputs per output, 100000 product terms). Never throws on any text.
+ * 30 inputs per output, nesting 64 deep, 20000 product terms). Never throws on any text.
  */
 export function compileSource(source: string, options?: LanguageLimits): CompiledSource {
+  try {
+    return compileUnguarded(source, options);
+  } catch (e) {
+    if (!(e instanceof RangeError)) throw e;
+    return { diagnostics: [tooDeep()], spec: null, ast: null };
+  }
+}
+
+// Recursion follows the nesting of expressions and block calls; maxNesting bounds
+// one line, and this catches what is left (long chains of blocks calling blocks).
+function tooDeep(): Diagnostic {
+  return {
+    severity: "error",
+    message: "the design nests too deeply to work out (blocks calling blocks, or very deep expressions); flatten it with let",
+    line: 1,
+    column: 1,
+    endLine: 1,
+    endColumn: 1,
+  };
+}
+
+function compileUnguarded(source: string, options?: LanguageLimits): CompiledSource {
   const limits = withDefaults(options);
   const parsed = parseSource(source, limits);
   const diagnostics = [...parsed.diagnostics];
@@ -61,7 +83,12 @@ export function compileSource(source: string, options?: LanguageLimits): Compile
  * Returns the syntax diagnostics instead when the source does not parse.
  */
 export function formatSource(source: string): { text: string } | { diagnostics: Diagnostic[] } {
-  const parsed = parseSource(source);
-  if (hasErrors(parsed.diagnostics)) return { diagnostics: sortDiagnostics(parsed.diagnostics) };
-  return { text: formatProgram(parsed.program) };
+  try {
+    const parsed = parseSource(source);
+    if (hasErrors(parsed.diagnostics)) return { diagnostics: sortDiagnostics(parsed.diagnostics) };
+    return { text: formatProgram(parsed.program) };
+  } catch (e) {
+    if (!(e instanceof RangeError)) throw e;
+    return { diagnostics: [tooDeep()] };
+  }
 }

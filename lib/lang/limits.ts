@@ -8,7 +8,9 @@ export interface LanguageLimits {
   maxStatements?: number;
   /** Most inputs one output may depend on. Default 30 (MAX_INPUTS). */
   maxInputsPerOutput?: number;
-  /** Most product terms an intermediate result may hold while elaborating beyond truth-table size. Default 100000. */
+  /** Deepest nesting of parentheses (block calls included), and longest run of NOT signs, on one statement. Default 64. */
+  maxNesting?: number;
+  /** Most product terms an intermediate result may hold while elaborating beyond truth-table size. Default 20000. */
   maxCubes?: number;
 }
 
@@ -16,7 +18,8 @@ export const DEFAULT_LIMITS: Required<LanguageLimits> = {
   maxSourceLength: 200_000,
   maxStatements: 2000,
   maxInputsPerOutput: MAX_INPUTS,
-  maxCubes: 100_000,
+  maxNesting: 64,
+  maxCubes: 20_000,
 };
 
 export function withDefaults(l: LanguageLimits | undefined): Required<LanguageLimits> {

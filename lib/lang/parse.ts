@@ -14,7 +14,7 @@ import { buildStatement, tokenRange, type LineStatement } from "./build";
 import { error, positionAt, type Diagnostic } from "./diagnostics";
 import { lineParser } from "./grammar";
 import { withDefaults, type LanguageLimits } from "./limits";
-import { Block, CONTINUES_LINE, Comma, End, Equals, Identifier, Inputs, Let, lexer, LParen, Never, Newline, Outputs, RParen, Use } from "./tokens";
+import { Bang, Block, CONTINUES_LINE, Quote, Tilde, Comma, End, Equals, Identifier, Inputs, Let, lexer, LParen, Never, Newline, Outputs, RParen, Use } from "./tokens";
 
 export interface ParseResult {
   /** The statements that parsed; lines with errors are left out. */
@@ -91,6 +91,11 @@ export function parseSource(source: string, options?: LanguageLimits): ParseResu
     let skip = false;
     for (let l = startLine; l <= endLine; l++) if (badLines.has(l)) skip = true;
     if (skip) continue;
+    const tooDeep = nestingError(line, limits.maxNesting);
+    if (tooDeep) {
+      diagnostics.push(tooDeep);
+      continue;
+    }
     parser.input = line;
     const cst = parser.statement();
     if (parser.errors.length > 0) {
@@ -119,6 +124,26 @@ export function parseSource(source: string, options?: LanguageLimits): ParseResu
   for (let l = 1; l <= lineCount; l++) if (!codeLines.has(l) && !commentLines.has(l) && !badLines.has(l)) blankLines.push(l);
 
   return { program: { statements, comments, blankLines }, diagnostics, complete: true };
+}
+
+const NOTS = new Set([Bang, Tilde, Quote]);
+
+/** Parsing, printing and elaborating recurse along nesting, so it is bounded (maxNesting). */
+function nestingError(line: IToken[], limit: number): Diagnostic | null {
+  let depth = 0;
+  let run = 0;
+  for (const t of line) {
+    if (t.tokenType === LParen) depth++;
+    else if (t.tokenType === RParen) depth = Math.max(0, depth - 1);
+    run = NOTS.has(t.tokenType) ? run + 1 : 0;
+    if (depth > limit) {
+      return error(`parentheses nest more than ${limit} deep here; the limit is ${limit} (maxNesting). Name inner parts with let`, tokenRange(t));
+    }
+    if (run > limit) {
+      return error(`more than ${limit} NOT signs in a row; the limit is ${limit} (maxNesting). Two NOTs cancel, so remove pairs of them`, tokenRange(t));
+    }
+  }
+  return null;
 }
 
 const STARTERS = new Set([Inputs, Outputs, Let, Never, Block, End, Use]);

@@ -85,6 +85,33 @@ describe("limits", () => {
   });
 });
 
+describe("deep sources", () => {
+  it("work out a chain of 1990 intermediates without exhausting the stack", () => {
+    // t_k = t_(k-1) ^ a, starting from t0 = a: t_k is a when k is even, 0 when odd (by hand)
+    let src = "inputs a, b\noutputs f\nlet t0 = a\n";
+    for (let k = 1; k < 1990; k++) src += `let t${k} = t${k - 1} ^ a\n`;
+    src += "f = t1989 + b\n";
+    const r = compileSource(src);
+    expect(r.diagnostics).toEqual([]);
+    const f = r.spec!.outputs[0]!;
+    // t1989 is 0 (odd), so f = b: minterms 1 and 3 over (a, b)
+    expect([0, 1, 2, 3].map((m) => member(f.on, m))).toEqual([false, true, false, true]);
+  });
+  it("names maxNesting for parentheses and for runs of NOT", () => {
+    const deep = "inputs a\noutputs f\nf = " + "(".repeat(65) + "a" + ")".repeat(65) + "\n";
+    const r = compileSource(deep);
+    expect(r.diagnostics).toHaveLength(1);
+    // the 65th '(' is column 4 + 65 = 69 on line 3 (counted by hand)
+    expect(r.diagnostics[0]).toMatchObject({ line: 3, column: 69, endColumn: 70 });
+    expect(r.diagnostics[0]!.message).toMatch(/\(maxNesting\)/);
+    const nots = compileSource("inputs a\noutputs f\nf = a" + "'".repeat(200) + "\n");
+    expect(nots.diagnostics[0]!.message).toMatch(/NOT signs in a row.*\(maxNesting\)/);
+    // 64 levels are fine (the limit itself)
+    const ok = compileSource("inputs a\noutputs f\nf = " + "(".repeat(64) + "a" + ")".repeat(64) + "\n");
+    expect(ok.diagnostics).toEqual([]);
+  });
+});
+
 describe("never lines", () => {
   it("remove impossible minterms from every ON-set and add them to every DC-set", () => {
     // by hand: a + b is on at 1, 2, 3; never a * b takes 3 out; g = on(3) keeps nothing on
