@@ -130,6 +130,10 @@ function checkScope(ctx: Ctx, kind: Scope["kind"], inputs: Name[], outputs: Name
 
   const declare = (name: Name, role: SignalEntry["role"], index: number): boolean => {
     const prior = scope.signals.get(name.text);
+    if (prior && role === "let" && prior.role === "output") {
+      d.push(error(`'${name.text}' is ${kind === "design" ? "an output" : "a block result"}; assign it without let: ${name.text} = ...`, name.range));
+      return false;
+    }
     if (prior) {
       d.push(
         error(
@@ -153,7 +157,9 @@ function checkScope(ctx: Ctx, kind: Scope["kind"], inputs: Name[], outputs: Name
     checkRhsShape(ctx, scope, s);
     s.targets.forEach((t, index) => {
       if (s.isLet) {
-        if (!declare(t, "let", -1)) return;
+        const wasOutput = scope.signals.get(t.text)?.role === "output";
+        // `let f = ...` on an output is reported once and then counts as its assignment
+        if (!declare(t, "let", -1) && !wasOutput) return;
       } else {
         const entry = scope.signals.get(t.text);
         if (!entry) {

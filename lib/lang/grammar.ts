@@ -6,6 +6,15 @@
 import { CstParser, EOF, type IParserErrorMessageProvider, type IToken, type TokenType } from "chevrotain";
 import * as T from "./tokens";
 
+function isKeyword(token: IToken): boolean {
+  return token.tokenType.name.startsWith("Kw_");
+}
+
+/** Added to a message when a reserved word stands where a name belongs. */
+function reservedHint(token: IToken): string {
+  return isKeyword(token) ? ` ('${token.image}' is a reserved word and cannot be a name)` : "";
+}
+
 function describe(token: IToken): string {
   if (token.tokenType === EOF) return "the end of the line";
   if (token.tokenType === T.Identifier) return `'${token.image}'`;
@@ -33,7 +42,7 @@ const ruleHints: Record<string, string> = {
 
 const messages: IParserErrorMessageProvider = {
   buildMismatchTokenMessage({ expected, actual }) {
-    return `expected ${labelOf(expected)} but found ${describe(actual)}`;
+    return `expected ${labelOf(expected)} but found ${describe(actual)}${expected === T.Identifier ? reservedHint(actual) : ""}`;
   },
   buildNotAllInputParsedMessage({ firstRedundant }) {
     if (firstRedundant.tokenType === T.Identifier || firstRedundant.tokenType === T.Number_ || firstRedundant.tokenType === T.LParen) {
@@ -43,7 +52,8 @@ const messages: IParserErrorMessageProvider = {
   },
   buildNoViableAltMessage({ actual, ruleName }) {
     const first = actual[0]!;
-    return `expected ${ruleHints[ruleName] ?? "something else"} but found ${describe(first)}`;
+    const hint = ruleName === "atom" || ruleName === "target" ? reservedHint(first) : "";
+    return `expected ${ruleHints[ruleName] ?? "something else"} but found ${describe(first)}${hint}`;
   },
   buildEarlyExitMessage({ actual, ruleName }) {
     const first = actual[0]!;
