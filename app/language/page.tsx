@@ -1,8 +1,9 @@
 import { readFile } from "node:fs/promises";
 import path from "node:path";
 import type { Metadata } from "next";
-import { marked } from "marked";
+import { Marked } from "marked";
 import { SiteHeader } from "@/components/ui/SiteHeader";
+import { highlightToHtml } from "@/lib/lang/highlight";
 import { TryIt } from "./_components/TryIt";
 
 export const metadata: Metadata = {
@@ -10,10 +11,21 @@ export const metadata: Metadata = {
   description: "Reference of the Fanbound equation language: inputs, outputs, operators, minterm lists, let, never, blocks.",
 };
 
+// Fanbound examples are coloured by the language's own lexer; other code stays plain.
+const markdown = new Marked({
+  gfm: true,
+  renderer: {
+    code({ text, lang }) {
+      if (lang !== "fanbound") return false;
+      return `<pre><code class="language-fanbound">${highlightToHtml(text)}</code></pre>\n`;
+    },
+  },
+});
+
 /** The language reference, written once in lib/lang/REFERENCE.md. */
 export default async function LanguagePage() {
   const source = await readFile(path.join(process.cwd(), "lib/lang/REFERENCE.md"), "utf8");
-  const html = await marked.parse(source, { gfm: true });
+  const html = await markdown.parse(source);
   return (
     <>
       <SiteHeader />

@@ -20,6 +20,7 @@ export { parseSource, type ParseResult } from "./parse";
 export { KEYWORDS } from "./tokens";
 export { formatExpr } from "./format";
 export { symbolTable, type SymbolInfo } from "./symbols";
+export { highlightToHtml } from "./highlight";
 
 export interface CompiledSource {
   /** Errors and warnings, ordered by position. */
