@@ -21,7 +21,7 @@ import { HeuristicTimeout, heuristicCover } from "./heuristic";
 import { ExactLimit, taggedPrimes, type TaggedPrime } from "./primes";
 import type { CostModel, MinimizeOptions, MinimizeResult, MinimizedOutput } from "./types";
 import { LimitError } from "./types";
-import { complement } from "./unate";
+import { complement, mergeAlongVariables, primesOfCover } from "./unate";
 
 export type { CostModel, MinimizeOptions, MinimizeResult, MinimizedOutput } from "./types";
 export { LimitError } from "./types";
@@ -34,7 +34,7 @@ export const DEFAULTS = {
   maxPrimes: 100_000,
   timeLimitMs: 10_000,
   /** Implicants the Quine–McCluskey tables may hold in total before the exact route gives way. */
-  maxImplicants: 2_000_000,
+  maxImplicants: 400_000,
   /** Outputs that share terms exactly; above, outputs are covered one by one (tags are 31-bit). */
   maxSharedOutputs: 31,
 };
@@ -46,6 +46,46 @@ interface Target {
   /** Present when inputs ≤ TRUTH_TABLE_MAX_INPUTS. `on` wins where both are set. */
   onT?: Uint32Array;
   dcT?: Uint32Array;
+}
+
+/**
+ * A small disjoint cube cover of a truth table: whole aligned blocks of
+ * minterms (free low variables) first, then merged along every variable.
+ */
+function compactCover(t: Uint32Array, n: number): Cube[] {
+  const full = fullMask(n);
+  const out: Cube[] = [];
+  const rangeState = (lo: number, k: number): 0 | 1 | 2 => {
+    // 0 all off, 1 all on, 2 mixed, for minterms lo .. lo + 2^k - 1.
+    if (k >= 5) {
+      let ones = false;
+      let zeros = false;
+      for (let w = lo >>> 5, end = (lo + 2 ** k) >>> 5; w < end; w++) {
+        const x = t[w]!;
+        if (x !== 0) ones = true;
+        if (x !== 0xffffffff) zeros = true;
+        if (ones && zeros) return 2;
+      }
+      return ones ? 1 : 0;
+    }
+    const all = (1 << (1 << k)) - 1;
+    const bits = (t[lo >>> 5]! >>> (lo & 31)) & all;
+    return bits === 0 ? 0 : bits === all ? 1 : 2;
+  };
+  const walk = (lo: number, k: number) => {
+    const st = rangeState(lo, k);
+    if (st === 0) return;
+    if (st === 1) {
+      const mask = (full & ~((2 ** k - 1) >>> 0)) >>> 0;
+      out.push({ value: lo >>> 0, mask });
+      return;
+    }
+    walk(lo, k - 1);
+    walk(lo + 2 ** (k - 1), k - 1);
+  };
+  if (n === 0) return (t[0]! & 1) === 1 ? [{ value: 0, mask: 0 }] : [];
+  walk(0, n);
+  return mergeAlongVariables(out, n);
 }
 
 function tableCubes(t: Uint32Array, n: number): Cube[] {
@@ -162,7 +202,22 @@ function buildProblem(
     }
     return tag;
   };
-  const all = taggedPrimes(n, minterms, tagOf, limits);
+  let all: TaggedPrime[];
+  // A cube of d free variables holds 3^d implicants the tables would list: skip them when that is hopeless.
+  let estimate = 0;
+  for (const t of targets) {
+    const ct = new Uint32Array(words);
+    for (let w = 0; w < words; w++) ct[w] = t.onT![w]! | t.dcT![w]!;
+    for (const c of compactCover(ct, n)) estimate = Math.max(estimate, 3 ** (n - popcount(c.mask)));
+  }
+  try {
+    if (estimate > limits.maxImplicants) throw new ExactLimit("implicants", estimate);
+    all = taggedPrimes(n, minterms, tagOf, limits);
+  } catch (e) {
+    // Large cubes make the tables explode; the recursive rule reaches the same primes from cube covers.
+    if (!(e instanceof ExactLimit) || e.limit !== "implicants") throw e;
+    all = recursivePrimes(n, targets, limits);
+  }
   const full = fullMask(n);
   const rowOf = targets.map(() => new Map<number, number>());
   let rowCount = 0;
@@ -173,19 +228,30 @@ function buildProblem(
   const weight: number[] = [];
   const cols: TaggedPrime[] = [];
   const buf: number[] = [];
+  // Dense row index per output when it fits in about 128 MB, else the maps.
+  const dense = targets.length * 2 ** n <= 2 ** 25;
+  const rowIdx = dense
+    ? rowOf.map((map) => {
+        const a = new Int32Array(2 ** n).fill(-1);
+        for (const [m, r] of map) a[m] = r;
+        return a;
+      })
+    : null;
   for (const p of all) {
     buf.length = 0;
     const free = (full & ~p.mask) >>> 0;
-    let sub = 0;
-    for (;;) {
-      const m = (p.value | sub) >>> 0;
-      for (let j = 0; j < targets.length; j++) {
-        if (!((p.tag >>> j) & 1)) continue;
-        const r = rowOf[j]!.get(m);
-        if (r !== undefined) buf.push(r);
+    for (let j = 0; j < targets.length; j++) {
+      if (!((p.tag >>> j) & 1)) continue;
+      const idx = rowIdx?.[j];
+      const map = rowOf[j]!;
+      let sub = 0;
+      for (;;) {
+        const m = (p.value | sub) >>> 0;
+        const r = idx ? idx[m]! : (map.get(m) ?? -1);
+        if (r >= 0) buf.push(r);
+        if (sub === free) break;
+        sub = ((sub - free) & free) >>> 0;
       }
-      if (sub === free) break;
-      sub = ((sub - free) & free) >>> 0;
     }
     if (buf.length === 0) continue;
     cols.push(p);
@@ -193,6 +259,71 @@ function buildProblem(
     weight.push(columnWeight(model, popcount(p.mask)));
   }
   return { primes: all, columns: cols, colRows, weight, rowCount, rowOf };
+}
+
+/**
+ * Multi-output primes without the tables: for every subset T of outputs, the
+ * primes of the product of their ON ∪ DC (recursive rule on cubes), each
+ * tagged with every output it fits. A prime of f_T is a prime of f_T(p), so
+ * this is exactly the set the tables would give. Up to 8 outputs.
+ */
+function recursivePrimes(
+  n: number,
+  targets: Target[],
+  limits: { maxPrimes: number; deadline: number },
+): TaggedPrime[] {
+  const k = targets.length;
+  if (k > 8) throw new ExactLimit("implicants", k);
+  const full = fullMask(n);
+  const words = targets[0]!.onT!.length;
+  const care = targets.map((t) => {
+    const c = new Uint32Array(words);
+    for (let w = 0; w < words; w++) c[w] = t.onT![w]! | t.dcT![w]!;
+    return c;
+  });
+  const found = new Map<number, Cube>();
+  for (let T = 1; T < 1 << k; T++) {
+    if (Date.now() > limits.deadline) throw new ExactLimit("timeLimitMs", found.size);
+    const careT = new Uint32Array(words).fill(0xffffffff);
+    for (let j = 0; j < k; j++) if ((T >>> j) & 1) for (let w = 0; w < words; w++) careT[w]! &= care[j]![w]!;
+    let useful = false;
+    for (let j = 0; j < k && !useful; j++) {
+      if (!((T >>> j) & 1)) continue;
+      for (let w = 0; w < words; w++) if (careT[w]! & targets[j]!.onT![w]!) useful = true;
+    }
+    if (!useful) continue;
+    let P: Cube[];
+    try {
+      P = primesOfCover(compactCover(careT, n), full, limits.maxPrimes * 4);
+    } catch (e) {
+      if (e instanceof RangeError) throw new ExactLimit("maxPrimes", limits.maxPrimes);
+      throw e;
+    }
+    for (const p of P) found.set(cubeKey(p), p);
+    if (found.size > limits.maxPrimes) throw new ExactLimit("maxPrimes", found.size);
+  }
+  const out: TaggedPrime[] = [];
+  for (const p of found.values()) {
+    let tag = 0;
+    for (let j = 0; j < k; j++) {
+      const t = care[j]!;
+      let inside = true;
+      const free = (full & ~p.mask) >>> 0;
+      let sub = 0;
+      for (;;) {
+        const m = (p.value | sub) >>> 0;
+        if (!((t[m >>> 5]! >>> (m & 31)) & 1)) {
+          inside = false;
+          break;
+        }
+        if (sub === free) break;
+        sub = ((sub - free) & free) >>> 0;
+      }
+      if (inside) tag |= 1 << j;
+    }
+    out.push({ value: p.value, mask: p.mask, tag });
+  }
+  return out;
 }
 
 /**
@@ -414,8 +545,10 @@ export function minimize(spec: FunctionSpec, options: MinimizeOptions = {}): Min
   }
   solved ??= heuristicAll(n, targets, model, deadline, timeLimitMs);
 
+  // Canonical order: fewer literals first, then by the earliest declared inputs.
+  const order = (a: Cube, b: Cube) => popcount(a.mask) - popcount(b.mask) || b.mask - a.mask || b.value - a.value;
   const outCubes = solved.covers.map((cv) =>
-    form === "sop" ? cv : cv.map((c) => ({ value: (~c.value & c.mask) >>> 0, mask: c.mask })),
+    (form === "sop" ? cv.slice() : cv.map((c) => ({ value: (~c.value & c.mask) >>> 0, mask: c.mask }))).sort(order),
   );
   const verdict = verifyCovers(spec, outCubes.map((cubes) => ({ form, cubes })));
   if (!verdict.ok) {

@@ -127,3 +127,73 @@ export function removeContained(F: readonly Cube[]): Cube[] {
   }
   return out;
 }
+
+/**
+ * All prime implicants of the function covered by F, by the recursive
+ * (Shannon) rule P(f) = ABS(x·P(f_x) ∪ x'·P(f_x') ∪ P(f_x)·P(f_x')), where
+ * ABS drops cubes contained in others; a unate cover's primes are its
+ * maximal cubes. Throws RangeError when an intermediate set exceeds `cap`.
+ */
+export function primesOfCover(F: readonly Cube[], space: number, cap = Infinity): Cube[] {
+  if (F.length === 0) return [];
+  for (const c of F) if ((c.mask & space) === 0) return [{ value: 0, mask: 0 }];
+  const { bit, binate } = splitBit(F, space);
+  if (!binate) return removeContained(F);
+  const rest = (space & ~bit) >>> 0;
+  const P1 = primesOfCover(cofactorLiteral(F, bit, true), rest, cap);
+  const P0 = primesOfCover(cofactorLiteral(F, bit, false), rest, cap);
+  const cand: Cube[] = [];
+  for (const p of P1) cand.push({ value: (p.value | bit) >>> 0, mask: (p.mask | bit) >>> 0 });
+  for (const q of P0) cand.push({ value: q.value, mask: (q.mask | bit) >>> 0 });
+  for (const p of P1) {
+    for (const q of P0) {
+      if (((p.value ^ q.value) & p.mask & q.mask) !== 0) continue;
+      cand.push({ value: (p.value | q.value) >>> 0, mask: (p.mask | q.mask) >>> 0 });
+    }
+    if (cand.length > cap) throw new RangeError(`more than ${cap} candidate primes`);
+  }
+  return removeContained(dedupe(cand));
+}
+
+function dedupe(F: Cube[]): Cube[] {
+  const seen = new Set<number>();
+  const out: Cube[] = [];
+  for (const c of F) {
+    const k = c.mask * 1073741824 + c.value;
+    if (seen.has(k)) continue;
+    seen.add(k);
+    out.push(c);
+  }
+  return out;
+}
+
+/**
+ * Merges a disjoint cube list along each variable in turn (pairs equal but
+ * for that variable become one cube). The union is unchanged; lists of
+ * minterms of functions with large cubes shrink by orders of magnitude.
+ */
+export function mergeAlongVariables(F: readonly Cube[], n: number): Cube[] {
+  let cur = new Map<number, Cube>();
+  for (const c of F) cur.set(c.mask * 1073741824 + c.value, c);
+  for (let i = 0; i < n; i++) {
+    const bit = 1 << i;
+    const next = new Map<number, Cube>();
+    for (const [k, c] of cur) {
+      if (!(c.mask & bit)) {
+        next.set(k, c);
+        continue;
+      }
+      if (c.value & bit) {
+        if (!cur.has(c.mask * 1073741824 + ((c.value & ~bit) >>> 0))) next.set(k, c);
+        continue;
+      }
+      const pk = c.mask * 1073741824 + ((c.value | bit) >>> 0);
+      if (cur.has(pk)) {
+        const m = { value: c.value, mask: (c.mask & ~bit) >>> 0 };
+        next.set(m.mask * 1073741824 + m.value, m);
+      } else next.set(k, c);
+    }
+    cur = next;
+  }
+  return [...cur.values()];
+}

@@ -1,0 +1,46 @@
+import { describe, expect, it } from "vitest";
+import { cubeToString, fullMask, minterm, type FunctionSpec } from "../../lib/logic";
+import { minimize } from "../../lib/minimize";
+import { primesOfCover } from "../../lib/minimize/unate";
+import { bruteImplicants, isPrimeFor, randomSpec } from "./helpers";
+
+describe("recursive prime generation", () => {
+  for (const seed of [71, 72, 73, 74]) {
+    it(`equals brute-force primes on 6 inputs (seed ${seed})`, () => {
+      const spec = randomSpec(6, 1, seed, 0.5, 0.15);
+      const care = spec.outputs[0]!.on.concat(spec.outputs[0]!.dc);
+      const got = primesOfCover(care, fullMask(6)).map((c) => cubeToString(c, 6)).sort();
+      // Reference: the test's own enumeration of all 3^6 cubes, keeping the primes.
+      const want = bruteImplicants(spec)
+        .map((p) => p.cube)
+        .filter((c) => isPrimeFor(spec, 0, c))
+        .map((c) => cubeToString(c, 6))
+        .sort();
+      expect(got).toEqual(want);
+    });
+  }
+
+  it("a 14-line priority encoder's q3 and valid (too many implicants for the tables) are solved exactly", () => {
+    // Hand computation: valid = OR of the 14 lines needs 14 products (the 14 one-hot points are pairwise
+    // independent) and q3 = l13 + ... + l8 reuses six of them, so the design needs exactly 14 products
+    // of one literal each.
+    const n = 14;
+    const on: number[][] = [[], []];
+    for (let m = 1; m < 2 ** n; m++) {
+      const top = 31 - Math.clz32(m);
+      if ((top >> 3) & 1) on[0]!.push(m);
+      on[1]!.push(m);
+    }
+    const spec: FunctionSpec = {
+      inputs: Array.from({ length: n }, (_, i) => `l${n - 1 - i}`),
+      outputs: ["q3", "valid"].map((name, j) => ({ name, on: on[j]!.map((m) => minterm(m, n)), dc: [] })),
+    };
+    const r = minimize(spec);
+    expect(r.exact).toBe(true);
+    expect(r.cost).toBe(14);
+    expect(r.outputs[1]!.products).toBe(14);
+    expect(r.outputs[1]!.literals).toBe(14);
+    expect(r.outputs[0]!.expression).toBe("l13 + l12 + l11 + l10 + l9 + l8");
+    expect(r.shared).toBe(6);
+  });
+});
