@@ -59,6 +59,14 @@ export function storedSettings(s: CompileSettings & { familyId?: string }): Reco
   return rest;
 }
 
+/** A minimizer LimitError as the API's 422 "compile_limit" naming the limit; anything else unchanged. */
+export function asCompileError(e: unknown): unknown {
+  if (e instanceof LimitError) {
+    return new AppError("compile_limit", `Compile limit ${e.limit} reached: ${e.message}`, { limit: e.limit, value: e.value, hint: e.hint });
+  }
+  return e;
+}
+
 function runMinimize(spec: Parameters<typeof minimize>[0], options: Parameters<typeof minimize>[1]) {
   return minimize(spec, { ...options, timeLimitMs: COMPILE_BUDGET_MS });
 }
@@ -81,10 +89,7 @@ export async function compileDesign(
   try {
     minimized = runMinimize(compiled.spec, minimizeOptionsFor(full, family));
   } catch (e) {
-    if (e instanceof LimitError) {
-      throw new AppError("compile_limit", `Compile limit ${e.limit} reached: ${e.message}`, { limit: e.limit, value: e.value, hint: e.hint });
-    }
-    throw e;
+    throw asCompileError(e);
   }
   const r = finish(compiled.diagnostics, compiled.spec, minimized, family, full, { families: [family], ...opts });
   if (!r.ok || !r.analysis || !r.document) {

@@ -83,9 +83,15 @@ function make() {
 const g = globalThis as unknown as { fanboundLimiters?: ReturnType<typeof make> };
 export const limiters = (g.fanboundLimiters ??= make());
 
-/** The caller's address as the reverse proxy or the server reports it; "local" when unknown. */
+/**
+ * The caller's address for rate limits. X-Forwarded-For is believed only when
+ * FANBOUND_TRUST_PROXY=1 (a proxy in front sets it); otherwise anyone could
+ * send a fresh value with each request, so every caller shares "direct".
+ */
 export function clientIp(req: Request): string {
-  const fwd = req.headers.get("x-forwarded-for");
-  if (fwd) return fwd.split(",")[0]!.trim();
-  return req.headers.get("x-real-ip") ?? "local";
+  if (process.env.FANBOUND_TRUST_PROXY === "1") {
+    const fwd = req.headers.get("x-forwarded-for");
+    if (fwd) return fwd.split(",").at(-1)!.trim();
+  }
+  return "direct";
 }

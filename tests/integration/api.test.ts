@@ -182,10 +182,10 @@ describe("rate limits", () => {
     expect(ok.status).toBe(200);
   });
 
-  it("sign-up: 429 per IP after five", async () => {
-    const ip = { "x-forwarded-for": `203.0.113.${Math.floor(Math.random() * 200) + 1}` };
+  it("sign-up: 429 per IP after five; a forged X-Forwarded-For does not open a new bucket", async () => {
     const statuses: number[] = [];
     for (let i = 0; i < 6; i++) {
+      const ip = { "x-forwarded-for": `203.0.113.${i + 1}` }; // documentation range, RFC 5737
       const r = await call(signup.POST, "POST", "/auth/signup", { headers: ip, body: { email: `s${i}-${tag()}@test.ferrow.example`, name: "Sam", password: "lock-keeper-pass" } });
       statuses.push(r.status);
       if (r.status === 429) expect(r.headers.get("retry-after")).toMatch(/^\d+$/);
@@ -195,7 +195,7 @@ describe("rate limits", () => {
 
   it("sign-in: the next-auth callback answers 429 before checking the password once the bucket is empty", async () => {
     const email = `victim-${tag()}@test.ferrow.example`;
-    const key = `local|password|${email}`;
+    const key = `direct|password|${email}`;
     for (let i = 0; i < 10; i++) limiters.signIn.take(key);
     const req = new Request("http://127.0.0.1:3100/api/auth/callback/password", {
       method: "POST",

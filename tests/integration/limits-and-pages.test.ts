@@ -1,0 +1,41 @@
+/** Compile limits as 422, and the captured-mail page hidden without the mail catcher. */
+import { afterEach, describe, expect, it } from "vitest";
+import { LimitError } from "@/lib/minimize";
+import { asCompileError } from "@/lib/api/compile";
+import { AppError, errorResponse } from "@/lib/api/errors";
+import CapturedMail from "@/app/dev/mail/page";
+
+describe("compile limits", () => {
+  it("a minimizer LimitError becomes 422 compile_limit naming the limit and its hint", async () => {
+    // Built the way lib/minimize reports a design over MAX_INPUTS (30 inputs).
+    const e = asCompileError(new LimitError("MAX_INPUTS", 30, "the design has 31 inputs", "Split the design into blocks of at most 30 inputs."));
+    expect(e).toBeInstanceOf(AppError);
+    const res = errorResponse(e);
+    expect(res.status).toBe(422);
+    const body = await res.json();
+    expect(body.error).toMatchObject({ code: "compile_limit", details: { limit: "MAX_INPUTS", value: 30, hint: expect.stringMatching(/Split/) } });
+    expect(body.error.message).toContain("MAX_INPUTS");
+    const other = new Error("bug");
+    expect(asCompileError(other)).toBe(other);
+  });
+});
+
+describe("captured-mail page", () => {
+  const saved = process.env.FANBOUND_MAIL_CATCHER;
+  afterEach(() => {
+    if (saved === undefined) delete process.env.FANBOUND_MAIL_CATCHER;
+    else process.env.FANBOUND_MAIL_CATCHER = saved;
+  });
+
+  it("answers 404 unless FANBOUND_MAIL_CATCHER=1", async () => {
+    delete process.env.FANBOUND_MAIL_CATCHER;
+    // next/navigation's notFound() throws an error whose digest carries the 404.
+    await expect(CapturedMail()).rejects.toMatchObject({ digest: expect.stringContaining("404") });
+  });
+
+  it("renders the captured messages when the catcher is in use", async () => {
+    process.env.FANBOUND_MAIL_CATCHER = "1";
+    const el = await CapturedMail();
+    expect(el).toBeTruthy();
+  });
+});
