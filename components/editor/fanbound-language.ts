@@ -5,7 +5,7 @@
  * Works with the local monaco-editor package handed in by the caller.
  */
 import type * as Monaco from "monaco-editor";
-import { KEYWORDS, parseSource, symbolTable, type Diagnostic, type Program, type SymbolInfo } from "../../lib/lang/index";
+import { formatSource, KEYWORDS, parseSource, symbolTable, type Diagnostic, type Program, type SymbolInfo } from "../../lib/lang/index";
 
 export const FANBOUND_LANGUAGE_ID = "fanbound";
 /** File extension of Fanbound sources. */
@@ -106,6 +106,7 @@ export function registerFanboundLanguage(monaco: MonacoApi): void {
   languages.setMonarchTokensProvider(FANBOUND_LANGUAGE_ID, monarch);
   languages.setLanguageConfiguration(FANBOUND_LANGUAGE_ID, configuration);
   defineThemes(monaco);
+  registerNavigation(monaco);
 
   languages.registerCompletionItemProvider(FANBOUND_LANGUAGE_ID, {
     triggerCharacters: ["(", ","],
@@ -183,6 +184,29 @@ export function registerFanboundLanguage(monaco: MonacoApi): void {
         range,
         contents: [{ value: `${head}; ${where}` }, { value: "```fanbound\n" + lines.join("\n") + "\n```" }],
       };
+    },
+  });
+}
+
+/** Go to definition (F12) and document formatting (Shift+Alt+F) with the canonical printer. */
+function registerNavigation(monaco: MonacoApi): void {
+  const { languages } = monaco;
+  languages.registerDefinitionProvider(FANBOUND_LANGUAGE_ID, {
+    provideDefinition(model, position) {
+      const word = model.getWordAtPosition(position);
+      if (!word) return null;
+      const program = parseSource(model.getValue()).program;
+      const sym = visibleSymbols(program, position.lineNumber).find((s) => s.name === word.word);
+      if (!sym) return null;
+      const r = sym.role === "output" || sym.role === "result" ? (sym.defined ?? sym.declared) : sym.declared;
+      return { uri: model.uri, range: new monaco.Range(r.line, r.column, r.endLine, r.endColumn) };
+    },
+  });
+  languages.registerDocumentFormattingEditProvider(FANBOUND_LANGUAGE_ID, {
+    provideDocumentFormattingEdits(model) {
+      const result = formatSource(model.getValue());
+      if (!("text" in result) || result.text === model.getValue()) return [];
+      return [{ range: model.getFullModelRange(), text: result.text }];
     },
   });
 }
