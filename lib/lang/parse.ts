@@ -2,8 +2,9 @@
  * Source text → AST with syntax diagnostics.
  *
  * The token stream is cut into logical lines first (a newline ends a
- * statement unless the line ends with an operator, a comma, '(' or '=' and
- * the next line does not itself start a statement), and
+ * statement unless the line ends with an operator, a comma, '(' or '=', or
+ * leaves a parenthesis open, and the next line does not itself start a
+ * statement), and
  * each line is parsed on its own. A mistake therefore yields exactly one
  * diagnostic and never disturbs the lines after it. Block headers and `end`
  * are line statements too; grouping them into blocks happens here.
@@ -66,10 +67,17 @@ export function parseSource(source: string, options?: LanguageLimits): ParseResu
   }
   if (current.length > 0) physical.push(current);
   const lines: IToken[][] = [];
+  let open = 0;
   for (const p of physical) {
     const last = lines[lines.length - 1];
-    if (last && CONTINUES_LINE.has(last[last.length - 1]!.tokenType) && !startsStatement(p)) last.push(...p);
-    else lines.push([...p]);
+    const continues = last !== undefined && (open > 0 || CONTINUES_LINE.has(last[last.length - 1]!.tokenType));
+    if (continues && !startsStatement(p)) {
+      last.push(...p);
+    } else {
+      lines.push([...p]);
+      open = 0;
+    }
+    for (const t of p) open = t.tokenType === LParen ? open + 1 : t.tokenType === RParen ? Math.max(0, open - 1) : open;
   }
 
   if (lines.length > limits.maxStatements) {
