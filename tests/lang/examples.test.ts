@@ -3,7 +3,7 @@
 import { readdirSync, readFileSync } from "node:fs";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
-import { compileSource, formatSource } from "../../lib/lang/index";
+import { compileSource, formatSource, parseSource } from "../../lib/lang/index";
 import type { Cube, FunctionSpec } from "../../lib/logic/index";
 
 const dir = path.join(import.meta.dirname, "../../lib/lang/examples");
@@ -92,5 +92,20 @@ describe("examples", () => {
       expect(onSet(spec, o).some((m) => (m & 1) === 1), o).toBe(false);
     }
     expect(onSet(spec, "alarm").filter((m) => (m & 1) === 1).length).toBeGreaterThan(0);
+  });
+});
+
+describe("the language reference", () => {
+  const md = readFileSync(path.join(import.meta.dirname, "../../lib/lang/REFERENCE.md"), "utf8");
+  const blocks = [...md.matchAll(/```fanbound\n([\s\S]*?)```/g)].map((m) => m[1]!);
+  it("has Fanbound examples", () => {
+    expect(blocks.length).toBeGreaterThan(8);
+  });
+  it("shows only examples that parse", () => {
+    for (const b of blocks) expect(parseSource(b).diagnostics, b).toEqual([]);
+  });
+  it("ends with a complete example that compiles with no diagnostics", () => {
+    expect(compileSource(blocks[blocks.length - 1]!).diagnostics).toEqual([]);
+    expect(compileSource(blocks[0]!).diagnostics).toEqual([]);
   });
 });
