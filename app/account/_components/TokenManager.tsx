@@ -29,7 +29,8 @@ export function TokenManager({ initial }: { initial: TokenRow[] }) {
 
   async function create(e: React.FormEvent<HTMLFormElement>) {
     e.preventDefault();
-    const f = new FormData(e.currentTarget);
+    const formEl = e.currentTarget;
+    const f = new FormData(formEl);
     const days = Number(f.get("days"));
     setBusy(true);
     setError(null);
@@ -43,7 +44,7 @@ export function TokenManager({ initial }: { initial: TokenRow[] }) {
     if (!res.ok) return setError(body?.error?.message ?? "That did not work; try again.");
     setSecret(body.secret);
     setTokens((t) => [body.token, ...t]);
-    e.currentTarget?.reset();
+    formEl.reset();
   }
 
   async function revoke(id: string) {
