@@ -18,6 +18,8 @@ import * as signup from "@/app/api/v1/auth/signup/route";
 import * as compile from "@/app/api/v1/compile/route";
 import * as openapi from "@/app/api/v1/openapi.json/route";
 import * as nextauth from "@/app/api/auth/[...nextauth]/route";
+import * as member from "@/app/api/v1/workspaces/[ws]/members/[userId]/route";
+import { encode } from "next-auth/jwt";
 import { SOURCE, builtinFamily, call, counts, makeUser, makeWorkspace, tag, type TestUser } from "./helpers";
 
 let owner: TestUser;
@@ -130,6 +132,7 @@ describe("personal API tokens", () => {
     expect(JSON.stringify(list.json)).not.toContain(secret);
 
     expect((await call(me.GET, "GET", "/me", { token: secret })).status).toBe(200);
+    expect((await db().models.ApiToken.findByPk(created.json.token.id))!.lastUsedAt).not.toBeNull();
     await revokeToken({ actor: { userId: u.id, via: "token" }, id: created.json.token.id });
     const after = await call(me.GET, "GET", "/me", { token: secret });
     expect(after.status).toBe(401);
@@ -153,6 +156,31 @@ describe("personal API tokens", () => {
     expect((await call(me.GET, "GET", "/me", { headers: { authorization: "Bearer fb_not-a-token" } })).status).toBe(401);
     expect((await call(me.GET, "GET", "/me", { headers: { authorization: "Basic abc" } })).status).toBe(401);
     expect((await call(openapi.GET, "GET", "/openapi.json", { headers: { authorization: "Bearer nope" } })).status).toBe(401);
+  });
+});
+
+describe("session cookie", () => {
+  it("a next-auth JWT in the session cookie authenticates; one signed with another secret does not", async () => {
+    const u = await makeUser("cookie");
+    const good = await encode({ token: { sub: u.id, email: u.email }, secret: process.env.NEXTAUTH_SECRET! });
+    const ok = await call(me.GET, "GET", "/me", { headers: { cookie: `next-auth.session-token=${good}` } });
+    expect(ok.status).toBe(200);
+    expect(ok.json.user.id).toBe(u.id);
+    const forged = await encode({ token: { sub: u.id }, secret: "not-the-server-secret" });
+    expect((await call(me.GET, "GET", "/me", { headers: { cookie: `next-auth.session-token=${forged}` } })).status).toBe(401);
+  });
+});
+
+describe("members", () => {
+  it("the last owner can neither step down nor be removed (409)", async () => {
+    const o = await makeUser("sole");
+    const w = await makeWorkspace("sole", o);
+    const demote = await call(member.PATCH, "PATCH", "/m", { token: o.token, params: { ws: w.slug, userId: o.id }, body: { role: "viewer" } });
+    expect(demote.status).toBe(409);
+    const remove = await call(member.DELETE, "DELETE", "/m", { token: o.token, params: { ws: w.slug, userId: o.id } });
+    expect(remove.status).toBe(409);
+    const m = await db().models.Membership.findOne({ where: { workspaceId: w.id, userId: o.id } });
+    expect(m!.role).toBe("owner");
   });
 });
 
