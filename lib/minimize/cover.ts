@@ -111,6 +111,10 @@ class BranchAndBound {
   bestChosen: number[] = [];
   /** Column budget of the core, or -1 for none. */
   card = -1;
+  private readonly nnz: number;
+  private csr = new Int32Array(0);
+  private rcBuf = new Float64Array(0);
+  private gBuf = new Float64Array(0);
   aborted = false;
   nodes = 0;
 
@@ -138,6 +142,7 @@ class BranchAndBound {
       }
     }
     this.rowColsS = lists.map((l) => Int32Array.from(l));
+    this.nnz = cols.reduce((a, l) => a + l.length, 0);
   }
 
   /** Offers a known cover of the core as incumbent. */
@@ -466,11 +471,28 @@ class BranchAndBound {
         liveCols.push(k * 32 + 31 - Math.clz32(b));
       }
     }
-    const isLive = (r: number) => ((rowsA[r >>> 5]! >>> (r & 31)) & 1) === 1;
-    const colLive: Int32Array[] = liveCols.map((c) => this.cols[c]!.filter(isLive));
-    const rc = new Float64Array(this.cols.length);
-    const bestRc = new Float64Array(this.cols.length);
-    const g = new Float64Array(this.R);
+    // Live rows of the live columns, flattened (CSR) so the inner loop allocates nothing.
+    if (this.csr.length < this.nnz) this.csr = new Int32Array(this.nnz);
+    const csr = this.csr;
+    const start = new Int32Array(liveCols.length + 1);
+    let nz = 0;
+    for (let i = 0; i < liveCols.length; i++) {
+      start[i] = nz;
+      const l = this.cols[liveCols[i]!]!;
+      for (let q = 0; q < l.length; q++) {
+        const r = l[q]!;
+        if ((rowsA[r >>> 5]! >>> (r & 31)) & 1) csr[nz++] = r;
+      }
+    }
+    start[liveCols.length] = nz;
+    const C = this.cols.length;
+    if (this.rcBuf.length < C) {
+      this.rcBuf = new Float64Array(C);
+      this.gBuf = new Float64Array(this.R);
+    }
+    const rc = this.rcBuf;
+    const bestRc = new Float64Array(C);
+    const g = this.gBuf;
     let best = -Infinity;
     let lambda = 2;
     let stall = 0;
@@ -487,13 +509,14 @@ class BranchAndBound {
       for (let i = 0; i < liveCols.length; i++) {
         const c = liveCols[i]!;
         let s = this.w[c]! + mu;
-        const rs = colLive[i]!;
-        for (let q = 0; q < rs.length; q++) s -= u[rs[q]!]!;
+        const a = start[i]!;
+        const b = start[i + 1]!;
+        for (let q = a; q < b; q++) s -= u[csr[q]!]!;
         rc[c] = s;
         if (s < 0) {
           L += s;
           used++;
-          for (let q = 0; q < rs.length; q++) g[rs[q]!]!--;
+          for (let q = a; q < b; q++) g[csr[q]!]!--;
         }
       }
       const gmu = K >= 0 ? used - K : 0;
