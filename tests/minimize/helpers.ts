@@ -128,3 +128,40 @@ export async function milpMinimum(spec: FunctionSpec): Promise<{ products: numbe
   const v = Math.round(res.ObjectiveValue);
   return { products: Math.floor(v / 1000), literals: v % 1000 };
 }
+
+/**
+ * Single-output minimum under the gate-inputs model (Σ literals + 1 per term) or the
+ * fan-in model (AND gates ceil((k-1)/(F-1)) per term plus OR gates ceil((t-1)/(F-1)),
+ * the latter as an integer variable z with (F-1)·z ≥ t - 1), by highs over all implicants.
+ */
+export async function milpModelMinimum(spec: FunctionSpec, model: { kind: "gate-inputs" } | { kind: "fan-in"; fanIn: number }): Promise<number> {
+  highsPromise ??= highsLoader();
+  const highs = await highsPromise;
+  const imps = bruteImplicants(spec).filter((p) => p.tag & 1 && p.on[0]!.length > 0);
+  const rows = new Map<number, number[]>();
+  imps.forEach((p, i) => {
+    for (const m of p.on[0]!) {
+      if (!rows.has(m)) rows.set(m, []);
+      rows.get(m)!.push(i);
+    }
+  });
+  if (rows.size === 0) return 0;
+  const gates = (k: number, F: number) => (k <= 1 ? 0 : Math.ceil((k - 1) / (F - 1)));
+  const w = imps.map((p) => {
+    const k = popcount(p.cube.mask);
+    return model.kind === "gate-inputs" ? k + 1 : gates(k, model.fanIn);
+  });
+  const ys = imps.map((_, i) => `y${i}`);
+  let obj = imps.map((_, i) => `${w[i]} y${i}`).join(" + ");
+  const cons = [...rows.values()].map((cs, k) => ` r${k}: ${cs.map((i) => `y${i}`).join(" + ")} >= 1`);
+  let generals = "";
+  if (model.kind === "fan-in") {
+    obj += " + 1 z";
+    cons.push(` orgates: ${model.fanIn - 1} z - ${ys.join(" - ")} >= -1`);
+    generals = "General\n z\n";
+  }
+  const lp = `Minimize\n obj: ${obj}\nSubject To\n${cons.join("\n")}\nBounds\n z >= 0\n${generals}Binary\n ${ys.join(" ")}\nEnd\n`;
+  const res = highs.solve(model.kind === "fan-in" ? lp : lp.replace("Bounds\n z >= 0\n", ""), { output_flag: false });
+  if (res.Status !== "Optimal") throw new Error(`MILP status ${res.Status}`);
+  return Math.round(res.ObjectiveValue);
+}

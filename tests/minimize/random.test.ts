@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { popcount } from "../../lib/logic";
 import { minimize } from "../../lib/minimize";
-import { isPrimeFor, milpMinimum, randomSpec, valueAt } from "./helpers";
+import { isPrimeFor, milpMinimum, milpModelMinimum, randomSpec, valueAt } from "./helpers";
 
 function coverMatches(spec: ReturnType<typeof randomSpec>, r: ReturnType<typeof minimize>): boolean {
   const n = spec.inputs.length;
@@ -66,17 +66,29 @@ describe("random functions against brute force and the highs MILP", () => {
     });
   }
 
-  it("gate-inputs model on 5 inputs matches a MILP over literals plus one connection per term", async () => {
-    // Reference: single output, so gate inputs = Σ (literals + 1); brute force over implicants via MILP
-    // of products-then-literals does not give it directly, so compare with an exhaustive recount:
-    // the gate-input cost can never be below the MILP's literals + products for the products minimum
-    // minus what trading products for literals could save — here checked as a lower-bound sanity only.
-    const spec = randomSpec(5, 1, 61);
-    const r = minimize(spec, { cost: { kind: "gate-inputs" } });
-    const ref = await milpMinimum(spec);
-    const gi = r.outputs[0]!.literals + r.outputs[0]!.products;
-    expect(r.cost).toBe(gi);
-    expect(gi).toBeLessThanOrEqual(ref.literals + ref.products);
-    expect(coverMatches(spec, r)).toBe(true);
-  });
+  for (const seed of [61, 62, 63]) {
+    it(`gate-inputs model, 6 inputs, seed ${seed}: the minimum of a MILP over all implicants`, async () => {
+      const spec = randomSpec(6, 1, seed);
+      const r = minimize(spec, { cost: { kind: "gate-inputs" } });
+      // Reference: the test's own MILP (highs) of Σ (literals + 1) over every implicant.
+      const ref = await milpModelMinimum(spec, { kind: "gate-inputs" });
+      expect(coverMatches(spec, r)).toBe(true);
+      expect(r.outputs[0]!.literals + r.outputs[0]!.products).toBe(r.cost);
+      expect(r.exact).toBe(true);
+      expect(r.cost).toBe(ref);
+    });
+  }
+
+  for (const [seed, fanIn] of [[64, 2], [65, 3], [66, 4]] as const) {
+    it(`fan-in ${fanIn} model, 6 inputs, seed ${seed}: never below the MILP minimum, equal when exact`, async () => {
+      const spec = randomSpec(6, 1, seed);
+      const r = minimize(spec, { cost: { kind: "fan-in", fanIn } });
+      // Reference: the test's own MILP (highs) with AND gates per term and integer OR gates.
+      const ref = await milpModelMinimum(spec, { kind: "fan-in", fanIn });
+      expect(coverMatches(spec, r)).toBe(true);
+      expect(r.cost).toBeGreaterThanOrEqual(ref);
+      expect(r.lowerBound).toBeLessThanOrEqual(ref);
+      if (r.exact) expect(r.cost).toBe(ref);
+    });
+  }
 });
