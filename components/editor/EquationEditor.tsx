@@ -25,6 +25,8 @@ export interface EquationEditorProps {
   theme?: typeof PAPER_THEME | typeof NIGHT_THEME;
   /** Accessible label of the editing area. Default "Equations". */
   ariaLabel?: string;
+  /** Called once the editor exists, for callers that move the cursor or reveal a line (e.g. from a diagnostic list). */
+  onMount?: (editor: Monaco.editor.IStandaloneCodeEditor, monaco: MonacoApi) => void;
 }
 
 type MonacoApi = typeof Monaco;
@@ -67,10 +69,12 @@ export default function EquationEditor({
   height = "24rem",
   theme,
   ariaLabel = "Equations",
+  onMount,
 }: EquationEditorProps) {
   const [monaco, setMonaco] = useState<MonacoApi | null>(null);
   const [failed, setFailed] = useState<string | null>(null);
   const editorRef = useRef<Monaco.editor.IStandaloneCodeEditor | null>(null);
+  const monacoRef = useRef<MonacoApi | null>(null);
   // The model is the source of truth while typing. React may commit a render
   // whose `value` is a text the editor reported a few keystrokes ago; pushing
   // that back would undo the newer keystrokes, so only values the editor did
@@ -111,6 +115,11 @@ export default function EquationEditor({
     }
     if (reported.current.has(value)) return;
     reported.current.clear();
+    // a read-only editor refuses edits, and has no undo history worth keeping
+    if (editor.getOption(monacoRef.current!.editor.EditorOption.readOnly)) {
+      editor.setValue(value);
+      return;
+    }
     editor.executeEdits("fanbound-value", [{ range: model.getFullModelRange(), text: value }]);
     editor.pushUndoStop();
   }, [value]);
@@ -158,6 +167,8 @@ export default function EquationEditor({
         }}
         onMount={(editor) => {
           editorRef.current = editor;
+          monacoRef.current = monaco;
+          onMount?.(editor, monaco);
           const model = editor.getModel();
           if (model) setDiagnosticsMarkers(monaco, model, diagnostics);
         }}
