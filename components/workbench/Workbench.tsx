@@ -210,7 +210,9 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
               ))}
             </div>
             <div className="max-h-[30rem] overflow-auto p-3">
-              {tab === "notes" || !result ? (
+              {!result && !diagnostics.length && !compile.error ? (
+                <p className="text-sm text-graphite">Compiling…</p>
+              ) : tab === "notes" || !result ? (
                 <NotesPanel diagnostics={diagnostics} warnings={result?.warnings ?? []} analysis={result?.analysis ?? null} />
               ) : tab === "minimized" ? (
                 <MinimizedPanel covers={result.covers} />

@@ -62,7 +62,7 @@ if (step("next build", process.execPath, ["node_modules/next/dist/bin/next", "bu
     "node_modules/next/dist/bin/next", "start", "-H", "127.0.0.1", "-p", String(profile.webPort),
   ], { port: profile.webPort, env: { ...env, NODE_ENV: "production" } });
   mkdirSync(path.join(root, "test-results"), { recursive: true });
-  vitest("browser tests (chromium)", "browser", { BASE_URL: `http://127.0.0.1:${profile.webPort}` });
+  vitest("browser tests (chromium)", "browser", { FANBOUND_BASE_URL: `http://127.0.0.1:${profile.webPort}` });
   stopDaemon("web-test");
 }
 

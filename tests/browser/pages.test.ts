@@ -35,7 +35,8 @@ describe("landing and sign-in pages in chromium", () => {
     await s.page.fill('input[name="email"]', "nobody@ferrow.example");
     await s.page.fill('input[name="password"]', "not-the-password");
     await s.page.click('button[type="submit"]');
-    await expect(s.page.getByRole("alert").innerText({ timeout: 15_000 })).resolves.toMatch(/not right/);
+    // Next's route announcer is an alert too; the form's own alert is the one inside the form.
+    await expect(s.page.locator("form [role=alert]").innerText({ timeout: 15_000 })).resolves.toMatch(/not right/);
     const file = await screenshot(s.page, "signin");
     expect(existsSync(file)).toBe(true);
     expect(s.outside).toEqual([]);

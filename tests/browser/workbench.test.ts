@@ -35,10 +35,10 @@ describe("the designer's workbench in chromium", () => {
     // Type a small design line by line (Escape closes any completion list before Enter).
     await page.click(".monaco-editor");
     const lines = ["inputs a, b, c", "outputs f", "f = a * b + a * b' * c"];
-    for (const line of lines) {
+    for (const [i, line] of lines.entries()) {
       await page.keyboard.type(line);
       await page.keyboard.press("Escape");
-      await page.keyboard.press("Enter");
+      if (i < lines.length - 1) await page.keyboard.press("Enter");
     }
     // a·b + a·b'·c = a·b + a·c (absorption: x + x'y = x + y, with x = b inside a) — Boolean algebra, any textbook.
     const expr = page.locator('[data-output="f"] [data-testid="expression"]');
@@ -48,6 +48,7 @@ describe("the designer's workbench in chromium", () => {
     expect(rowsBefore).toBeGreaterThan(0);
 
     // Add a term that absorbs everything with a: the cover shrinks to the single literal a.
+    await page.click(".monaco-editor .view-lines");
     await page.keyboard.press("Control+End");
     await page.keyboard.type(" + a * c'");
     await page.keyboard.press("Escape");
@@ -100,6 +101,12 @@ describe("the designer's workbench in chromium", () => {
       for (const sel of await v.page.locator('[data-testid="settings"] select, [data-testid="settings"] input').all()) {
         expect(await sel.isDisabled()).toBe(true);
       }
+      // The editor refuses keystrokes for a viewer.
+      await v.page.waitForSelector('[data-testid="schematic"] g[data-gate]', { timeout: 30_000 });
+      const before = await v.page.locator(".monaco-editor .view-lines").innerText();
+      await v.page.click(".monaco-editor .view-lines");
+      await v.page.keyboard.type("zzz");
+      expect(await v.page.locator(".monaco-editor .view-lines").innerText()).toBe(before);
       await screenshot(v.page, "viewer-workbench");
       expect(v.outside).toEqual([]);
     } finally {

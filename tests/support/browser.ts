@@ -8,7 +8,7 @@ import { mkdtempSync, mkdirSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 
-export const BASE_URL = process.env.BASE_URL ?? "http://127.0.0.1:3100";
+export const BASE_URL = process.env.FANBOUND_BASE_URL ?? "http://127.0.0.1:3100";
 export const ARTEFACTS = path.resolve("test-results");
 
 export interface Session {
