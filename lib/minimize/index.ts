@@ -354,13 +354,52 @@ function lexicographicCover(prob: CoveringProblem, model: CostModel, deadline: n
   const lits = prob.columns.map((p) => popcount(p.mask));
   const s1 = solveCover({ colRows, weight: lits.map(() => 1), rowCount, deadline });
   const P = s1.chosen.length;
-  const s2 = solveCover({ colRows, weight: lits, rowCount, deadline, incumbent: s1.chosen, maxColumns: P });
+  const start = swapForFewerLiterals(s1.chosen, colRows, lits, rowCount);
+  const s2 = solveCover({ colRows, weight: lits, rowCount, deadline, incumbent: start, maxColumns: P });
   const chosen = s2.chosen.length === P || !s1.exact ? s2.chosen : s1.chosen;
   const w = chosen.reduce((a, c) => a + weight[c]!, 0);
   // Bound in the combined scale: at least the proven product count, each with at least one literal... kept simple:
   // products bound times the product weight (literals add nothing to the bound).
   const lb = s1.exact && s2.exact ? w : Math.min(w, s1.lowerBound * PRODUCT_WEIGHT);
   return { chosen, weight: w, lowerBound: lb, exact: s1.exact && s2.exact };
+}
+
+/**
+ * One-for-one swaps that keep the cover and lower its literals: a column can
+ * give way to a cheaper one covering every row only it covers. Gives the
+ * literal search a good first incumbent.
+ */
+function swapForFewerLiterals(chosen: number[], colRows: Int32Array[], lits: number[], rowCount: number): number[] {
+  const rowCols: number[][] = Array.from({ length: rowCount }, () => []);
+  colRows.forEach((rs, c) => {
+    for (const r of rs) rowCols[r]!.push(c);
+  });
+  const count = new Int32Array(rowCount);
+  const cur = chosen.slice();
+  const inCover = new Set(cur);
+  for (const c of cur) for (const r of colRows[c]!) count[r]!++;
+  for (let improved = true; improved; ) {
+    improved = false;
+    for (let i = 0; i < cur.length; i++) {
+      const c = cur[i]!;
+      const own = Array.from(colRows[c]!).filter((r) => count[r] === 1);
+      if (own.length === 0) continue;
+      let best = -1;
+      for (const d of rowCols[own[0]!]!) {
+        if (d === c || inCover.has(d) || lits[d]! >= lits[best < 0 ? c : best]!) continue;
+        const rs = colRows[d]!;
+        if (own.every((r) => rs.includes(r))) best = d;
+      }
+      if (best < 0) continue;
+      for (const r of colRows[c]!) count[r]!--;
+      for (const r of colRows[best]!) count[r]!++;
+      inCover.delete(c);
+      inCover.add(best);
+      cur[i] = best;
+      improved = true;
+    }
+  }
+  return cur;
 }
 
 /** Exact route over a group of outputs sharing terms. Throws ExactLimit beyond its limits. */
@@ -439,7 +478,7 @@ function heuristicAll(n: number, targets: Target[], model: CostModel, deadline: 
   // Candidate points: a spread sample of each output's ON points (or its cubes' corners above 20 inputs).
   const full = fullMask(n);
   const candidates: BoundPoint[] = [];
-  const perOutputCap = Math.max(64, Math.floor(3000 / Math.max(1, targets.length)));
+  const perOutputCap = Math.max(64, Math.floor(12000 / Math.max(1, targets.length)));
   targets.forEach((t, j) => {
     const pts = t.onT ? tableMinterms(t.onT, n) : t.on.map((c) => c.value);
     const step = Math.max(1, Math.ceil(pts.length / perOutputCap));
@@ -456,6 +495,23 @@ function heuristicAll(n: number, targets: Target[], model: CostModel, deadline: 
           n,
         )
       : cubeOracle(targets.map((t) => complement(t.on.concat(t.dc), full)));
+  if (n <= TRUTH_TABLE_MAX_INPUTS) {
+    // Points with few care neighbours first: they are the likeliest to be independent of the rest.
+    const degree = (p: BoundPoint): number => {
+      const t = targets[p.output]!;
+      let d = 0;
+      for (let i = 0; i < n; i++) {
+        const q = (p.minterm ^ (1 << i)) >>> 0;
+        if (((t.onT![q >>> 5]! | t.dcT![q >>> 5]!) >>> (q & 31)) & 1) d++;
+      }
+      return d;
+    };
+    const deg = candidates.map(degree);
+    const idx = candidates.map((_, i) => i).sort((a, b) => deg[a]! - deg[b]!);
+    const sorted = idx.map((i) => candidates[i]!);
+    candidates.length = 0;
+    candidates.push(...sorted);
+  }
   const boundDeadline = Math.min(deadline, Date.now() + 2000);
   const ind = independentPoints(candidates, oracle, full, boundDeadline);
   const k = targets.map((_, j) => ind.perOutput.get(j) ?? 0);
