@@ -4,13 +4,19 @@ import "server-only";
  * record in; diagnostics, covers, netlist, analysis and the figures a revision
  * stores out. Compile limits become a 422 naming the limit.
  *
- * The minimizer runs in-thread with its wall-clock budget: the worker variant
- * (lib/minimize/worker.ts) boots through tsx from source files, which the Next
- * server bundle cannot load.
+ * Small designs (up to IN_THREAD_MAX_INPUTS inputs) minimize in-thread, where
+ * a run takes milliseconds and a worker's start (about 350 ms) would dominate.
+ * Larger ones go to a worker thread with the wall-clock budget and the
+ * request's abort signal, so a long run neither holds the server nor outlives
+ * the client that asked for it.
  */
+import path from "node:path";
 import type { z } from "zod";
 import { compileSource, type Diagnostic } from "../lang";
-import { LimitError, minimize, type MinimizeResult } from "../minimize";
+import { LimitError, minimize, type MinimizeOptions, type MinimizeResult } from "../minimize";
+import { minimizeInWorker } from "../minimize/worker";
+import type { FunctionSpec } from "../logic";
+import { revisionStats, type RevisionStats } from "../pipeline/stats";
 import { finish, minimizeOptionsFor, type DesignSettings, type ExportFormat } from "../pipeline";
 import type { Family } from "../families";
 import { AppError } from "./errors";
@@ -21,23 +27,7 @@ export type CompileSettings = Omit<z.infer<typeof CompileSettingsSchema>, "famil
 /** Wall-clock budget of one minimization behind the API: 10 000 ms (the exact route then gives way to the heuristic). */
 export const COMPILE_BUDGET_MS = 10_000;
 
-/** Figures stored with a revision; gates, depth and delayNs are the sort keys of the design list. */
-export interface RevisionStats {
-  inputs: number;
-  outputs: number;
-  products: number;
-  literals: number;
-  exact: boolean;
-  gates: number;
-  depth: number;
-  delayNs: number | null;
-  packages: number | null;
-  transistors: number | null;
-  staticMw: number | null;
-  dynamicMw: number | null;
-  maxLoad: number;
-  verified: boolean | null;
-}
+export type { RevisionStats };
 
 export interface CompileOutcome {
   diagnostics: Diagnostic[];
@@ -67,8 +57,18 @@ export function asCompileError(e: unknown): unknown {
   return e;
 }
 
-function runMinimize(spec: Parameters<typeof minimize>[0], options: Parameters<typeof minimize>[1]) {
-  return minimize(spec, { ...options, timeLimitMs: COMPILE_BUDGET_MS });
+/** Designs with at most this many inputs minimize on the request's own thread. */
+export const IN_THREAD_MAX_INPUTS = 10;
+
+/** The worker's entry on disk; the server bundle cannot hold it, the source tree does. */
+const WORKER_BOOT = path.join(process.cwd(), "lib/minimize/worker-boot.mjs");
+
+function runMinimize(spec: FunctionSpec, options: MinimizeOptions, signal?: AbortSignal): Promise<MinimizeResult> | MinimizeResult {
+  const opts = { ...options, timeLimitMs: COMPILE_BUDGET_MS };
+  if (spec.inputs.length <= IN_THREAD_MAX_INPUTS) return minimize(spec, opts);
+  // The worker's own budget is a little longer than the minimizer's, so the
+  // exact route's fallback to the heuristic gets to answer first.
+  return minimizeInWorker(spec, opts, { budgetMs: COMPILE_BUDGET_MS + 5_000, bootFile: WORKER_BOOT, ...(signal ? { signal } : {}) });
 }
 
 /**
@@ -80,38 +80,24 @@ export async function compileDesign(
   source: string,
   settings: CompileSettings,
   family: Family,
-  opts: { exports?: ExportFormat[]; unitName?: string } = {},
+  opts: { exports?: ExportFormat[]; unitName?: string; signal?: AbortSignal } = {},
 ): Promise<CompileOutcome> {
   const compiled = compileSource(source);
   if (!compiled.spec) return { diagnostics: compiled.diagnostics, result: null, exports: {} };
   const full: DesignSettings = { ...storedSettings(settings), familyId: family.id };
   let minimized: MinimizeResult;
   try {
-    minimized = runMinimize(compiled.spec, minimizeOptionsFor(full, family));
+    minimized = await runMinimize(compiled.spec, minimizeOptionsFor(full, family), opts.signal);
   } catch (e) {
     throw asCompileError(e);
   }
-  const r = finish(compiled.diagnostics, compiled.spec, minimized, family, full, { families: [family], ...opts });
+  const r = finish(compiled.diagnostics, compiled.spec, minimized, family, full, { families: [family], exports: opts.exports, unitName: opts.unitName });
   if (!r.ok || !r.analysis || !r.document) {
     throw new AppError("compile_errors", r.error?.message ?? "The design could not be mapped onto the family.", { stage: r.error?.code ?? "mapping" });
   }
   const a = r.analysis;
-  const stats: RevisionStats = {
-    inputs: minimized.inputs.length,
-    outputs: minimized.outputs.length,
-    products: new Set(minimized.outputs.flatMap((o) => o.cubes.map((c) => `${o.form}:${c.value}/${c.mask}`))).size,
-    literals: minimized.outputs.reduce((s, o) => s + o.literals, 0),
-    exact: minimized.exact,
-    gates: a.gates,
-    depth: a.depth,
-    delayNs: a.criticalPath.delay.value,
-    packages: a.packages,
-    transistors: a.transistors,
-    staticMw: a.staticPower.value,
-    dynamicMw: a.dynamicPower.value,
-    maxLoad: a.maxLoad,
-    verified: r.verification ? r.verification.ok : null,
-  };
+  const stats = revisionStats(r)!;
+
   return {
     diagnostics: r.diagnostics,
     result: { covers: minimized, netlist: r.document, analysis: a, verification: r.verification, warnings: r.warnings, stats },

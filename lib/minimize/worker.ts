@@ -7,7 +7,8 @@
  * then imports ./worker-thread.ts, so the same TypeScript sources run under
  * tsx, vitest and plain Node.
  */
-import { Worker } from "node:worker_threads";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
 import type { FunctionSpec } from "../logic";
 import { LimitError, type MinimizeOptions, type MinimizeResult } from "./types";
 
@@ -16,6 +17,23 @@ export interface WorkerRunOptions {
   signal?: AbortSignal;
   /** Wall-clock budget in milliseconds, worker start-up included. Default 30 000. */
   budgetMs?: number;
+  /**
+   * Path of worker-boot.mjs on disk. Default: beside this file, which is right
+   * under tsx, vitest and Node; a bundled server (Next) passes the source path.
+   */
+  bootFile?: string;
+}
+
+/**
+ * The Worker class, taken at run time so that a bundler does not try to bundle
+ * the worker's entry: the worker runs the TypeScript sources through tsx.
+ */
+function workerClass(): typeof import("node:worker_threads").Worker {
+  return process.getBuiltinModule("node:worker_threads").Worker;
+}
+
+function defaultBootFile(): string {
+  return path.join(path.dirname(fileURLToPath(import.meta.url)), "worker-boot.mjs");
 }
 
 const DEFAULT_BUDGET_MS = 30_000;
@@ -32,7 +50,8 @@ export function minimizeInWorker(
       reject(new LimitError("aborted", 0, "the run was cancelled before it started", "Start it again when needed."));
       return;
     }
-    const worker = new Worker(new URL("./worker-boot.mjs", import.meta.url), {
+    const Worker = workerClass();
+    const worker = new Worker(run.bootFile ?? defaultBootFile(), {
       workerData: { spec, options },
     });
     let settled = false;
