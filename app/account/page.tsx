@@ -3,7 +3,7 @@ import { SiteHeader } from "@/components/ui/SiteHeader";
 import { requireSignedIn } from "@/lib/auth/session";
 import { getMe } from "@/lib/data/users";
 import { listTokens } from "@/lib/data/tokens";
-import { SignOutButton } from "./_components/SignOutButton";
+import { SignOutButton } from "@/components/ui/SignOutButton";
 import { TokenManager } from "./_components/TokenManager";
 
 export const metadata: Metadata = { title: "Account" };

@@ -3,6 +3,7 @@ import Link from "next/link";
 import { redirect } from "next/navigation";
 import { getServerSession } from "next-auth";
 import { authOptions } from "@/lib/auth/options";
+import { requireSignedIn } from "@/lib/auth/session";
 import { listWorkspaces } from "@/lib/data/workspaces";
 import { SiteHeader } from "@/components/ui/SiteHeader";
 import { SignOutButton } from "@/components/ui/SignOutButton";
@@ -13,15 +14,14 @@ export const dynamic = "force-dynamic";
 
 /** Where sign-in lands: straight into the only workspace, or a choice among several. */
 export default async function Workspaces() {
+  const actor = await requireSignedIn("/workspaces");
   const session = await getServerSession(authOptions);
-  const userId = (session?.user as { id?: string } | undefined)?.id;
-  if (!userId) redirect("/signin?callbackUrl=/workspaces");
-  const workspaces = await listWorkspaces({ actor: { userId, via: "session" } });
+  const workspaces = await listWorkspaces({ actor });
   if (workspaces.length === 1) redirect(`/w/${workspaces[0]!.slug}`);
   return (
     <>
       <SiteHeader>
-        <span className="text-graphite">{session!.user!.email}</span>
+        <span className="text-graphite">{session?.user?.email}</span>
         <SignOutButton />
       </SiteHeader>
       <main className="mx-auto max-w-3xl px-4 py-10">

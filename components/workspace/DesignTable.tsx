@@ -45,24 +45,24 @@ export function DesignTable({ ws }: { ws: string }) {
     }
   }
 
-  async function rename(d: DesignItem) {
-    const name = window.prompt("New name for the design", d.name)?.trim();
-    if (!name || name === d.name) return;
+  const [renaming, setRenaming] = useState<string | null>(null);
+  const [rowError, setRowError] = useState<{ id: string; message: string } | null>(null);
+
+  async function patch(d: DesignItem, json: Record<string, unknown>) {
+    setRowError(null);
     try {
-      await api(`/api/v1/workspaces/${ws}/designs/${d.id}`, { method: "PATCH", json: { name } });
+      await api(`/api/v1/workspaces/${ws}/designs/${d.id}`, { method: "PATCH", json });
       await mutate();
+      return true;
     } catch (e) {
-      window.alert(e instanceof ApiError ? e.message : String(e));
+      setRowError({ id: d.id, message: e instanceof ApiError ? e.message : String(e) });
+      return false;
     }
   }
 
-  async function setArchivedFlag(d: DesignItem, value: boolean) {
-    try {
-      await api(`/api/v1/workspaces/${ws}/designs/${d.id}`, { method: "PATCH", json: { archived: value } });
-      await mutate();
-    } catch (e) {
-      window.alert(e instanceof ApiError ? e.message : String(e));
-    }
+  async function rename(d: DesignItem, name: string) {
+    const next = name.trim();
+    if (!next || next === d.name || (await patch(d, { name: next }))) setRenaming(null);
   }
 
   return (
@@ -141,10 +141,19 @@ export function DesignTable({ ws }: { ws: string }) {
               return (
                 <tr key={d.id} className="border-b border-rule/60 last:border-0 hover:bg-paper">
                   <td className="px-3 py-2">
-                    <Link href={`/w/${ws}/d/${d.id}`} className="font-semibold text-ink hover:text-accent">
-                      {d.name}
-                    </Link>
+                    {renaming === d.id ? (
+                      <form onSubmit={(e) => { e.preventDefault(); void rename(d, String(new FormData(e.currentTarget).get("name") ?? "")); }}>
+                        <input name="name" defaultValue={d.name} autoFocus aria-label={`New name for ${d.name}`}
+                          onKeyDown={(e) => e.key === "Escape" && setRenaming(null)}
+                          className="w-full rounded border border-accent bg-paper px-2 py-0.5 text-sm" />
+                      </form>
+                    ) : (
+                      <Link href={`/w/${ws}/d/${d.id}`} className="font-semibold text-ink hover:text-accent">
+                        {d.name}
+                      </Link>
+                    )}
                     {d.description && <div className="text-xs text-graphite">{d.description}</div>}
+                    {rowError?.id === d.id && <div role="alert" className="text-xs text-vermilion">{rowError.message}</div>}
                   </td>
                   <td className="px-3 py-2 text-graphite">{d.family.name}</td>
                   <td className="px-3 py-2 font-mono">{d.latestRevision ? `r${d.latestRevision.number}` : "draft"}</td>
@@ -155,11 +164,11 @@ export function DesignTable({ ws }: { ws: string }) {
                   <td className="px-3 py-2 text-graphite">{fmtWhen(d.updatedAt)}</td>
                   {mayEdit && (
                     <td className="whitespace-nowrap px-3 py-2 text-right text-xs">
-                      <button type="button" onClick={() => rename(d)} className="text-graphite hover:text-ink">
+                      <button type="button" onClick={() => setRenaming(d.id)} className="text-graphite hover:text-ink">
                         Rename
                       </button>
                       <span className="mx-1 text-rule">|</span>
-                      <button type="button" onClick={() => setArchivedFlag(d, !d.archivedAt)} className="text-graphite hover:text-ink">
+                      <button type="button" onClick={() => void patch(d, { archived: !d.archivedAt })} className="text-graphite hover:text-ink">
                         {d.archivedAt ? "Restore" : "Archive"}
                       </button>
                     </td>

@@ -31,7 +31,7 @@ export async function compileDesignAsync(source: string, settings: DesignSetting
     );
     return finish(compiled.diagnostics, compiled.spec, minimized, family, settings, opts);
   } catch (e) {
-    if (e instanceof LimitError) return { ok: false, diagnostics: compiled.diagnostics, spec: compiled.spec, ...none, error: { code: "limit", message: `${e.message} ${e.hint}` } };
+    if (e instanceof LimitError) return { ok: false, diagnostics: compiled.diagnostics, spec: compiled.spec, ...none, error: { code: "limit", message: e.message } };
     throw e;
   }
 }

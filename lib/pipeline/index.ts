@@ -86,7 +86,7 @@ export function compileDesign(source: string, settings: DesignSettings, opts: Pi
   try {
     minimized = minimize(compiled.spec, { ...minimizeOptionsFor(settings, family), ...opts.minimize });
   } catch (e) {
-    if (e instanceof LimitError) return empty(compiled.diagnostics, compiled.spec, { code: "limit", message: `${e.message} ${e.hint}` });
+    if (e instanceof LimitError) return empty(compiled.diagnostics, compiled.spec, { code: "limit", message: e.message });
     throw e;
   }
   return finish(compiled.diagnostics, compiled.spec, minimized, family, settings, opts);

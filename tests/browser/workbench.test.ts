@@ -68,6 +68,25 @@ describe("the designer's workbench in chromium", () => {
     expect(s.outside).toEqual([]);
   });
 
+  it("lets the designer rename and archive a design from the workspace home", async () => {
+    const { page } = s;
+    await page.goto(`${BASE_URL}/w/ferrow-controls`);
+    const row = page.locator('[data-testid="design-table"] tbody tr', { hasText: "Weir sluice" }).first();
+    await row.getByRole("button", { name: "Rename" }).click();
+    const renamed = `Weir sluice permit ${Date.now()}`;
+    const field = page.locator('[data-testid="design-table"] input[aria-label^="New name for Weir sluice"]');
+    await field.fill(renamed);
+    await field.press("Enter");
+    await expect.poll(() => page.getByRole("link", { name: renamed }).count(), { timeout: 10_000 }).toBe(1);
+    const current = page.locator('[data-testid="design-table"] tbody tr', { hasText: renamed });
+    await current.getByRole("button", { name: "Archive" }).click();
+    await expect.poll(() => page.getByRole("link", { name: renamed }).count(), { timeout: 10_000 }).toBe(0);
+    await page.getByLabel("Archived").check();
+    await expect.poll(() => page.getByRole("link", { name: renamed }).count(), { timeout: 10_000 }).toBe(1);
+    await page.getByLabel("Archived").uncheck();
+    expect(s.outside).toEqual([]);
+  });
+
   it("draws the schematic with one symbol per netlist gate, the critical path marked", async () => {
     const { page } = s;
     await page.goto(`${BASE_URL}/w/ferrow-controls`);

@@ -1,7 +1,7 @@
-import { redirect } from "next/navigation";
 import { getServerSession } from "next-auth";
 import Link from "next/link";
 import { authOptions } from "@/lib/auth/options";
+import { requireSignedIn } from "@/lib/auth/session";
 import { SiteHeader } from "@/components/ui/SiteHeader";
 import { SignOutButton } from "@/components/ui/SignOutButton";
 import { Providers } from "@/components/ui/Providers";
@@ -11,13 +11,13 @@ export const dynamic = "force-dynamic";
 
 export default async function WorkspaceLayout({ children, params }: { children: React.ReactNode; params: Promise<{ ws: string }> }) {
   const { ws } = await params;
+  await requireSignedIn(`/w/${encodeURIComponent(ws)}`);
   const session = await getServerSession(authOptions);
-  if (!session?.user) redirect(`/signin?callbackUrl=/w/${encodeURIComponent(ws)}`);
   return (
     <Providers>
       <SiteHeader>
         <Link href="/account" className="text-graphite hover:text-ink">
-          {session.user.email}
+          {session?.user?.email}
         </Link>
         <SignOutButton />
       </SiteHeader>
