@@ -57,10 +57,14 @@ async function main(argv: string[]): Promise<number> {
   }
 }
 
+// Set the exit code and let Node drain stdout: process.exit() here would cut a
+// piped write short (a pipe takes 64 KiB at a time).
 main(process.argv.slice(2)).then(
-  (code) => process.exit(code),
+  (code) => {
+    process.exitCode = code;
+  },
   (e: unknown) => {
     io.err(e instanceof Error ? (e.stack ?? e.message) : String(e));
-    process.exit(2);
+    process.exitCode = 2;
   },
 );
