@@ -1,4 +1,8 @@
-/** The JSON netlist document the CLI prints and the API returns. */
+/**
+ * The JSON netlist document the CLI prints and the API returns. Its delay,
+ * power and load figures are estimates, so the document carries the
+ * analysis's caution beside them.
+ */
 import type { Analysis } from "../analysis/index";
 import type { GateType, Netlist } from "../map/netlist";
 
@@ -19,6 +23,8 @@ export interface NetlistDocument {
     maxLoad: number;
   };
   warnings: string[];
+  /** Why the stats' delay, power and load figures are estimates only (the analysis's caution text). */
+  caution: string;
 }
 
 /** Builds the document; `warnings` are the mapper's and the analysis's together. */
@@ -40,5 +46,6 @@ export function toJsonDocument(netlist: Netlist, analysis: Analysis, warnings: s
       maxLoad: analysis.maxLoad,
     },
     warnings,
+    caution: analysis.caution,
   };
 }

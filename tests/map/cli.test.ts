@@ -20,7 +20,10 @@ describe("map command", () => {
     const t = io();
     expect(await mapRun(["design.fnb", "--family", "ttl-std-5v", "--form", "nand"], t.io)).toBe(0);
     const doc = JSON.parse(t.out.join(""));
-    expect(Object.keys(doc).sort()).toEqual(["gates", "inputs", "outputs", "stats", "warnings"]);
+    // the documented CLI shape, plus the caution that goes with its delay and power figures
+    expect(Object.keys(doc).sort()).toEqual(["caution", "gates", "inputs", "outputs", "stats", "warnings"]);
+    expect(Object.keys(doc.stats).sort()).toEqual(["byType", "criticalPathNs", "depth", "dynamicMw", "gates", "maxLoad", "packages", "staticMw", "transistors"]);
+    expect(doc.caution).toMatch(/data sheets/);
     for (const g of doc.gates) expect(["NAND", "NOT", "BUF"]).toContain(g.type);
     expect(doc.stats.gates).toBe(doc.gates.length);
     // the netlist equals the compiled specification on every care minterm (reference evaluation here)
