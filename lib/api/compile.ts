@@ -4,9 +4,9 @@ import "server-only";
  * record in; diagnostics, covers, netlist, analysis and the figures a revision
  * stores out. Compile limits become a 422 naming the limit.
  *
- * Small designs (up to IN_THREAD_MAX_INPUTS inputs) minimize in-thread, where
- * a run takes milliseconds and a worker's start (about 350 ms) would dominate.
- * Larger ones go to a worker thread with the wall-clock budget and the
+ * Small designs minimize in-thread, where a run takes milliseconds and a
+ * worker's start (about 350 ms) would dominate. Larger ones go to a worker
+ * thread — at most WORKER_SLOTS at once — with the wall-clock budget and the
  * request's abort signal, so a long run neither holds the server nor outlives
  * the client that asked for it.
  */
@@ -57,18 +57,66 @@ export function asCompileError(e: unknown): unknown {
   return e;
 }
 
-/** Designs with at most this many inputs minimize on the request's own thread. */
-export const IN_THREAD_MAX_INPUTS = 10;
+/**
+ * Designs this small (inputs and outputs both at most 8) minimize on the
+ * request's own thread in milliseconds, with a short budget of their own;
+ * everything else goes to a worker thread, so no request holds the server.
+ */
+export const IN_THREAD_MAX_INPUTS = 8;
+export const IN_THREAD_MAX_OUTPUTS = 8;
+const IN_THREAD_BUDGET_MS = 2_000;
+
+/** At most this many minimizations run on workers at once (the machine has few cores); the rest wait their turn. */
+export const WORKER_SLOTS = 2;
 
 /** The worker's entry on disk; the server bundle cannot hold it, the source tree does. */
 const WORKER_BOOT = path.join(process.cwd(), "lib/minimize/worker-boot.mjs");
 
-function runMinimize(spec: FunctionSpec, options: MinimizeOptions, signal?: AbortSignal): Promise<MinimizeResult> | MinimizeResult {
-  const opts = { ...options, timeLimitMs: COMPILE_BUDGET_MS };
-  if (spec.inputs.length <= IN_THREAD_MAX_INPUTS) return minimize(spec, opts);
-  // The worker's own budget is a little longer than the minimizer's, so the
-  // exact route's fallback to the heuristic gets to answer first.
-  return minimizeInWorker(spec, opts, { budgetMs: COMPILE_BUDGET_MS + 5_000, bootFile: WORKER_BOOT, ...(signal ? { signal } : {}) });
+const slots = { busy: 0, waiting: [] as Array<() => void> };
+
+/** Waits for a free worker slot; a cancelled request leaves the queue. */
+function acquireSlot(signal?: AbortSignal): Promise<() => void> {
+  const release = () => {
+    slots.busy--;
+    slots.waiting.shift()?.();
+  };
+  if (slots.busy < WORKER_SLOTS) {
+    slots.busy++;
+    return Promise.resolve(release);
+  }
+  return new Promise((resolve, reject) => {
+    const go = () => {
+      signal?.removeEventListener("abort", onAbort);
+      slots.busy++;
+      resolve(release);
+    };
+    const onAbort = () => {
+      slots.waiting = slots.waiting.filter((w) => w !== go);
+      reject(new LimitError("aborted", 0, "the run was cancelled while it waited for a free worker", "Start it again when needed."));
+    };
+    signal?.addEventListener("abort", onAbort, { once: true });
+    slots.waiting.push(go);
+  });
+}
+
+export function runsInThread(spec: FunctionSpec): boolean {
+  return spec.inputs.length <= IN_THREAD_MAX_INPUTS && spec.outputs.length <= IN_THREAD_MAX_OUTPUTS;
+}
+
+async function runMinimize(spec: FunctionSpec, options: MinimizeOptions, signal?: AbortSignal): Promise<MinimizeResult> {
+  if (runsInThread(spec)) return minimize(spec, { ...options, timeLimitMs: IN_THREAD_BUDGET_MS });
+  const release = await acquireSlot(signal);
+  try {
+    // The worker's own budget is a little longer than the minimizer's, so the
+    // exact route's fallback to the heuristic gets to answer first.
+    return await minimizeInWorker(spec, { ...options, timeLimitMs: COMPILE_BUDGET_MS }, {
+      budgetMs: COMPILE_BUDGET_MS + 5_000,
+      bootFile: WORKER_BOOT,
+      ...(signal ? { signal } : {}),
+    });
+  } finally {
+    release();
+  }
 }
 
 /**

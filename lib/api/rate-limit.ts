@@ -74,8 +74,12 @@ function make() {
     signUp: new RateLimiter({ capacity: 5, refillPerSecond: 1 / 60 }),
     /** Mails sent on request (links, resets), per IP and e-mail: 5 at once, then one per minute. */
     mail: new RateLimiter({ capacity: 5, refillPerSecond: 1 / 60 }),
-    /** Compilations per user (including revision saves): 30 at once, then one per second. */
-    compile: new RateLimiter({ capacity: 30, refillPerSecond: 1 }),
+    /**
+     * Compilations per user (including revision saves): 60 at once, then three per
+     * second — the workbench compiles after each pause in typing (350 ms), so
+     * steady typing stays inside the limit while a script hammering the API does not.
+     */
+    compile: new RateLimiter({ capacity: 60, refillPerSecond: 3 }),
   };
 }
 
