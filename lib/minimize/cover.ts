@@ -31,19 +31,26 @@ export interface CoverSolution {
   exact: boolean;
 }
 
-function popcount(x: number): number {
-  x = x - ((x >>> 1) & 0x55555555);
-  x = (x & 0x33333333) + ((x >>> 2) & 0x33333333);
-  return (((x + (x >>> 4)) & 0x0f0f0f0f) * 0x01010101) >>> 24;
+/** Rows → columns, flattened: the columns of row r are cols[start[r] .. start[r + 1]), ascending. */
+export function rowColumns(colRows: Int32Array[], rowCount: number): { start: Int32Array; cols: Int32Array } {
+  const start = new Int32Array(rowCount + 1);
+  for (const rs of colRows) for (let i = 0; i < rs.length; i++) start[rs[i]! + 1]!++;
+  for (let r = 0; r < rowCount; r++) start[r + 1]! += start[r]!;
+  const fill = start.slice(0, rowCount);
+  const cols = new Int32Array(start[rowCount]!);
+  for (let c = 0; c < colRows.length; c++) {
+    const rs = colRows[c]!;
+    for (let i = 0; i < rs.length; i++) cols[fill[rs[i]!]!++] = c;
+  }
+  return { start, cols };
 }
 
 export function solveCover(p: CoverProblem): CoverSolution {
   const C = p.colRows.length;
   const R = p.rowCount;
-  const rowCols: number[][] = Array.from({ length: R }, () => []);
-  for (let c = 0; c < C; c++) for (const r of p.colRows[c]!) rowCols[r]!.push(c);
+  const rc = rowColumns(p.colRows, R);
   for (let r = 0; r < R; r++) {
-    if (rowCols[r]!.length === 0) throw new Error(`internal: row ${r} has no covering prime`);
+    if (rc.start[r + 1] === rc.start[r]) throw new Error(`internal: row ${r} has no covering prime`);
   }
   // Sparse essentials, repeated: taking an essential can make no new essentials
   // without column removal, so one pass suffices here.
@@ -52,8 +59,8 @@ export function solveCover(p: CoverProblem): CoverSolution {
   const taken = new Uint8Array(C);
   let base = 0;
   for (let r = 0; r < R; r++) {
-    if (covered[r] || rowCols[r]!.length !== 1) continue;
-    const c = rowCols[r]![0]!;
+    if (covered[r] || rc.start[r + 1]! - rc.start[r]! !== 1) continue;
+    const c = rc.cols[rc.start[r]!]!;
     if (!taken[c]) {
       taken[c] = 1;
       chosen.push(c);
@@ -93,9 +100,13 @@ export function solveCover(p: CoverProblem): CoverSolution {
 /** Dominance tests at inner nodes: bit 0 columns, bit 1 rows (the root always runs both). */
 let NODE_DOMINANCE = 1;
 const ROOT_ITERS = 600;
-const NODE_ITERS = 100;
-/** Subgradient steps without improvement before the step size halves. */
-const STALL = 15;
+/**
+ * Search settings, exported so that experiments can vary them: subgradient
+ * steps at inner nodes, steps without improvement before the step size
+ * halves, the first step size at inner nodes, and the depth down to which the
+ * Lagrangian primal heuristic runs (every `heurEvery` steps).
+ */
+export const TUNING = { nodeIters: 100, stall: 15, nodeLambda: 2, heurDepth: 0, heurEvery: 25 };
 export function setNodeDominance(d: number): void {
   NODE_DOMINANCE = d;
 }
@@ -117,6 +128,8 @@ class BranchAndBound {
   private gBuf = new Float64Array(0);
   aborted = false;
   nodes = 0;
+  /** Best bound proven at the root of the search (kept for a search cut short). */
+  rootBound = -Infinity;
 
   constructor(
     readonly R: number,
@@ -177,21 +190,12 @@ class BranchAndBound {
       const lb = Math.min(this.best, Math.max(this.bound(rowsA, colsA).lb, Math.ceil(lag.lb - 1e-6)));
       return { chosen: this.bestChosen, weight: this.best, lowerBound: lb, exact: lb === this.best };
     }
-    const picked: number[] = [];
-    const rootRows = rowsA.slice();
-    const rootCols = colsA.slice();
-    const add = this.reduce(rootRows, rootCols, picked);
-    let rootBound = add + this.bound(rootRows, rootCols).lb;
-    if (add >= 0) {
-      const lag = this.lagrange(rootRows, rootCols, u.slice(), ROOT_ITERS, this.best - add, this.card < 0 ? -1 : this.card - picked.length);
-      rootBound = Math.max(rootBound, add + Math.ceil(lag.lb - 1e-6));
-    }
     this.search(rowsA, colsA, 0, [], u, 0);
     const exact = !this.aborted;
     return {
       chosen: this.bestChosen,
       weight: this.best,
-      lowerBound: exact ? this.best : Math.min(this.best, rootBound),
+      lowerBound: exact ? this.best : Math.min(this.best, Math.max(0, this.rootBound)),
       exact,
     };
   }
@@ -452,6 +456,8 @@ class BranchAndBound {
     gapTarget: number,
     /** Column budget K ≥ 0 relaxed with the multiplier u[R], or -1. */
     K = -1,
+    /** When given, the primal heuristic runs on improving multipliers and the target follows the incumbent. */
+    heur?: { cost: number; here: number[] },
   ): { lb: number; rc: Float64Array; liveCols: number[] } {
     const liveRows: number[] = [];
     for (let k = 0; k < this.WR; k++) {
@@ -494,9 +500,10 @@ class BranchAndBound {
     const bestRc = new Float64Array(C);
     const g = this.gBuf;
     let best = -Infinity;
-    let lambda = 2;
+    let lambda = iters === ROOT_ITERS ? 2 : TUNING.nodeLambda;
     let stall = 0;
     const R = this.R;
+    let lastHeur = -Infinity;
     for (let it = 0; it < iters; it++) {
       let L = 0;
       for (const r of liveRows) {
@@ -524,13 +531,19 @@ class BranchAndBound {
         best = L;
         for (const c of liveCols) bestRc[c] = rc[c]!;
         stall = 0;
-      } else if (++stall >= STALL) {
+      } else if (++stall >= TUNING.stall) {
         lambda /= 2;
         stall = 0;
       }
+      if (heur && it % TUNING.heurEvery === TUNING.heurEvery - 1 && best > lastHeur) {
+        lastHeur = best;
+        this.lagHeuristic(rowsA, colsA, bestRc, liveCols, heur.cost, heur.here);
+        gapTarget = Math.min(gapTarget, this.best - heur.cost);
+      }
       let norm = gmu * gmu;
       for (const r of liveRows) norm += g[r]! * g[r]!;
-      if (norm === 0 || best >= gapTarget - 1e-6) break;
+      // Weights are integers: a bound within 1 of the target already closes the gap.
+      if (norm === 0 || Math.ceil(best - 1e-6) >= gapTarget) break;
       const target = Number.isFinite(gapTarget) ? gapTarget : 1.05 * Math.abs(L) + 1;
       const t = (lambda * (target - L)) / norm;
       for (const r of liveRows) {
@@ -541,6 +554,83 @@ class BranchAndBound {
       if (lambda < 1e-4) break;
     }
     return { lb: best, rc: bestRc, liveCols };
+  }
+
+  /**
+   * Lagrangian primal heuristic: the columns of negative reduced cost, then
+   * the cheapest per newly covered row, then redundant columns dropped
+   * (costliest first). Offers the result as incumbent when it beats it.
+   */
+  private lagHeuristic(rowsA: Uint32Array, colsA: Uint32Array, rc: Float64Array, liveCols: number[], cost: number, here: number[]): void {
+    const need = rowsA.slice();
+    const isNeeded = (r: number) => ((need[r >>> 5]! >>> (r & 31)) & 1) === 1;
+    const chosen: number[] = [];
+    const order = liveCols.slice().sort((a, b) => rc[a]! - rc[b]!);
+    const takeCol = (c: number) => {
+      chosen.push(c);
+      const l = this.cols[c]!;
+      for (let i = 0; i < l.length; i++) need[l[i]! >>> 5]! &= ~(1 << (l[i]! & 31));
+    };
+    for (const c of order) {
+      if (rc[c]! >= 0) break;
+      const l = this.cols[c]!;
+      for (let i = 0; i < l.length; i++) {
+        if (isNeeded(l[i]!)) {
+          takeCol(c);
+          break;
+        }
+      }
+    }
+    const tmp: number[] = [];
+    for (let k = 0; k < this.WR; k++) {
+      while (need[k]! !== 0) {
+        const x = need[k]!;
+        const r = k * 32 + 31 - Math.clz32(x & -x);
+        this.colsOfRow(r, colsA, tmp);
+        if (tmp.length === 0) return;
+        let bestC = -1;
+        let bestScore = Infinity;
+        for (const c of tmp) {
+          let fresh = 0;
+          const l = this.cols[c]!;
+          for (let i = 0; i < l.length; i++) if (isNeeded(l[i]!)) fresh++;
+          const score = (this.w[c]! + Math.max(0, rc[c]!)) / fresh;
+          if (score < bestScore) {
+            bestScore = score;
+            bestC = c;
+          }
+        }
+        takeCol(bestC);
+      }
+    }
+    // Redundant columns, costliest first; only live rows count.
+    const count = new Int32Array(this.R);
+    for (const c of chosen) for (const r of this.cols[c]!) count[r]!++;
+    chosen.sort((a, b) => this.w[b]! - this.w[a]! || rc[b]! - rc[a]!);
+    let w = cost;
+    const kept: number[] = [];
+    for (const c of chosen) {
+      const l = this.cols[c]!;
+      let redundant = true;
+      for (let i = 0; i < l.length; i++) {
+        const r = l[i]!;
+        if (((rowsA[r >>> 5]! >>> (r & 31)) & 1) && count[r]! < 2) {
+          redundant = false;
+          break;
+        }
+      }
+      if (redundant) {
+        for (let i = 0; i < l.length; i++) count[l[i]!]!--;
+      } else {
+        kept.push(c);
+        w += this.w[c]!;
+      }
+    }
+    if (this.card >= 0 && here.length + kept.length > this.card) return;
+    if (w < this.best) {
+      this.best = w;
+      this.bestChosen = here.concat(kept);
+    }
   }
 
   private search(rowsA: Uint32Array, colsA: Uint32Array, cost: number, chosen: number[], u: Float64Array, depth: number): void {
@@ -567,8 +657,13 @@ class BranchAndBound {
     }
     if (cost + lb >= this.best) return;
     // Lagrangian bound and reduced-cost fixing.
-    const lag = this.lagrange(rowsA, colsA, u, depth === 0 ? ROOT_ITERS : NODE_ITERS, this.best - cost, K);
+    const lag = this.lagrange(rowsA, colsA, u, depth === 0 ? ROOT_ITERS : TUNING.nodeIters, this.best - cost, K, depth <= TUNING.heurDepth ? { cost, here } : undefined);
     if (cost + Math.ceil(lag.lb - 1e-6) >= this.best) return;
+    if (depth === 0) this.rootBound = Math.max(this.rootBound, cost + lb, cost + Math.ceil(lag.lb - 1e-6));
+    if (depth <= TUNING.heurDepth) {
+      this.lagHeuristic(rowsA, colsA, lag.rc, lag.liveCols, cost, here);
+      if (cost + Math.ceil(lag.lb - 1e-6) >= this.best) return;
+    }
     let fixed = false;
     for (const c of lag.liveCols) {
       const r = lag.rc[c]!;

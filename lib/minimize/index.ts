@@ -15,10 +15,10 @@ import { MAX_INPUTS, TRUTH_TABLE_MAX_INPUTS, fullMask, popcount, tableFromCubes,
 import { verifyCovers } from "../verify";
 import { independentPoints, tableOracle, cubeOracle, type BoundPoint } from "./bound";
 import { PRODUCT_WEIGHT, boundFromSurrogate, columnWeight, designCost, gatesFor, validateModel } from "./cost";
-import { solveCover } from "./cover";
+import { rowColumns, solveCover } from "./cover";
 import { formatCover } from "./expression";
 import { HeuristicTimeout, heuristicCover } from "./heuristic";
-import { ExactLimit, taggedPrimes, type TaggedPrime } from "./primes";
+import { DENSE_MAX_INPUTS, ExactLimit, denseTaggedPrimes, taggedPrimes, type TaggedPrime } from "./primes";
 import type { CostModel, MinimizeOptions, MinimizeResult, MinimizedOutput } from "./types";
 import { LimitError } from "./types";
 import { complement, mergeAlongVariables, primesOfCover } from "./unate";
@@ -132,11 +132,12 @@ function cubeKey(c: Cube): number {
 /** Per output, drop chosen terms that the output's other terms already cover, costliest first. */
 function assignTerms(n: number, targets: Target[], chosen: TaggedPrime[]): Cube[][] {
   const full = fullMask(n);
+  // How many candidate terms cover each ON point; reset after each output through the point lists.
+  const count = new Int32Array(2 ** n);
   return targets.map((t, j) => {
     const bit = 1 << j;
     const cand = chosen.filter((p) => (p.tag & bit) !== 0);
     const onT = t.onT!;
-    const count = new Map<number, number>();
     const pts = cand.map((p) => {
       const list: number[] = [];
       const free = (full & ~p.mask) >>> 0;
@@ -145,7 +146,7 @@ function assignTerms(n: number, targets: Target[], chosen: TaggedPrime[]): Cube[
         const m = (p.value | sub) >>> 0;
         if ((onT[m >>> 5]! >>> (m & 31)) & 1) {
           list.push(m);
-          count.set(m, (count.get(m) ?? 0) + 1);
+          count[m]!++;
         }
         if (sub === free) break;
         sub = ((sub - free) & free) >>> 0;
@@ -153,14 +154,23 @@ function assignTerms(n: number, targets: Target[], chosen: TaggedPrime[]): Cube[
       return list;
     });
     const order = cand.map((_, i) => i).sort((a, b) => popcount(cand[b]!.mask) - popcount(cand[a]!.mask));
-    const keep = new Set(order);
+    const keep = new Uint8Array(cand.length).fill(1);
     for (const i of order) {
-      if (pts[i]!.every((m) => count.get(m)! > 1)) {
-        keep.delete(i);
-        for (const m of pts[i]!) count.set(m, count.get(m)! - 1);
+      const list = pts[i]!;
+      let redundant = true;
+      for (let k = 0; k < list.length; k++) {
+        if (count[list[k]!]! <= 1) {
+          redundant = false;
+          break;
+        }
+      }
+      if (redundant) {
+        keep[i] = 0;
+        for (let k = 0; k < list.length; k++) count[list[k]!]!--;
       }
     }
-    return cand.filter((_, i) => keep.has(i)).map((p) => ({ value: p.value, mask: p.mask }));
+    for (const list of pts) for (let k = 0; k < list.length; k++) count[list[k]!] = 0;
+    return cand.filter((_, i) => keep[i] === 1).map((p) => ({ value: p.value, mask: p.mask }));
   });
 }
 
@@ -203,9 +213,45 @@ function buildProblem(
     return tag;
   };
   let all: TaggedPrime[];
+  // The dense table costs 3^n whatever the function; the tables cost what they hold, little when few care points are adjacent.
+  const pairs = n < 6 ? Infinity : adjacentPairs(care, n);
+  if (n <= DENSE_MAX_INPUTS && pairs > 2 ** (n - 1)) {
+    all = denseTaggedPrimes(n, tagOf, limits);
+  } else {
+    all = tablePrimes(n, targets, words, minterms, tagOf, limits, pairs <= 2 ** (n - 1));
+  }
+  return problemFromPrimes(n, targets, model, all);
+}
+
+/** Pairs of care points one variable apart (n ≥ 5, bit-parallel over the table). */
+function adjacentPairs(care: Uint32Array, n: number): number {
+  let pairs = 0;
+  const low = [0x55555555, 0x33333333, 0x0f0f0f0f, 0x00ff00ff, 0x0000ffff];
+  for (let i = 0; i < Math.min(n, 5); i++) {
+    const sh = 1 << i;
+    for (let w = 0; w < care.length; w++) pairs += popcount(care[w]! & (care[w]! >>> sh) & low[i]!);
+  }
+  for (let i = 5; i < n; i++) {
+    const s = 1 << (i - 5);
+    for (let w = 0; w < care.length; w++) if ((w & s) === 0) pairs += popcount(care[w]! & care[w + s]!);
+  }
+  return pairs;
+}
+
+function tablePrimes(
+  n: number,
+  targets: Target[],
+  words: number,
+  minterms: ArrayLike<number>,
+  tagOf: (m: number) => number,
+  limits: { maxPrimes: number; maxImplicants: number; deadline: number },
+  /** Few adjacent care points: the tables stay small, no need to estimate. */
+  sparse: boolean,
+): TaggedPrime[] {
+  let all: TaggedPrime[];
   // A cube of d free variables holds 3^d implicants the tables would list: skip them when that is hopeless.
   let estimate = 0;
-  for (const t of targets) {
+  for (const t of sparse ? [] : targets) {
     const ct = new Uint32Array(words);
     for (let w = 0; w < words; w++) ct[w] = t.onT![w]! | t.dcT![w]!;
     for (const c of compactCover(ct, n)) estimate = Math.max(estimate, 3 ** (n - popcount(c.mask)));
@@ -218,6 +264,10 @@ function buildProblem(
     if (!(e instanceof ExactLimit) || e.limit !== "implicants") throw e;
     all = recursivePrimes(n, targets, limits);
   }
+  return all;
+}
+
+function problemFromPrimes(n: number, targets: Target[], model: CostModel, all: TaggedPrime[]): CoveringProblem & { rowOf: Map<number, number>[] } {
   const full = fullMask(n);
   const rowOf = targets.map(() => new Map<number, number>());
   let rowCount = 0;
@@ -332,11 +382,16 @@ function recursivePrimes(
  */
 export function coveringProblem(spec: FunctionSpec, options: { cost?: CostModel; form?: "sop" | "pos" } = {}): CoveringProblem {
   const n = spec.inputs.length;
-  const p = buildProblem(n, buildTargets(spec, options.form ?? "sop"), options.cost ?? DEFAULTS.cost, {
-    maxPrimes: Infinity,
-    maxImplicants: Infinity,
-    deadline: Infinity,
-  });
+  const targets = buildTargets(spec, options.form ?? "sop");
+  const model = options.cost ?? DEFAULTS.cost;
+  // Same prime generation as minimize() (tables, or the recursive rule where the tables would explode), without its limits.
+  let p: ReturnType<typeof buildProblem>;
+  try {
+    p = buildProblem(n, targets, model, { maxPrimes: Infinity, maxImplicants: DEFAULTS.maxImplicants, deadline: Infinity });
+  } catch (e) {
+    if (!(e instanceof ExactLimit)) throw e;
+    p = buildProblem(n, targets, model, { maxPrimes: Infinity, maxImplicants: Infinity, deadline: Infinity });
+  }
   return { primes: p.primes, columns: p.columns, colRows: p.colRows, weight: p.weight, rowCount: p.rowCount };
 }
 
@@ -370,36 +425,89 @@ function lexicographicCover(prob: CoveringProblem, model: CostModel, deadline: n
  * literal search a good first incumbent.
  */
 function swapForFewerLiterals(chosen: number[], colRows: Int32Array[], lits: number[], rowCount: number): number[] {
-  const rowCols: number[][] = Array.from({ length: rowCount }, () => []);
-  colRows.forEach((rs, c) => {
-    for (const r of rs) rowCols[r]!.push(c);
-  });
+  const { start, cols } = rowColumns(colRows, rowCount);
   const count = new Int32Array(rowCount);
   const cur = chosen.slice();
-  const inCover = new Set(cur);
+  const inCover = new Uint8Array(colRows.length);
+  for (const c of cur) inCover[c] = 1;
   for (const c of cur) for (const r of colRows[c]!) count[r]!++;
+  // mark[r] === stamp: row r is one of the rows only the column under study covers.
+  const mark = new Int32Array(rowCount);
+  let stamp = 0;
+  const own: number[] = [];
   for (let improved = true; improved; ) {
     improved = false;
     for (let i = 0; i < cur.length; i++) {
       const c = cur[i]!;
-      const own = Array.from(colRows[c]!).filter((r) => count[r] === 1);
+      own.length = 0;
+      stamp++;
+      for (const r of colRows[c]!) {
+        if (count[r] === 1) {
+          own.push(r);
+          mark[r] = stamp;
+        }
+      }
       if (own.length === 0) continue;
       let best = -1;
-      for (const d of rowCols[own[0]!]!) {
-        if (d === c || inCover.has(d) || lits[d]! >= lits[best < 0 ? c : best]!) continue;
+      const r0 = own[0]!;
+      for (let q = start[r0]!; q < start[r0 + 1]!; q++) {
+        const d = cols[q]!;
+        if (d === c || inCover[d] || lits[d]! >= lits[best < 0 ? c : best]!) continue;
         const rs = colRows[d]!;
-        if (own.every((r) => rs.includes(r))) best = d;
+        let hits = 0;
+        for (let k = 0; k < rs.length; k++) if (mark[rs[k]!] === stamp) hits++;
+        if (hits === own.length) best = d;
       }
       if (best < 0) continue;
       for (const r of colRows[c]!) count[r]!--;
       for (const r of colRows[best]!) count[r]!++;
-      inCover.delete(c);
-      inCover.add(best);
+      inCover[c] = 0;
+      inCover[best] = 1;
       cur[i] = best;
       improved = true;
     }
   }
   return cur;
+}
+
+/**
+ * Per output, a bound on its cost as if it stood alone: a greedy set of its
+ * rows no column covers two of (fewest columns first), each charged its
+ * cheapest column. Rows of one output are numbered consecutively.
+ */
+function outputAloneBounds(prob: CoveringProblem & { rowOf: Map<number, number>[] }, model: CostModel): number[] {
+  const { colRows, weight, rowCount } = prob;
+  const { start, cols } = rowColumns(colRows, rowCount);
+  const blocked = new Int32Array(rowCount);
+  const colDone = new Int32Array(colRows.length);
+  let first = 0;
+  return prob.rowOf.map((map, j) => {
+    const lo = first;
+    const count = map.size;
+    first += count;
+    if (count === 0) return 0;
+    const stamp = j + 1;
+    // Fewest columns first; ties in row order (keys are unique, so a plain numeric sort does it).
+    const keys = new Float64Array(count);
+    for (let i = 0; i < count; i++) keys[i] = (start[lo + i + 1]! - start[lo + i]!) * 2 ** 24 + i;
+    keys.sort();
+    let w = 0;
+    for (let k = 0; k < count; k++) {
+      const r = lo + (keys[k]! % 2 ** 24);
+      if (blocked[r] === stamp) continue;
+      let m = Infinity;
+      for (let q = start[r]!; q < start[r + 1]!; q++) {
+        const c = cols[q]!;
+        if (weight[c]! < m) m = weight[c]!;
+        if (colDone[c] === stamp) continue;
+        colDone[c] = stamp;
+        const rs = colRows[c]!;
+        for (let i = 0; i < rs.length; i++) blocked[rs[i]!] = stamp;
+      }
+      w += m;
+    }
+    return boundFromSurrogate(model, w, 1);
+  });
 }
 
 /** Exact route over a group of outputs sharing terms. Throws ExactLimit beyond its limits. */
@@ -410,7 +518,7 @@ function exactGroup(
   limits: { maxPrimes: number; maxImplicants: number; deadline: number },
 ): Solved {
   const prob = buildProblem(n, targets, model, limits);
-  const { colRows, weight, rowCount } = prob;
+  const { rowCount } = prob;
   const all = prob.primes;
   const cols = prob.columns;
   const rowOf = prob.rowOf.map((map, j) => ({ t: targets[j]!, map }));
@@ -420,33 +528,7 @@ function exactGroup(
   const cost = costOfCovers(model, covers);
   const bound = Math.min(cost, boundFromSurrogate(model, sol.lowerBound, live));
   // Per output: independent rows of that output alone, each charged its cheapest column.
-  const outputBounds = targets.map((_, j) => {
-    const rows = [...rowOf[j]!.map.values()];
-    if (rows.length === 0) return 0;
-    const colsOfRow = new Map<number, number[]>();
-    colRows.forEach((rs, c) => {
-      for (const r of rs) {
-        if (rowOf[j]!.map.size && r >= rows[0]! && r <= rows[rows.length - 1]!) {
-          let l = colsOfRow.get(r);
-          if (!l) colsOfRow.set(r, (l = []));
-          l.push(c);
-        }
-      }
-    });
-    rows.sort((a, b) => colsOfRow.get(a)!.length - colsOfRow.get(b)!.length);
-    const blocked = new Set<number>();
-    let w = 0;
-    for (const r of rows) {
-      if (blocked.has(r)) continue;
-      let m = Infinity;
-      for (const c of colsOfRow.get(r)!) {
-        m = Math.min(m, weight[c]!);
-        for (const rr of colRows[c]!) blocked.add(rr);
-      }
-      w += m;
-    }
-    return boundFromSurrogate(model, w, 1);
-  });
+  const outputBounds = outputAloneBounds(prob, model);
   return {
     covers,
     exact: sol.exact && cost === bound,

@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { cubeToString, fullMask, minterm, type FunctionSpec } from "../../lib/logic";
 import { minimize } from "../../lib/minimize";
+import { denseTaggedPrimes, taggedPrimes } from "../../lib/minimize/primes";
 import { primesOfCover } from "../../lib/minimize/unate";
 import { bruteImplicants, isPrimeFor, randomSpec } from "./helpers";
 
@@ -43,4 +44,39 @@ describe("recursive prime generation", () => {
     expect(r.outputs[0]!.expression).toBe("l13 + l12 + l11 + l10 + l9 + l8");
     expect(r.shared).toBe(6);
   });
+});
+
+describe("dense multi-output prime table", () => {
+  for (const [n, k, seed] of [
+    [5, 3, 81],
+    [6, 2, 82],
+    [6, 3, 83],
+    [7, 1, 84],
+  ] as const) {
+    it(`equals brute-force multi-output primes on ${n} inputs, ${k} outputs (seed ${seed})`, () => {
+      const spec = randomSpec(n, k, seed, 0.45, 0.15);
+      const imps = bruteImplicants(spec);
+      const tagOfCube = new Map(imps.map((p) => [`${p.cube.value}/${p.cube.mask}`, p.tag]));
+      // Reference: the test's own enumeration; a multi-output prime is an implicant no one-literal
+      // expansion keeps with its whole tag (it is then prime for the product of its tag's outputs).
+      const want = imps
+        .filter((p) => {
+          for (let b = 0; b < n; b++) {
+            if (!(p.cube.mask & (1 << b))) continue;
+            const up = tagOfCube.get(`${p.cube.value & ~(1 << b)}/${p.cube.mask & ~(1 << b)}`) ?? 0;
+            if ((up & p.tag) === p.tag) return false;
+          }
+          return true;
+        })
+        .map((p) => `${cubeToString(p.cube, n)}:${p.tag}`)
+        .sort();
+      const tagOfMinterm = (m: number) => tagOfCube.get(`${m}/${fullMask(n)}`) ?? 0;
+      const limits = { maxPrimes: Infinity, maxImplicants: Infinity, deadline: Infinity };
+      const dense = denseTaggedPrimes(n, tagOfMinterm, limits).map((p) => `${cubeToString(p, n)}:${p.tag}`).sort();
+      expect(dense).toEqual(want);
+      const minterms = Array.from({ length: 2 ** n }, (_, m) => m);
+      const tables = taggedPrimes(n, minterms, tagOfMinterm, limits).map((p) => `${cubeToString(p, n)}:${p.tag}`).sort();
+      expect(tables).toEqual(want);
+    });
+  }
 });
