@@ -1,4 +1,5 @@
 import "server-only";
+import type { Transaction } from "sequelize";
 import { db } from "../db/connection";
 import { conflict, notFound } from "../api/errors";
 import type { Role } from "../auth/permissions";
@@ -27,20 +28,35 @@ export async function listMembers(p: { actor: Actor | null; slug: string }): Pro
   });
 }
 
-async function ownerCount(workspaceId: string) {
-  return db().models.Membership.count({ where: { workspaceId, role: "owner" } });
+
+/**
+ * Runs a membership change with the workspace row locked, so two owners
+ * stepping down at once are serialised and the last-owner check holds.
+ */
+function underWorkspaceLock<T>(workspaceId: string, fn: (transaction: Transaction) => Promise<T>): Promise<T> {
+  const { sequelize, models } = db();
+  return sequelize.transaction(async (transaction) => {
+    await models.Workspace.findByPk(workspaceId, { lock: transaction.LOCK.UPDATE, transaction });
+    return fn(transaction);
+  });
+}
+
+async function ownerCount(workspaceId: string, transaction: Transaction) {
+  return db().models.Membership.count({ where: { workspaceId, role: "owner" }, transaction });
 }
 
 /** Changes a member's role (owner); the last owner cannot step down (409). */
 export async function updateMemberRole(p: { actor: Actor | null; slug: string; userId: string; role: Role }): Promise<MemberView> {
   const { workspace } = await requireAccess(p.actor, p.slug, "member.manage");
   const { Membership, User } = db().models;
-  const m = await Membership.findOne({ where: { workspaceId: workspace.id, userId: p.userId } });
-  if (!m) throw notFound("member");
-  if (m.role === "owner" && p.role !== "owner" && (await ownerCount(workspace.id)) <= 1) {
-    throw conflict("A workspace needs at least one owner; make someone else owner first.");
-  }
-  await m.update({ role: p.role });
+  const m = await underWorkspaceLock(workspace.id, async (transaction) => {
+    const m = await Membership.findOne({ where: { workspaceId: workspace.id, userId: p.userId }, transaction });
+    if (!m) throw notFound("member");
+    if (m.role === "owner" && p.role !== "owner" && (await ownerCount(workspace.id, transaction)) <= 1) {
+      throw conflict("A workspace needs at least one owner; make someone else owner first.");
+    }
+    return m.update({ role: p.role }, { transaction });
+  });
   const u = (await User.findByPk(p.userId))!;
   return { userId: u.id, email: u.email, name: u.name, role: m.role, joinedAt: iso(m.createdAt)! };
 }
@@ -49,10 +65,12 @@ export async function updateMemberRole(p: { actor: Actor | null; slug: string; u
 export async function removeMember(p: { actor: Actor | null; slug: string; userId: string }): Promise<void> {
   const { workspace } = await requireAccess(p.actor, p.slug, "member.manage");
   const { Membership } = db().models;
-  const m = await Membership.findOne({ where: { workspaceId: workspace.id, userId: p.userId } });
-  if (!m) throw notFound("member");
-  if (m.role === "owner" && (await ownerCount(workspace.id)) <= 1) {
-    throw conflict("A workspace needs at least one owner; make someone else owner first.");
-  }
-  await m.destroy();
+  await underWorkspaceLock(workspace.id, async (transaction) => {
+    const m = await Membership.findOne({ where: { workspaceId: workspace.id, userId: p.userId }, transaction });
+    if (!m) throw notFound("member");
+    if (m.role === "owner" && (await ownerCount(workspace.id, transaction)) <= 1) {
+      throw conflict("A workspace needs at least one owner; make someone else owner first.");
+    }
+    await m.destroy({ transaction });
+  });
 }

@@ -20,7 +20,7 @@ import * as openapi from "@/app/api/v1/openapi.json/route";
 import * as nextauth from "@/app/api/auth/[...nextauth]/route";
 import * as member from "@/app/api/v1/workspaces/[ws]/members/[userId]/route";
 import { encode } from "next-auth/jwt";
-import { SOURCE, builtinFamily, call, counts, makeUser, makeWorkspace, tag, type TestUser } from "./helpers";
+import { SOURCE, builtinFamily, call, counts, makeUser, makeWorkspace, tag, type TestUser, addMember } from "./helpers";
 
 let owner: TestUser;
 let ws: { id: string; slug: string };
@@ -181,6 +181,19 @@ describe("members", () => {
     expect(remove.status).toBe(409);
     const m = await db().models.Membership.findOne({ where: { workspaceId: w.id, userId: o.id } });
     expect(m!.role).toBe("owner");
+  });
+
+  it("two owners stepping down at the same moment leave one owner: the second gets 409", async () => {
+    const a = await makeUser("pair-a");
+    const w = await makeWorkspace("pair", a);
+    const b = await makeUser("pair-b");
+    await addMember(w.id, b, "owner");
+    const [ra, rb] = await Promise.all([
+      call(member.PATCH, "PATCH", "/m", { token: a.token, params: { ws: w.slug, userId: a.id }, body: { role: "designer" } }),
+      call(member.PATCH, "PATCH", "/m", { token: b.token, params: { ws: w.slug, userId: b.id }, body: { role: "designer" } }),
+    ]);
+    expect([ra.status, rb.status].sort()).toEqual([200, 409]);
+    expect(await db().models.Membership.count({ where: { workspaceId: w.id, role: "owner" } })).toBe(1);
   });
 });
 
