@@ -1,4 +1,5 @@
 "use client";
+import { useEffect, useState } from "react";
 import type { FamilyItem } from "@/lib/client/types";
 import type { CostKind, TargetForm, WorkbenchSettings } from "./types";
 
@@ -33,7 +34,6 @@ export function SettingsBar({ families, familyId, onFamily, settings, onChange, 
     else next[k] = v;
     onChange(next);
   };
-  const num = (v: string) => (v.trim() === "" ? undefined : Number(v));
   return (
     <div className="flex flex-wrap items-end gap-x-4 gap-y-2 text-xs text-graphite" data-testid="settings">
       <label className="flex flex-col gap-0.5">
@@ -58,30 +58,18 @@ export function SettingsBar({ families, familyId, onFamily, settings, onChange, 
           {costs.map(([v, l]) => <option key={v} value={v}>{l}</option>)}
         </select>
       </label>
-      <label className="flex flex-col gap-0.5">
-        Fan-in
-        <input type="number" min={2} max={64} className={`${field} w-16`} disabled={readOnly}
-          placeholder={fam ? String(fam.fanIn) : ""} value={settings.fanIn ?? ""}
-          onChange={(e) => set("fanIn", num(e.target.value))} aria-label="Fan-in override" />
-      </label>
-      <label className="flex flex-col gap-0.5">
-        Fan-out
-        <input type="number" min={2} max={1000} className={`${field} w-16`} disabled={readOnly}
-          placeholder={fam ? String(fam.fanOut) : ""} value={settings.fanOut ?? ""}
-          onChange={(e) => set("fanOut", num(e.target.value))} aria-label="Fan-out override" />
-      </label>
-      <label className="flex flex-col gap-0.5">
-        Pin load
-        <input type="number" min={0} step={0.5} className={`${field} w-16`} disabled={readOnly}
-          placeholder="1" value={settings.outputPinLoad ?? ""}
-          onChange={(e) => set("outputPinLoad", num(e.target.value))} aria-label="Output pin load in unit loads" />
-      </label>
-      <label className="flex flex-col gap-0.5">
-        Clock MHz
-        <input type="number" min={0.001} step="any" className={`${field} w-20`} disabled={readOnly}
-          placeholder="10" value={settings.clockMHz ?? ""}
-          onChange={(e) => set("clockMHz", num(e.target.value))} aria-label="Clock for power, MHz" />
-      </label>
+      <NumberField label="Fan-in" aria="Fan-in override" width="w-16" readOnly={readOnly}
+        placeholder={fam ? String(fam.fanIn) : ""} value={settings.fanIn} rule={RULES.fanIn}
+        onValue={(v) => set("fanIn", v)} />
+      <NumberField label="Fan-out" aria="Fan-out override" width="w-16" readOnly={readOnly}
+        placeholder={fam ? String(fam.fanOut) : ""} value={settings.fanOut} rule={RULES.fanOut}
+        onValue={(v) => set("fanOut", v)} />
+      <NumberField label="Pin load" aria="Output pin load in unit loads" width="w-16" readOnly={readOnly}
+        placeholder="1" value={settings.outputPinLoad} rule={RULES.outputPinLoad}
+        onValue={(v) => set("outputPinLoad", v)} />
+      <NumberField label="Clock MHz" aria="Clock for power, MHz" width="w-20" readOnly={readOnly}
+        placeholder="10" value={settings.clockMHz} rule={RULES.clockMHz}
+        onValue={(v) => set("clockMHz", v)} />
       <label className="flex items-center gap-1.5 pb-1">
         <input type="checkbox" disabled={readOnly} checked={settings.complementedInputs ?? false}
           onChange={(e) => set("complementedInputs", e.target.checked || undefined)} />
@@ -93,5 +81,66 @@ export function SettingsBar({ families, familyId, onFamily, settings, onChange, 
         Heuristic only
       </label>
     </div>
+  );
+}
+
+interface Rule {
+  min: number;
+  max: number;
+  integer: boolean;
+  /** What to type instead, said in the field's own terms. */
+  message: string;
+}
+
+/** The same bounds the server's settings schema enforces, said in the designer's terms. */
+const RULES: Record<"fanIn" | "fanOut" | "outputPinLoad" | "clockMHz", Rule> = {
+  fanIn: { min: 2, max: 64, integer: true, message: "Fan-in is a whole number of gate inputs from 2 to 64." },
+  fanOut: { min: 2, max: 10000, integer: true, message: "Fan-out is a whole number of unit loads, at least 2." },
+  outputPinLoad: { min: 0, max: 1000, integer: false, message: "Pin load is in unit loads, from 0 to 1000." },
+  clockMHz: { min: 0.000001, max: 10000, integer: false, message: "The clock is in MHz, above 0 and at most 10 000." },
+};
+
+/**
+ * A numeric override: empty means "the family's figure". What the designer
+ * types stays in the field even when it is not valid yet; only valid values
+ * reach the settings, and the field says what to type instead.
+ */
+function NumberField({ label, aria, width, readOnly, placeholder, value, rule, onValue }: {
+  label: string;
+  aria: string;
+  width: string;
+  readOnly: boolean;
+  placeholder: string;
+  value: number | undefined;
+  rule: Rule;
+  onValue: (v: number | undefined) => void;
+}) {
+  const [text, setText] = useState(value === undefined ? "" : String(value));
+  const [error, setError] = useState<string | null>(null);
+  useEffect(() => {
+    // A value set from outside (a loaded design) replaces what is shown, unless the text already means it.
+    setText((t) => (t.trim() !== "" && Number(t) === value ? t : value === undefined ? "" : String(value)));
+  }, [value]);
+  return (
+    <label className="flex flex-col gap-0.5">
+      {label}
+      <input type="text" inputMode="decimal" className={`${field} ${width} ${error ? "border-vermilion" : ""}`}
+        disabled={readOnly} placeholder={placeholder} value={text} aria-label={aria} aria-invalid={!!error}
+        title={error ?? undefined}
+        onChange={(e) => {
+          const t = e.target.value;
+          setText(t);
+          if (t.trim() === "") {
+            setError(null);
+            onValue(undefined);
+            return;
+          }
+          const v = Number(t);
+          const ok = Number.isFinite(v) && v >= rule.min && v <= rule.max && (!rule.integer || Number.isInteger(v));
+          setError(ok ? null : rule.message);
+          if (ok) onValue(v);
+        }} />
+      {error && <span role="alert" className="max-w-[12rem] text-[11px] leading-tight text-vermilion">{error}</span>}
+    </label>
   );
 }

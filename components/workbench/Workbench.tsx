@@ -62,21 +62,30 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
   const errors = diagnostics.filter((d) => d.severity === "error").length;
 
   // Keep the draft on the server as the designer types, so nothing typed is lost.
+  // The source goes on its own: a setting the server refuses never costs the text.
   const draft = useDebounced({ source, familyId, settings }, 1200);
+  const [draftError, setDraftError] = useState<string | null>(null);
   useEffect(() => {
     if (!mayEdit || !loaded.current || draft.source === null || !designData) return;
     const d = designData.design;
-    if (draft.source === d.draftSource && draft.familyId === d.family.id && JSON.stringify(draft.settings) === JSON.stringify(stripFamily(d.settings ?? {}))) return;
+    const url = `/api/v1/workspaces/${ws}/designs/${designId}`;
+    const sourceChanged = draft.source !== d.draftSource;
+    const settingsChanged = draft.familyId !== d.family.id || JSON.stringify(draft.settings) !== JSON.stringify(stripFamily(d.settings ?? {}));
+    if (!sourceChanged && !settingsChanged) return;
     setDraftState("saving");
-    api<{ design: DesignItem }>(`/api/v1/workspaces/${ws}/designs/${designId}`, {
-      method: "PATCH",
-      json: { draftSource: draft.source, familyId: draft.familyId, settings: draft.settings },
-    })
-      .then((r) => {
+    (async () => {
+      let latest: { design: DesignItem } | null = null;
+      try {
+        if (sourceChanged) latest = await api<{ design: DesignItem }>(url, { method: "PATCH", json: { draftSource: draft.source } });
+        if (settingsChanged) latest = await api<{ design: DesignItem }>(url, { method: "PATCH", json: { familyId: draft.familyId, settings: draft.settings } });
         setDraftState("saved");
-        void mutateDesign(r, { revalidate: false });
-      })
-      .catch(() => setDraftState("failed"));
+        setDraftError(null);
+      } catch (e) {
+        setDraftState("failed");
+        setDraftError(e instanceof ApiError ? e.message : "The server could not be reached; your text stays here and is sent again with the next change.");
+      }
+      if (latest) void mutateDesign(latest, { revalidate: false });
+    })();
   }, [draft, mayEdit, ws, designId, designData, mutateDesign]);
 
   useEffect(() => {
@@ -139,8 +148,9 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
           <CompileStatus pending={compile.pending || compile.isValidating} cancelled={compile.cancelled}
             errors={errors} error={compile.error} onCancel={compile.cancel} />
           {mayEdit && (
-            <span className="text-xs text-graphite" data-testid="draft-state">
-              {draftState === "saving" ? "keeping draft…" : draftState === "failed" ? "draft not kept — check your connection" : draftState === "unsaved" ? "draft changed" : "draft kept"}
+            <span className={`text-xs ${draftState === "failed" ? "text-vermilion" : "text-graphite"}`} data-testid="draft-state"
+              title={draftError ?? undefined}>
+              {draftState === "saving" ? "keeping draft…" : draftState === "failed" ? `draft not kept: ${draftError ?? "try again"}` : draftState === "unsaved" ? "draft changed" : "draft kept"}
             </span>
           )}
           {maySave ? (

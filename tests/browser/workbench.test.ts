@@ -65,6 +65,11 @@ describe("the designer's workbench in chromium", () => {
     const row = page.locator('[data-testid="revision-list"] tr[data-revision="1"]');
     await expect.poll(() => row.innerText(), { timeout: 20_000 }).toContain("Sluice opens whenever the weir is armed");
     await screenshot(page, "workbench-saved");
+
+    // A fan-in the family cannot have is refused at the field, with what to type instead.
+    await page.getByLabel("Fan-in override").fill("1");
+    await expect.poll(() => page.locator('[data-testid="settings"] [role=alert]').innerText()).toMatch(/from 2 to 64/);
+    await page.getByLabel("Fan-in override").fill("");
     expect(s.outside).toEqual([]);
   });
 
