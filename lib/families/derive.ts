@@ -4,7 +4,7 @@
  * value null and says what is missing.
  */
 import type { Family, GateOffer, GateType, GateWidth } from "./types";
-import { GATE_TYPES } from "./types";
+import { GATE_TYPES, MAX_GATE_WIDTH } from "./types";
 
 export interface DerivedFigure {
   value: number | null;
@@ -82,7 +82,8 @@ export function acFanOutFigure(
 export function offeredGates(family: Family): GateOffer[] {
   const cap = family.fanIn;
   if (!family.gates || family.gates.length === 0) {
-    const k = cap ?? DEFAULT_FAN_IN;
+    // validateFamily and the mapper refuse a fan-in above MAX_GATE_WIDTH; the clamp only keeps an unchecked one from building a huge list
+    const k = Math.min(cap ?? DEFAULT_FAN_IN, MAX_GATE_WIDTH);
     const widths: GateWidth[] = [];
     for (let n = 2; n <= k; n++) widths.push({ width: n, perPackage: 1 });
     return GATE_TYPES.map((type) =>

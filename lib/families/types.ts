@@ -11,6 +11,13 @@ export type GateType = "AND" | "OR" | "NAND" | "NOR" | "XOR" | "XNOR" | "NOT" | 
 
 export const GATE_TYPES: readonly GateType[] = ["AND", "OR", "NAND", "NOR", "XOR", "XNOR", "NOT", "BUF"];
 
+/** Widest gate input a family may offer or a user may allow (matches the design settings' fan-in limit). */
+export const MAX_GATE_WIDTH = 64;
+/** Most gates of one width a family may put in one package. */
+export const MAX_PER_PACKAGE = 64;
+/** Largest fan-out a family may set, in unit loads (matches the design settings' limit). */
+export const MAX_FAN_OUT = 10000;
+
 /** One input width of a gate type, and how many such gates one package holds. */
 export interface GateWidth {
   width: number;
@@ -64,6 +71,12 @@ export interface FamilyFigures {
   staticMaPerGate?: number;
   /** Internal power-dissipation capacitance per gate, pF (adds to the load in C·V²·f). */
   powerCapPf?: number;
+  /**
+   * Extra supply current per input held at a TTL high level (about 2.4 V)
+   * instead of at the supply rail, mA. CMOS with TTL-level inputs draws it;
+   * the static power estimate charges it to inputs fed from outside the design.
+   */
+  ttlHighInputMa?: number;
 }
 
 /**

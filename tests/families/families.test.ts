@@ -1,4 +1,5 @@
 import { describe, expect, it } from "vitest";
+import fc from "fast-check";
 import {
   BUILT_IN_FAMILIES,
   builtInFamily,
@@ -71,7 +72,13 @@ describe("driver to receiver compatibility", () => {
     expect(c.compatible).toBe(true);
     expect(c.nmh.value).toBeCloseTo(0.4, 9);
     expect(c.nml.value).toBeCloseTo(0.4, 9);
-    expect(c.receivers.value).toBeGreaterThan(10);
+    // worked by hand from the handbook/from-memory figures in builtin.ts (TTL driver, TTL-level CMOS receiver):
+    //   DC low  floor(IOL 16 mA / |IIL| 0.001 mA) = 16000
+    //   DC high floor(|IOH| 0.4 mA / IIH 0.001 mA) = 400
+    //   AC      C_max = 500 ns / (2.2 · 130 Ω) = 500000 pF·Ω / 286 Ω = 1748.25 pF (from memory: t ≈ 2.2·R·C);
+    //           n = floor((1748.25 − 5 pF wiring) / 10 pF) = floor(174.3) = 174
+    //   receivers = min(16000, 400, 174) = 174, the edge-rate limit governs
+    expect(c.receivers.value).toBe(174);
   });
   it("a 5 V CMOS output feeds TTL inputs at its rated current", () => {
     // handbook table (from memory): 4 mA rated output, 0.26 V max; LS IIL 0.4 mA → 10 LS loads
@@ -81,6 +88,7 @@ describe("driver to receiver compatibility", () => {
     expect(c.receivers.value).toBe(10);
   });
   it("says when figures are missing", () => {
+    // common practice, no source: a family with only fan-in and fan-out gives no levels, so nothing can be compared
     const user: Family = { id: "u", name: "User", fanIn: 4, fanOut: 8 };
     const c = compatibility(user, fam("cmos-hc-5v"));
     expect(c.compatible).toBeNull();
@@ -105,9 +113,16 @@ describe("transition time", () => {
     }
   });
   it("the family fan-out is the lower of DC and AC", () => {
+    // worked by hand from the high-speed CMOS figures (handbook table at |IO| = 20 µA; leakage and edge limit from memory):
+    //   DC low  floor(IOL 0.02 mA / |IIL| 0.001 mA) = 20;  DC high floor(|IOH| 0.02 mA / IIH 0.001 mA) = 20
+    //   AC      C_max = 500 ns / (2.2 · 65 Ω) = 500000 / 143 = 3496.5 pF; n = floor((3496.5 − 5) / 10) = floor(349.15) = 349
+    //   fan-out = min(20, 349) = 20
     const hc = fam("cmos-hc-5v");
     const d = deriveFamily(hc);
-    expect(d.fanOut.value).toBe(Math.min(d.dcFanOut.value!, d.acFanOut.value!));
+    expect(d.dcFanOut.value).toBe(20);
+    expect(d.acFanOut.value).toBe(349);
+    expect(d.fanOut.value).toBe(20);
+    // common practice, no source: a fan-out the user sets overrides the derived one
     expect(familyFanOut({ ...hc, fanOut: 7 })).toBe(7);
   });
 });
@@ -125,7 +140,7 @@ describe("built-in families", () => {
       expect(names).toContain(n);
   });
   it("give a source for every figure and no part numbers", () => {
-    const keys: FigureKey[] = ["supplyV", "vohMin", "volMax", "vihMin", "vilMax", "iohMa", "iolMa", "iihMa", "iilMa", "inputCapPf", "outputOhms", "maxTransitionNs", "wiringPf", "intrinsicNs", "perLoadNs", "staticMaPerGate", "powerCapPf"];
+    const keys: FigureKey[] = ["supplyV", "vohMin", "volMax", "vihMin", "vilMax", "iohMa", "iolMa", "iihMa", "iilMa", "inputCapPf", "outputOhms", "maxTransitionNs", "wiringPf", "intrinsicNs", "perLoadNs", "staticMaPerGate", "powerCapPf", "ttlHighInputMa"];
     for (const f of BUILT_IN_FAMILIES) {
       for (const k of keys) if (f[k] !== undefined) expect(f.sources?.[k], `${f.id}.${k}`).toBeTruthy();
       expect(validateFamily(f), f.id).toEqual([]);
@@ -145,6 +160,7 @@ describe("built-in families", () => {
 
 describe("validateFamily", () => {
   it("accepts a family with only a fan-in and a fan-out", () => {
+    // the product brief: a user family may give only a fan-in and a fan-out; the rest is then not estimated
     expect(validateFamily({ id: "bench-rule", name: "Bench rule", fanIn: 4, fanOut: 8 })).toEqual([]);
     const d = deriveFamily({ id: "bench-rule", name: "Bench rule", fanIn: 4, fanOut: 8 });
     expect(d.fanOut.value).toBe(8);
@@ -152,6 +168,8 @@ describe("validateFamily", () => {
     expect(d.nmh.value).toBeNull();
   });
   it("explains each problem", () => {
+    // handbook definitions (from memory): VOH(min) > VIH(min) and VOL(max) < VIL(max) for a family to drive itself;
+    // a supply voltage is positive; fan-in and fan-out below 2 make no gate tree or buffer possible
     const p = validateFamily({ id: "Bad Id", name: "", supplyV: -5, vohMin: 1.5, vihMin: 2, volMax: 0.9, vilMax: 0.8, fanIn: 1, fanOut: 1, iolMa: 0 });
     const fields = p.map((x) => x.field);
     for (const f of ["id", "name", "supplyV", "vohMin", "volMax", "fanIn", "fanOut", "iolMa"]) expect(fields).toContain(f);
@@ -167,5 +185,60 @@ describe("compatibility matrix", () => {
     // handbook tables: TTL high level 2.4 V fails a 3.5 V CMOS threshold; each family drives itself
     expect(m.find((c) => c.driver === "ttl-std-5v" && c.receiver === "cmos-hc-5v")?.compatible).toBe(false);
     for (const f of BUILT_IN_FAMILIES) expect(m.find((c) => c.driver === f.id && c.receiver === f.id)?.compatible).toBe(true);
+  });
+});
+
+describe("validateFamily on any JSON", () => {
+  it("never throws and always answers with a list of problems", () => {
+    // common practice, no source: a checker fed arbitrary parsed JSON must not crash; fast-check generates the JSON
+    fc.assert(
+      fc.property(fc.oneof(fc.jsonValue(), fc.record({ id: fc.constant("x"), name: fc.constant("X"), gates: fc.jsonValue(), transistors: fc.jsonValue(), ratedDrive: fc.jsonValue(), sources: fc.jsonValue() })), (v) => {
+        const p = validateFamily(v);
+        expect(Array.isArray(p)).toBe(true);
+        for (const x of p) expect(typeof x.message === "string" && x.message.length > 0).toBe(true);
+      }),
+      { numRuns: 300 },
+    );
+    for (const v of [null, 3, "ttl", [], [1, 2]]) expect(validateFamily(v).length).toBeGreaterThan(0);
+  });
+  const base = { id: "sluice-rule", name: "Sluice rule", fanOut: 4 };
+  const fields = (v: unknown) => validateFamily(v).map((p) => p.field);
+  it("names null gates and widths instead of throwing", () => {
+    // the reviewer's cases: gates: [null] and widths: [null] used to throw a TypeError
+    expect(fields({ ...base, gates: [null] })).toEqual(["gates[0]"]);
+    expect(fields({ ...base, gates: [{ type: "NAND", widths: [null] }] })).toEqual(["gates[0].widths[0]"]);
+    expect(fields({ ...base, gates: [{ type: "NAND", widths: "2" }] })).toEqual(["gates[0].widths"]);
+    expect(fields({ ...base, gates: [{ type: "NAND", widths: [{ width: 2, perPackage: 4 }] }, { type: "NAND", widths: [{ width: 3, perPackage: 3 }] }] })).toEqual(["gates[1].type"]);
+  });
+  it("caps widths at 64 inputs and perPackage at 64 gates", () => {
+    // common practice, no source: the limit the design settings already put on fan-in (64); no package holds more than 64 gates
+    expect(fields({ ...base, gates: [{ type: "NAND", widths: [{ width: 64, perPackage: 1 }] }] })).toEqual([]);
+    expect(fields({ ...base, gates: [{ type: "NAND", widths: [{ width: 65, perPackage: 1 }] }] })).toEqual(["gates[0].widths[0].width"]);
+    expect(fields({ ...base, gates: [{ type: "NAND", widths: [{ width: 1e9, perPackage: 1 }] }] })).toEqual(["gates[0].widths[0].width"]);
+    expect(fields({ ...base, gates: [{ type: "NAND", widths: [{ width: 2, perPackage: 1e6 }] }] })).toEqual(["gates[0].widths[0].perPackage"]);
+    expect(fields({ ...base, fanIn: 1e9 })).toEqual(["fanIn"]);
+    expect(validateFamily({ ...base, gates: [{ type: "NAND", widths: [{ width: 1e9, perPackage: 1 }] }] })[0]!.message).toMatch(/2 to 64/);
+  });
+  it("checks transistor counts", () => {
+    // common practice, no source: a transistor count is a finite number of at least 0
+    expect(fields({ ...base, transistors: { NAND: { base: 0, perInput: 2 } } })).toEqual([]);
+    expect(fields({ ...base, transistors: 5 })).toEqual(["transistors"]);
+    expect(fields({ ...base, transistors: { NAND: { base: "two", perInput: -1 } } })).toEqual(["transistors.NAND.base", "transistors.NAND.perInput"]);
+    expect(fields({ ...base, transistors: { NAND: { base: Number.NaN, perInput: 2 } } })).toEqual(["transistors.NAND.base"]);
+    expect(fields({ ...base, transistors: { VALVE: { base: 1, perInput: 1 } } })).toEqual(["transistors.VALVE"]);
+    expect(fields({ ...base, transistors: { NOR: null } })).toEqual(["transistors.NOR"]);
+  });
+  it("reports a derived fan-out below 2 unless the family sets its own", () => {
+    // worked by hand: floor(IOL 1 mA / |IIL| 1.6 mA) = floor(0.625) = 0 (standard TTL input current, handbook table)
+    const weak = { id: "weak-drive", name: "Weak drive", iolMa: 1, iilMa: -1.6, iohMa: -0.4, iihMa: 0.04 };
+    const p = validateFamily(weak);
+    expect(p.map((x) => x.field)).toEqual(["fanOut"]);
+    expect(p[0]!.message).toMatch(/derived fan-out of 0/);
+    expect(p[0]!.message).toContain("floor(IOL / |IIL|) = floor(1 mA / 1.6 mA) = 0");
+    expect(p[0]!.message).toMatch(/set fanOut in the family, or fix IOL\/IIL\/IOH\/IIH/);
+    expect(validateFamily({ ...weak, fanOut: 3 })).toEqual([]);
+    // worked by hand: C_max = 10 ns / (2.2 · 1000 Ω) = 4.545 pF < one 5 pF input, so the AC fan-out is 0
+    const slow = { id: "slow-edge", name: "Slow edge", outputOhms: 1000, maxTransitionNs: 10, inputCapPf: 5 };
+    expect(validateFamily(slow)[0]!.message).toMatch(/AC .*= 0/);
   });
 });
