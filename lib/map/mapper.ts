@@ -5,7 +5,8 @@
  */
 import type { Cube, FunctionSpec } from "../logic/index";
 import type { Family, GateType } from "../families/types";
-import { familyFanOut, offeredGates } from "../families/derive";
+import { deriveFamily, offeredGates } from "../families/derive";
+import { MAX_GATE_WIDTH } from "../families/types";
 import type { Gate, GateRole, Netlist, NetlistOutput } from "./netlist";
 import { CONST0, CONST1, topoOrder } from "./netlist";
 import { mergeByArrival, planBufferTree, type Group } from "./trees";
@@ -121,15 +122,28 @@ const SHARED_INVERTER_COST = 0.25;
  */
 export function mapCovers(covers: CoverSet, family: Family, options: MapOptions = {}): MapResult {
   const form = options.form ?? "and-or";
+  if (options.fanIn !== undefined && (!Number.isInteger(options.fanIn) || options.fanIn < 2 || options.fanIn > MAX_GATE_WIDTH)) {
+    throw new MapError(`fan-in ${options.fanIn} cannot be used: give a whole number from 2 to ${MAX_GATE_WIDTH}`);
+  }
+  if (options.fanIn === undefined && family.fanIn !== undefined && (!Number.isInteger(family.fanIn) || family.fanIn < 2 || family.fanIn > MAX_GATE_WIDTH)) {
+    throw new MapError(`${family.name} sets fanIn ${family.fanIn}: change it to a whole number from 2 to ${MAX_GATE_WIDTH}, or give a fan-in setting`);
+  }
+  // Gate widths size arrays below (tied inputs, NAND-as-inverter), so an unchecked family must not reach them with a huge width.
+  for (const g of family.gates ?? []) {
+    for (const w of g.widths ?? []) {
+      if (!Number.isInteger(w.width) || w.width < 1 || w.width > MAX_GATE_WIDTH) {
+        throw new MapError(`${family.name} offers a ${g.type} of width ${w.width}: gate widths must be whole numbers from 1 to ${MAX_GATE_WIDTH}; fix the family's gate list`);
+      }
+    }
+  }
+  if (options.fanOut !== undefined && (!Number.isInteger(options.fanOut) || options.fanOut < 2)) {
+    throw new MapError(`the fan-out setting ${options.fanOut} is too small: give a whole number of at least 2`);
+  }
   const fam: Family = { ...family, ...(options.fanIn !== undefined ? { fanIn: options.fanIn } : {}) };
-  const fanOut = options.fanOut ?? familyFanOut(fam);
+  const fanOut = options.fanOut ?? fanOutOf(fam);
   const pinLoad = options.outputPinLoad ?? 1;
   const rails = options.complementedInputs ?? false;
   const warnings: string[] = [];
-  if (!Number.isInteger(fanOut) || fanOut < 2) throw new MapError(`fan-out ${fanOut} is too small: give a whole number of at least 2`);
-  if (options.fanIn !== undefined && (!Number.isInteger(options.fanIn) || options.fanIn < 2)) {
-    throw new MapError(`fan-in ${options.fanIn} is too small: give a whole number of at least 2`);
-  }
 
   const offers = offeredGates(fam);
   const widths = new Map<GateType, number[]>();
@@ -348,6 +362,29 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
     }
   }
   return { netlist, verification, warnings, fanIn: Math.max(kOf("and"), kOf("or")), fanOut, outputPinLoad: pinLoad, form, family: fam };
+}
+
+/**
+ * The family's fan-out, refused with a message naming where it came from when
+ * it is below 2: a family's own figure, or one derived from its currents or
+ * edge-rate figures (which validateFamily reports, but a family may reach the
+ * mapper unchecked).
+ */
+function fanOutOf(family: Family): number {
+  const d = deriveFamily(family);
+  const v = d.fanOut.value ?? 0;
+  if (Number.isInteger(v) && v >= 2) return v;
+  if (family.fanOut !== undefined) {
+    throw new MapError(`${family.name} sets fanOut ${family.fanOut}: change it to a whole number of at least 2, or give a fan-out setting`);
+  }
+  const why: string[] = [];
+  if (d.dcFanOut.value !== null && d.dcFanOut.value < 2) why.push(`DC fan-out ${d.dcFanOut.value} from ${d.dcFanOutLow.formula} and ${d.dcFanOutHigh.formula}`);
+  if (d.acFanOut.value !== null && d.acFanOut.value < 2) why.push(`AC fan-out ${d.acFanOut.value} from ${d.acFanOut.formula}`);
+  throw new MapError(
+    `${family.name}'s figures give a derived fan-out of ${v} unit loads (${d.fanOut.formula}; ${why.join("; ")}), and mapping needs at least 2: ` +
+      "give a fan-out setting, set fanOut in the family, or fix IOL/IIL/IOH/IIH in the family" +
+      (d.acFanOut.value !== null && d.acFanOut.value < 2 ? " (and its output resistance, transition limit or input capacitance)" : ""),
+  );
 }
 
 function pruneDead(gates: Gate[], outputs: NetlistOutput[]): Gate[] {
