@@ -24,6 +24,13 @@ export interface AnalysisOptions {
    * transition; default 0.25 (a random signal with equal chances of 0 and 1).
    */
   activity?: number;
+  /**
+   * For a family with a TTL-high input current (Family.ttlHighInputMa): the
+   * share of gate inputs fed from the design's inputs that sit at a TTL high
+   * level; default 0.5 (half high on average). Use 0 when the design's inputs
+   * are driven rail to rail.
+   */
+  ttlHighShare?: number;
 }
 
 export interface TypeWidthRow {
@@ -192,7 +199,7 @@ export function analyse(netlist: Netlist, family: Family, options: AnalysisOptio
 
   // ---- power ----
   const v = family.supplyV;
-  const staticPower: Estimate =
+  let staticPower: Estimate =
     family.staticMaPerGate !== undefined && v !== undefined
       ? {
           value: r3(family.staticMaPerGate * v * gates.length),
@@ -201,6 +208,23 @@ export function analyse(netlist: Netlist, family: Family, options: AnalysisOptio
           caution: CAUTION,
         }
       : { value: null, unit: "mW", formula: "not estimated: the family gives no supply current or supply voltage", caution: CAUTION };
+  if (staticPower.value !== null && v !== undefined && family.ttlHighInputMa !== undefined && family.ttlHighInputMa > 0) {
+    // Only pins fed from outside can sit at a TTL high: inner nets are driven by the family's own rail-to-rail outputs.
+    const outside = new Set([...netlist.inputs, ...netlist.complements.map((c) => c.net)]);
+    const pins = gates.reduce((s, g) => s + g.inputs.filter((i) => outside.has(i)).length, 0);
+    const share = options.ttlHighShare ?? 0.5;
+    const base = family.staticMaPerGate! * v * gates.length;
+    const extra = family.ttlHighInputMa * v * pins * share;
+    staticPower = {
+      value: r3(base + extra),
+      unit: "mW",
+      formula: `${staticPower.formula} + ΔI ${family.ttlHighInputMa} mA × ${v} V × ${pins} input pins fed from outside × ${share} at a TTL high`,
+      caution: CAUTION,
+      note:
+        `assumes the design's inputs are driven at TTL levels and ${share * 100} % of the ${pins} gate inputs they feed are high on average; ` +
+        "inner nets swing rail to rail and draw no extra current",
+    };
+  }
   let dynamicPower: Estimate;
   if (family.inputCapPf !== undefined && v !== undefined) {
     let cTotal = 0;

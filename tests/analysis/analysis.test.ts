@@ -73,6 +73,21 @@ describe("estimates", () => {
     expect(a.staticPower.value).toBeGreaterThan(10); // a bipolar family draws current while holding a level
     expect(analyse(paddle, hc).staticPower.value!).toBeLessThan(0.1);
   });
+  it("TTL-level CMOS adds its extra supply current for inputs held at a TTL high", () => {
+    // from memory (the family's source note): about 0.36 mA extra per input held at 2.4 V. Worked by hand for the
+    // paddle netlist: gate inputs fed straight from the design's inputs are g1 key, g2 shut and equal, g3 shut,
+    // g6 key = 5 pins; inner nets swing rail to rail. With half of them high on average:
+    //   0.0005 mA × 5 V × 6 gates + 0.36 mA × 5 V × 5 pins × 0.5 = 0.015 + 4.5 = 4.515 mW
+    const hct = builtInFamily("cmos-hct-5v")!;
+    const a = analyse(paddle, hct);
+    expect(a.staticPower.value).toBeCloseTo(4.515, 6);
+    expect(a.staticPower.note).toMatch(/50 % of the 5 gate inputs/);
+    expect(a.staticPower.formula).toMatch(/0\.36 mA/);
+    // with rail-to-rail inputs only the quiescent part remains: 0.0005 × 5 × 6 = 0.015 mW
+    expect(analyse(paddle, hct, { ttlHighShare: 0 }).staticPower.value).toBeCloseTo(0.015, 6);
+    // worked by hand: the same netlist on plain high-speed CMOS carries no such term, 0.0005 × 5 × 6 = 0.015 mW
+    expect(analyse(paddle, hc).staticPower.value).toBeCloseTo(0.015, 6);
+  });
   it("dynamic power: C · V² · f · activity", () => {
     // textbook switching power; C summed by hand: every gate output's loads × C_in + wiring + internal
     const loads = [1, 1, 1, 2, 1, 1]; // outputs of g1..g6 (n3 feeds g5 twice; the pin is 1)
