@@ -80,6 +80,8 @@ export class Revision extends Model<InferAttributes<Revision>, InferCreationAttr
   declare familySnapshot: Record<string, unknown>;
   declare settings: Record<string, unknown>;
   declare stats: Record<string, unknown>;
+  /** The netlist saved with the revision ({ model, document, analysis summary }); null for rows from before it was kept. */
+  declare netlist: CreationOptional<Record<string, unknown> | null>;
   declare authorId: ForeignKey<User["id"]>;
   declare message: string;
   declare createdAt: CreationOptional<Date>;
@@ -157,6 +159,7 @@ export function initModels(sequelize: Sequelize) {
       familySnapshot: json(),
       settings: json(),
       stats: json(),
+      netlist: { ...json(true), defaultValue: null },
       message: { type: DataTypes.TEXT, allowNull: false },
       createdAt: DataTypes.DATE,
     },

@@ -19,6 +19,8 @@ import type { FunctionSpec } from "../logic";
 import { revisionStats, type RevisionStats } from "../pipeline/stats";
 import { finish, minimizeOptionsFor, type DesignSettings, type ExportFormat } from "../pipeline";
 import type { Family } from "../families";
+import type { Netlist } from "../map";
+import type { NetlistDocument } from "../export";
 import { AppError } from "./errors";
 
 import type { CompileSettings as CompileSettingsSchema } from "./routes";
@@ -41,6 +43,14 @@ export interface CompileOutcome {
     stats: RevisionStats;
   } | null;
   exports: Partial<Record<ExportFormat, string>>;
+  /** What a revision keeps of this run so that its files never change: the netlist and its JSON document. */
+  saved: SavedNetlist | null;
+}
+
+/** The netlist a revision keeps; its files are rendered from this, never recomputed. */
+export interface SavedNetlist {
+  model: Netlist;
+  document: NetlistDocument;
 }
 
 /** Settings without the family, as stored on designs and revisions. */
@@ -131,7 +141,7 @@ export async function compileDesign(
   opts: { exports?: ExportFormat[]; unitName?: string; signal?: AbortSignal } = {},
 ): Promise<CompileOutcome> {
   const compiled = compileSource(source);
-  if (!compiled.spec) return { diagnostics: compiled.diagnostics, result: null, exports: {} };
+  if (!compiled.spec) return { diagnostics: compiled.diagnostics, result: null, exports: {}, saved: null };
   const full: DesignSettings = { ...storedSettings(settings), familyId: family.id };
   let minimized: MinimizeResult;
   try {
@@ -150,5 +160,6 @@ export async function compileDesign(
     diagnostics: r.diagnostics,
     result: { covers: minimized, netlist: r.document, analysis: a, verification: r.verification, warnings: r.warnings, stats },
     exports: r.exports ?? {},
+    saved: r.netlist && r.document ? { model: r.netlist, document: r.document } : null,
   };
 }

@@ -7,7 +7,8 @@ import "server-only";
  */
 import { db } from "../db/connection";
 import { AppError, notFound } from "../api/errors";
-import { compileDesign, storedSettings, type CompileSettings as Settings } from "../api/compile";
+import { compileDesign, storedSettings, type CompileSettings as Settings, type SavedNetlist } from "../api/compile";
+import { toCsv, toVerilog, toVhdl } from "../export";
 import { CompileSettings } from "../api/routes";
 import type { Family } from "../families";
 import { decodeCursor, encodeCursor, iso, requireAccess, type Actor } from "./access";
@@ -131,6 +132,7 @@ export async function createRevision(p: {
         familySnapshot: { ...family } as unknown as Record<string, unknown>,
         settings,
         stats,
+        netlist: outcome.saved as unknown as Record<string, unknown> | null,
         authorId: p.actor!.userId,
         message: p.message,
       },
@@ -154,20 +156,45 @@ const EXT: Record<ExportFormat, [string, string]> = {
 };
 
 /**
- * A revision's netlist as a file, rebuilt from the revision's own source,
- * settings and family snapshot (the pipeline is deterministic).
+ * A revision's netlist as a file: rendered from the netlist saved with the
+ * revision, so every download is the netlist that was reviewed. Rows saved
+ * before netlists were kept are rebuilt from their own source, settings and
+ * family snapshot (rate-limited like any compile).
  */
 export async function exportRevision(p: { actor: Actor | null; slug: string; designId: string; number: number; format: ExportFormat }) {
   const rev = await getRevision(p);
   const design = await designIn((await requireAccess(p.actor, p.slug, "revision.read")).workspace.id, p.designId);
-  const family = rev.familySnapshot as unknown as Family;
-  const settings = CompileSettings.safeParse(rev.settings);
-  const outcome = await compileDesign(rev.source, settings.success ? settings.data : {}, family, { exports: [p.format], unitName: design.name });
-  const body = outcome.exports[p.format];
-  if (!outcome.result || body === undefined) {
-    throw new AppError("compile_errors", "This revision no longer compiles with the current language; export an earlier one.", { diagnostics: outcome.diagnostics });
+  const saved = (await db().models.Revision.findOne({ where: { designId: design.id, number: rev.number }, attributes: ["netlist"] }))
+    ?.netlist as unknown as SavedNetlist | null;
+  let body: string | undefined;
+  if (saved?.model && saved.document) {
+    body = renderSaved(saved, p.format, design.name, rev);
+  } else {
+    limiters.compile.enforce(p.actor!.userId, "compile");
+    const family = rev.familySnapshot as unknown as Family;
+    const settings = CompileSettings.safeParse(rev.settings);
+    const outcome = await compileDesign(rev.source, settings.success ? settings.data : {}, family, { exports: [p.format], unitName: design.name });
+    body = outcome.exports[p.format];
+    if (!outcome.result || body === undefined) {
+      throw new AppError("compile_errors", "This revision no longer compiles with the current language; export an earlier one.", { diagnostics: outcome.diagnostics });
+    }
   }
   const base = `${design.name}-r${rev.number}`.replace(/[^A-Za-z0-9._-]+/g, "_");
   const [ext, type] = EXT[p.format];
   return { filename: `${base}.${ext}`, contentType: type, body };
+}
+
+function renderSaved(saved: SavedNetlist, format: ExportFormat, unitName: string, rev: RevisionDetail): string {
+  const family = rev.familySnapshot as unknown as Family;
+  const header = [`Fanbound netlist, family ${family.name} (${family.id}), saved with revision ${rev.number}`];
+  switch (format) {
+    case "verilog":
+      return toVerilog(saved.model, { name: unitName, header });
+    case "vhdl":
+      return toVhdl(saved.model, { name: unitName, header });
+    case "csv":
+      return toCsv(saved.model);
+    case "json":
+      return JSON.stringify(saved.document, null, 2);
+  }
 }

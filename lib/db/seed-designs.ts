@@ -133,6 +133,8 @@ export async function seedDemoDesigns(
         familySnapshot: { ...family },
         settings: { ...settings },
         stats: { ...stats },
+        // The files of a revision come from the netlist saved with it.
+        netlist: { model: result.netlist, document: result.document } as unknown as Record<string, unknown>,
         authorId: users[step.author]!.id,
         message: step.message,
         // Spread the story over the past weeks, oldest first.

@@ -19,6 +19,7 @@ import * as compile from "@/app/api/v1/compile/route";
 import * as openapi from "@/app/api/v1/openapi.json/route";
 import * as nextauth from "@/app/api/auth/[...nextauth]/route";
 import * as member from "@/app/api/v1/workspaces/[ws]/members/[userId]/route";
+import * as exporter from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/[number]/export/route";
 import { encode } from "next-auth/jwt";
 import { SOURCE, builtinFamily, call, counts, makeUser, makeWorkspace, tag, type TestUser, addMember } from "./helpers";
 
@@ -262,6 +263,23 @@ describe("designs and revisions", () => {
     expect(r.json.revision.stats.gates).toBeGreaterThan(0);
     const d = await call(design.GET, "GET", "/d", { token: owner.token, params: { ws: ws.slug, designId } });
     expect(d.json.design.latestRevision).toMatchObject({ number: r.json.revision.number, message: "first save", author: { id: owner.id } });
+  });
+
+  it("a revision's files come from the netlist saved with it", async () => {
+    const r = await call(revisions.POST, "POST", "/r", {
+      token: owner.token, params: { ws: ws.slug, designId }, body: { message: "files", source: SOURCE, familyId, settings: {} },
+    });
+    expect(r.status).toBe(201);
+    const number = String(r.json.revision.number);
+    const row = await db().models.Revision.findOne({ where: { designId, number: Number(number) } });
+    const saved = row!.netlist as unknown as { document: { gates: Array<{ id: string; type: string }> } };
+    expect(saved.document.gates.length).toBe(r.json.revision.stats.gates);
+    const json = await call(exporter.GET, "GET", "/x", { token: owner.token, params: { ws: ws.slug, designId, number }, query: { format: "json" } });
+    expect(json.status).toBe(200);
+    expect(JSON.parse(json.text)).toEqual(saved.document);
+    // IEEE 1364 gate primitives: one instance line per saved gate, named by its id.
+    const v = await call(exporter.GET, "GET", "/x", { token: owner.token, params: { ws: ws.slug, designId, number }, query: { format: "verilog" } });
+    for (const g of saved.document.gates) expect(v.text).toMatch(new RegExp(`\\b${g.type.toLowerCase()}\\s+${g.id}\\(`));
   });
 
   it("concurrent saves get distinct consecutive numbers", async () => {
