@@ -209,7 +209,7 @@ export function elaborate(checked: CheckedProgram, limits: Required<LanguageLimi
     if (vars.length > limits.maxInputsPerOutput) {
       diagnostics.push(
         error(
-          `output '${o.text}' depends on ${vars.length} inputs; the limit is ${limits.maxInputsPerOutput} inputs per output (maxInputsPerOutput). Split it with let or raise the limit`,
+          `output '${o.text}' depends on ${vars.length} inputs; the limit is ${limits.maxInputsPerOutput} inputs per output (maxInputsPerOutput). Give it fewer inputs: split the condition across outputs or blocks of fewer inputs`,
           at.range,
         ),
       );
@@ -224,7 +224,7 @@ export function elaborate(checked: CheckedProgram, limits: Required<LanguageLimi
       if (!(e instanceof CubeLimitError)) throw e;
       diagnostics.push(
         error(
-          `output '${o.text}' needs more than ${e.limit} product terms while being worked out over ${vars.length} inputs (maxCubes); split it into smaller equations with let, or raise the limit`,
+          `output '${o.text}' needs more than ${e.limit} product terms while being worked out over ${vars.length} inputs (maxCubes); give it fewer inputs (functions like parity over many inputs need a great many product terms in any two-level form)`,
           at.range,
         ),
       );

@@ -39,7 +39,7 @@ export function parseSource(source: string, options?: LanguageLimits): ParseResu
     const p = positionAt(source, limits.maxSourceLength);
     diagnostics.push(
       error(
-        `the source is ${source.length} characters long; the limit is ${limits.maxSourceLength} (maxSourceLength). Split the design into smaller designs or raise the limit`,
+        `the source is ${source.length} characters long; the limit is ${limits.maxSourceLength} (maxSourceLength). Split the design into smaller designs`,
         { line: p.line, column: p.column, endLine: p.line, endColumn: p.column },
       ),
     );

@@ -71,7 +71,7 @@ export function minimizeInWorker(
               "budgetMs",
               budgetMs,
               `minimization did not finish within the time budget of ${budgetMs} ms`,
-              "Raise the time budget, choose the heuristic, or split the design into smaller blocks.",
+              "Choose the heuristic (the Heuristic only setting, or --heuristic on the command line), or split the design into smaller designs.",
             ),
           ),
         ),
