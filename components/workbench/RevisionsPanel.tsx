@@ -56,6 +56,9 @@ export function RevisionsPanel({ ws, designId, revisions }: { ws: string; design
             )}
           </tbody>
         </table>
+        <p className="mt-1 text-xs text-graphite">
+          Delays are estimates from the family&apos;s typical figures; check the parts&apos; data sheets and your design rules.
+        </p>
       </div>
       <RevisionChart revisions={revisions} />
     </div>

@@ -1,9 +1,18 @@
 "use client";
 import useSWR from "swr";
 import type { FamilyItem } from "@/lib/client/types";
+import { deriveFamily, type DerivedFigure, type Family } from "@/lib/families";
 
-type Figures = Record<string, unknown>;
-const num = (v: unknown) => (typeof v === "number" ? v : null);
+/** A derived figure with the formula that gave it, so a designer can check the arithmetic. */
+function Figure({ f, digits = 0 }: { f: DerivedFigure; digits?: number }) {
+  if (f.value === null) return <span className="text-graphite" title={f.missing ?? f.formula}>—</span>;
+  return (
+    <span>
+      <span className="font-mono">{digits ? f.value.toFixed(digits) : f.value} {f.unit === "unit loads" ? "" : f.unit}</span>
+      <span className="mt-0.5 block font-mono text-[11px] leading-tight text-graphite">{f.formula}</span>
+    </span>
+  );
+}
 
 /** The families a design may use, with the two limits that shape every netlist. */
 export function FamilyList({ ws, compact = false }: { ws: string; compact?: boolean }) {
@@ -23,37 +32,34 @@ export function FamilyList({ ws, compact = false }: { ws: string; compact?: bool
               <th className="px-3 py-2 text-right" title="unit loads one output may drive">Fan-out</th>
               {!compact && (
                 <>
+                  <th className="px-3 py-2">DC fan-out</th>
+                  <th className="px-3 py-2">AC fan-out (edge rate)</th>
+                  <th className="px-3 py-2">NMH</th>
+                  <th className="px-3 py-2">NML</th>
                   <th className="px-3 py-2 text-right">Supply</th>
-                  <th className="px-3 py-2 text-right">NMH</th>
-                  <th className="px-3 py-2 text-right">NML</th>
-                  <th className="px-3 py-2 text-right">t<sub>pd</sub> (est.)</th>
                 </>
               )}
             </tr>
           </thead>
           <tbody className="tabular">
             {data?.items.map((f) => {
-              const d = f.data as Figures;
-              const vcc = num(d.supplyV);
-              const [voh, vih, vil, vol] = [num(d.vohMin), num(d.vihMin), num(d.vilMax), num(d.volMax)];
-              const nmh = voh !== null && vih !== null ? voh - vih : null;
-              const nml = vil !== null && vol !== null ? vil - vol : null;
+              const fam = { id: f.key, name: f.name, ...(f.data as Partial<Family>) } as Family;
+              const d = compact ? null : deriveFamily(fam);
               return (
-                <tr key={f.id} className="border-b border-rule/60 last:border-0">
+                <tr key={f.id} className="border-b border-rule/60 align-top last:border-0">
                   <td className="px-3 py-2">
                     {f.name}
                     {!f.builtin && <span className="ml-2 text-xs text-graphite">(this workspace)</span>}
                   </td>
                   <td className="px-3 py-2 text-right font-mono">{f.fanIn}</td>
                   <td className="px-3 py-2 text-right font-mono">{f.fanOut}</td>
-                  {!compact && (
+                  {d && (
                     <>
-                      <td className="px-3 py-2 text-right font-mono">{vcc !== null ? `${vcc} V` : "—"}</td>
-                      <td className="px-3 py-2 text-right font-mono">{nmh !== null ? `${nmh.toFixed(2)} V` : "—"}</td>
-                      <td className="px-3 py-2 text-right font-mono">{nml !== null ? `${nml.toFixed(2)} V` : "—"}</td>
-                      <td className="px-3 py-2 text-right font-mono">
-                        {num(d.intrinsicNs) !== null ? `${num(d.intrinsicNs)} ns` : "—"}
-                      </td>
+                      <td className="px-3 py-2"><Figure f={d.dcFanOut} /></td>
+                      <td className="px-3 py-2"><Figure f={d.acFanOut} /></td>
+                      <td className="px-3 py-2"><Figure f={d.nmh} digits={2} /></td>
+                      <td className="px-3 py-2"><Figure f={d.nml} digits={2} /></td>
+                      <td className="px-3 py-2 text-right font-mono">{fam.supplyV !== undefined ? `${fam.supplyV} V` : "—"}</td>
                     </>
                   )}
                 </tr>
@@ -63,8 +69,8 @@ export function FamilyList({ ws, compact = false }: { ws: string; compact?: bool
         </table>
       </div>
       <p className="mt-2 text-xs text-graphite">
-        Figures are typical values from handbook tables and standards, marked with their sources in each family. Check the
-        data sheets of the parts you use.
+        Figures are typical values from handbook tables and standards, marked with their sources in each family; the
+        derived limits are estimates. Check the data sheets of the parts you use and your own design rules.
       </p>
     </section>
   );
