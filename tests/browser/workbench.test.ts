@@ -88,6 +88,7 @@ describe("the designer's workbench in chromium", () => {
     await expect.poll(() => page.getByRole("link", { name: renamed }).count(), { timeout: 10_000 }).toBe(0);
     await page.getByLabel("Archived").check();
     await expect.poll(() => page.getByRole("link", { name: renamed }).count(), { timeout: 10_000 }).toBe(1);
+    await screenshot(page, "workspace-archived");
     await page.getByLabel("Archived").uncheck();
     expect(s.outside).toEqual([]);
   });
