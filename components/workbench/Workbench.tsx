@@ -31,7 +31,7 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
   );
   const { data: families } = useSWR<{ items: FamilyItem[] }>(`/api/v1/workspaces/${ws}/families`);
   const revKey = `/api/v1/workspaces/${ws}/designs/${designId}/revisions?limit=100`;
-  const { data: revisions, mutate: mutateRevisions } = useSWR<Page<RevisionSummary>>(revKey);
+  const { data: revisions, error: revisionsError, mutate: mutateRevisions } = useSWR<Page<RevisionSummary>>(revKey);
   const role = wsData?.workspace.role;
   const mayEdit = role ? can(role, "design.edit") : false;
   const maySave = role ? can(role, "revision.save") : false;
@@ -142,7 +142,7 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
         <h1 className="text-xl font-semibold">{design?.name ?? "…"}</h1>
         <span className="text-sm text-graphite">
           {family?.name}
-          {latest ? ` · last revision r${latest.number}` : " · no revision yet"}
+          {latest ? ` · last revision r${latest.number}` : revisions ? " · no revision yet" : ""}
         </span>
         <span className="ml-auto flex items-center gap-3 text-sm">
           <CompileStatus pending={compile.pending || compile.isValidating} cancelled={compile.cancelled}
@@ -239,6 +239,9 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
 
       <section className="mt-6 rounded border border-rule bg-sheet p-3" aria-label="Revisions">
         <h2 className="mb-2 text-xs uppercase tracking-wide text-graphite">Revisions</h2>
+        {revisionsError && (
+          <p role="alert" className="mb-2 text-sm text-vermilion">The revisions could not be loaded: {revisionsError.message}</p>
+        )}
         <RevisionsPanel ws={ws} designId={designId} revisions={revisions?.items ?? []} />
       </section>
     </main>
