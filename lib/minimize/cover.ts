@@ -99,14 +99,13 @@ export function solveCover(p: CoverProblem): CoverSolution {
 
 /** Dominance tests at inner nodes: bit 0 columns, bit 1 rows (the root always runs both). */
 let NODE_DOMINANCE = 1;
-const ROOT_ITERS = 600;
 /**
  * Search settings, exported so that experiments can vary them: subgradient
  * steps at inner nodes, steps without improvement before the step size
  * halves, the first step size at inner nodes, and the depth down to which the
  * Lagrangian primal heuristic runs (every `heurEvery` steps).
  */
-export const TUNING = { nodeIters: 100, stall: 15, nodeLambda: 2, heurDepth: 0, heurEvery: 25 };
+export const TUNING = { rootIters: 600, nodeIters: 100, stall: 15, nodeLambda: 2, heurDepth: 0, heurEvery: 25 };
 export function setNodeDominance(d: number): void {
   NODE_DOMINANCE = d;
 }
@@ -186,7 +185,7 @@ class BranchAndBound {
       for (const r of this.cols[c]!) if (share < u[r]!) u[r] = share;
     }
     if (this.sparseOnly) {
-      const lag = this.lagrange(rowsA, colsA, u, ROOT_ITERS, this.best, this.card);
+      const lag = this.lagrange(rowsA, colsA, u, TUNING.rootIters, this.best, this.card);
       const lb = Math.min(this.best, Math.max(this.bound(rowsA, colsA).lb, Math.ceil(lag.lb - 1e-6)));
       return { chosen: this.bestChosen, weight: this.best, lowerBound: lb, exact: lb === this.best };
     }
@@ -500,7 +499,7 @@ class BranchAndBound {
     const bestRc = new Float64Array(C);
     const g = this.gBuf;
     let best = -Infinity;
-    let lambda = iters === ROOT_ITERS ? 2 : TUNING.nodeLambda;
+    let lambda = iters === TUNING.rootIters ? 2 : TUNING.nodeLambda;
     let stall = 0;
     const R = this.R;
     let lastHeur = -Infinity;
@@ -657,7 +656,7 @@ class BranchAndBound {
     }
     if (cost + lb >= this.best) return;
     // Lagrangian bound and reduced-cost fixing.
-    const lag = this.lagrange(rowsA, colsA, u, depth === 0 ? ROOT_ITERS : TUNING.nodeIters, this.best - cost, K, depth <= TUNING.heurDepth ? { cost, here } : undefined);
+    const lag = this.lagrange(rowsA, colsA, u, depth === 0 ? TUNING.rootIters : TUNING.nodeIters, this.best - cost, K, depth <= TUNING.heurDepth ? { cost, here } : undefined);
     if (cost + Math.ceil(lag.lb - 1e-6) >= this.best) return;
     if (depth === 0) this.rootBound = Math.max(this.rootBound, cost + lb, cost + Math.ceil(lag.lb - 1e-6));
     if (depth <= TUNING.heurDepth) {

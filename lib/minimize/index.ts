@@ -198,7 +198,7 @@ function buildProblem(
   targets: Target[],
   model: CostModel,
   limits: { maxPrimes: number; maxImplicants: number; deadline: number },
-): CoveringProblem & { rowOf: Map<number, number>[] } {
+): CoveringProblem & { rowsPerOutput: number[] } {
   const words = targets[0]!.onT!.length;
   const care = new Uint32Array(words);
   for (const t of targets) for (let w = 0; w < words; w++) care[w]! |= t.onT![w]! | t.dcT![w]!;
@@ -267,37 +267,39 @@ function tablePrimes(
   return all;
 }
 
-function problemFromPrimes(n: number, targets: Target[], model: CostModel, all: TaggedPrime[]): CoveringProblem & { rowOf: Map<number, number>[] } {
+function problemFromPrimes(n: number, targets: Target[], model: CostModel, all: TaggedPrime[]): CoveringProblem & { rowsPerOutput: number[] } {
   const full = fullMask(n);
-  const rowOf = targets.map(() => new Map<number, number>());
   let rowCount = 0;
-  targets.forEach((t, j) => {
-    for (const m of tableMinterms(t.onT!, n)) rowOf[j]!.set(m, rowCount++);
+  const rowsPerOutput: number[] = [];
+  // Rows of each output numbered consecutively; a dense index per output when it fits in about 128 MB, else maps.
+  const dense = targets.length * 2 ** n <= 2 ** 25;
+  const rowIdx = targets.map((t) => {
+    const ms = tableMinterms(t.onT!, n);
+    rowsPerOutput.push(ms.length);
+    if (dense) {
+      const a = new Int32Array(2 ** n).fill(-1);
+      for (const m of ms) a[m] = rowCount++;
+      return a;
+    }
+    const map = new Map<number, number>();
+    for (const m of ms) map.set(m, rowCount++);
+    return map;
   });
   const colRows: Int32Array[] = [];
   const weight: number[] = [];
   const cols: TaggedPrime[] = [];
   const buf: number[] = [];
-  // Dense row index per output when it fits in about 128 MB, else the maps.
-  const dense = targets.length * 2 ** n <= 2 ** 25;
-  const rowIdx = dense
-    ? rowOf.map((map) => {
-        const a = new Int32Array(2 ** n).fill(-1);
-        for (const [m, r] of map) a[m] = r;
-        return a;
-      })
-    : null;
   for (const p of all) {
     buf.length = 0;
     const free = (full & ~p.mask) >>> 0;
     for (let j = 0; j < targets.length; j++) {
       if (!((p.tag >>> j) & 1)) continue;
-      const idx = rowIdx?.[j];
-      const map = rowOf[j]!;
+      const idx = rowIdx[j]!;
+      const arr = idx instanceof Int32Array ? idx : null;
       let sub = 0;
       for (;;) {
         const m = (p.value | sub) >>> 0;
-        const r = idx ? idx[m]! : (map.get(m) ?? -1);
+        const r = arr ? arr[m]! : ((idx as Map<number, number>).get(m) ?? -1);
         if (r >= 0) buf.push(r);
         if (sub === free) break;
         sub = ((sub - free) & free) >>> 0;
@@ -308,7 +310,7 @@ function problemFromPrimes(n: number, targets: Target[], model: CostModel, all: 
     colRows.push(Int32Array.from(buf));
     weight.push(columnWeight(model, popcount(p.mask)));
   }
-  return { primes: all, columns: cols, colRows, weight, rowCount, rowOf };
+  return { primes: all, columns: cols, colRows, weight, rowCount, rowsPerOutput };
 }
 
 /**
@@ -475,15 +477,14 @@ function swapForFewerLiterals(chosen: number[], colRows: Int32Array[], lits: num
  * rows no column covers two of (fewest columns first), each charged its
  * cheapest column. Rows of one output are numbered consecutively.
  */
-function outputAloneBounds(prob: CoveringProblem & { rowOf: Map<number, number>[] }, model: CostModel): number[] {
+function outputAloneBounds(prob: CoveringProblem & { rowsPerOutput: number[] }, model: CostModel): number[] {
   const { colRows, weight, rowCount } = prob;
   const { start, cols } = rowColumns(colRows, rowCount);
   const blocked = new Int32Array(rowCount);
   const colDone = new Int32Array(colRows.length);
   let first = 0;
-  return prob.rowOf.map((map, j) => {
+  return prob.rowsPerOutput.map((count, j) => {
     const lo = first;
-    const count = map.size;
     first += count;
     if (count === 0) return 0;
     const stamp = j + 1;
@@ -521,8 +522,7 @@ function exactGroup(
   const { rowCount } = prob;
   const all = prob.primes;
   const cols = prob.columns;
-  const rowOf = prob.rowOf.map((map, j) => ({ t: targets[j]!, map }));
-  const live = targets.filter((t) => t.on.length > 0 && rowOf.some((r) => r.t === t && r.map.size > 0)).length;
+  const live = targets.filter((t, j) => t.on.length > 0 && prob.rowsPerOutput[j]! > 0).length;
   const sol = rowCount === 0 ? { chosen: [], weight: 0, lowerBound: 0, exact: true } : lexicographicCover(prob, model, limits.deadline);
   const covers = assignTerms(n, targets, sol.chosen.map((c) => cols[c]!));
   const cost = costOfCovers(model, covers);
@@ -613,7 +613,17 @@ function heuristicAll(n: number, targets: Target[], model: CostModel, deadline: 
   }
   const cost = costOfCovers(model, covers);
   design = Math.min(cost, Math.max(design, ...perOutput));
-  return { covers, exact: cost === design, designBound: design, outputBounds: perOutput, primes: -1, route: "heuristic" };
+  return { covers, exact: boundProves(model, cost, design), designBound: design, outputBounds: perOutput, primes: -1, route: "heuristic" };
+}
+
+/**
+ * Whether a cost that meets a proven bound proves the cover minimum. Under
+ * "products, then literals" the bounds count products only, so meeting one
+ * says nothing of the literals: only the exact route's two-phase search, run
+ * to its end, proves that model.
+ */
+function boundProves(model: CostModel, cost: number, bound: number): boolean {
+  return model.kind !== "products" && cost === bound;
 }
 
 /** Cost bound of an output whose ON-set holds k independent points. */
@@ -661,7 +671,9 @@ export function minimize(spec: FunctionSpec, options: MinimizeOptions = {}): Min
         const cost = costOfCovers(model, covers);
         const outputBounds = parts.map((p) => p.designBound);
         const designBound = Math.min(cost, Math.max(...outputBounds));
-        solved = { covers, exact: cost === designBound, designBound, outputBounds, primes: parts.reduce((a, p) => a + p.primes, 0), route: "exact" };
+        // Outputs covered one by one cannot prove a shared optimum: only a met bound of a cost-only model does.
+        const exact = parts.every((p) => p.exact) && boundProves(model, cost, designBound);
+        solved = { covers, exact, designBound, outputBounds, primes: parts.reduce((a, p) => a + p.primes, 0), route: "exact" };
       }
     } catch (e) {
       if (!(e instanceof ExactLimit)) throw e;
@@ -678,7 +690,7 @@ export function minimize(spec: FunctionSpec, options: MinimizeOptions = {}): Min
       if (h && costOfCovers(model, h.covers) < costOfCovers(model, solved.covers)) {
         solved = { ...h, designBound: Math.max(h.designBound, solved.designBound), primes: solved.primes };
       }
-      solved.exact = costOfCovers(model, solved.covers) === solved.designBound;
+      solved.exact = boundProves(model, costOfCovers(model, solved.covers), solved.designBound);
     }
   }
   solved ??= heuristicAll(n, targets, model, deadline, timeLimitMs);
