@@ -216,7 +216,13 @@ function buildProblem(
   // The dense table costs 3^n whatever the function; the tables cost what they hold, little when few care points are adjacent.
   const pairs = n < 6 ? Infinity : adjacentPairs(care, n);
   if (n <= DENSE_MAX_INPUTS && pairs > 2 ** (n - 1)) {
-    all = denseTaggedPrimes(n, tagOf, limits);
+    const tags = new Uint32Array(2 ** n);
+    targets.forEach((t, j) => {
+      for (let w = 0; w < words; w++) {
+        for (let x = t.onT![w]! | t.dcT![w]!; x !== 0; x &= x - 1) tags[w * 32 + 31 - Math.clz32(x & -x)]! |= 1 << j;
+      }
+    });
+    all = denseTaggedPrimes(n, tags, limits);
   } else {
     all = tablePrimes(n, targets, words, minterms, tagOf, limits, pairs <= 2 ** (n - 1));
   }

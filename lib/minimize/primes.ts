@@ -118,44 +118,60 @@ export const DENSE_MAX_INPUTS = 13;
  * is the intersection of its two halves along its lowest absent variable, and
  * a half whose tag equals the whole's is not prime. No maps and no merging
  * lists, so it is much faster for dense functions of few inputs.
- * `tagOf(m)` gives minterm m's tag; at most `maxPrimes` primes.
+ * `mintermTags[m]` is minterm m's tag; at most `maxPrimes` primes.
  */
 export function denseTaggedPrimes(
   n: number,
-  tagOf: (m: number) => number,
+  mintermTags: Uint32Array,
   limits: { maxPrimes: number; deadline: number },
 ): TaggedPrime[] {
   if (n > DENSE_MAX_INPUTS) throw new RangeError(`dense prime table: ${n} inputs, at most ${DENSE_MAX_INPUTS}`);
+  if (n === 0) return mintermTags[0] ? [{ value: 0, mask: 0, tag: mintermTags[0] }] : [];
   const N = 3 ** n;
   const pow = new Int32Array(n + 1);
   pow[0] = 1;
   for (let i = 0; i < n; i++) pow[i + 1] = pow[i]! * 3;
   const tag = new Uint32Array(N);
   const notPrime = new Uint8Array(N);
+  // Odometer over digits 1 .. n-1; digit 0 is unrolled (T, T + 1, T + 2 = the 0, 1 and absent cases).
   const digit = new Uint8Array(n + 1);
   let value = 0;
   let free = 0;
-  for (let T = 0; T < N; T++) {
-    let t: number;
-    if (free === 0) t = tagOf(value);
-    else {
-      const low = 31 - Math.clz32(free & -free);
-      t = tag[T - 2 * pow[low]!]! & tag[T - pow[low]!]!;
-      if (t !== 0) {
-        // Every half along an absent variable whose whole tag survives here is not prime.
-        for (let f = free; f !== 0; f &= f - 1) {
-          const j = 31 - Math.clz32(f & -f);
-          const h0 = T - 2 * pow[j]!;
-          const h1 = T - pow[j]!;
-          if (tag[h0] === t) notPrime[h0] = 1;
-          if (tag[h1] === t) notPrime[h1] = 1;
-        }
-      }
+  // Halves of cube T along each absent variable of `f` (digit 0 excluded) that keep the tag t are not prime.
+  const markHalves = (T: number, f: number, t: number) => {
+    for (; f !== 0; f &= f - 1) {
+      const j = 31 - Math.clz32(f & -f);
+      const h1 = T - pow[j]!;
+      const h0 = h1 - pow[j]!;
+      if (tag[h0] === t) notPrime[h0] = 1;
+      if (tag[h1] === t) notPrime[h1] = 1;
     }
-    tag[T] = t;
-    if ((T & 0xffff) === 0xffff && Date.now() > limits.deadline) throw new ExactLimit("timeLimitMs", T);
-    // Next ternary number.
-    let i = 0;
+  };
+  for (let T = 0; T < N; T += 3) {
+    let t0: number;
+    let t1: number;
+    if (free === 0) {
+      t0 = mintermTags[value]!;
+      t1 = mintermTags[value | 1]!;
+    } else {
+      const low = 31 - Math.clz32(free & -free);
+      const p = pow[low]!;
+      t0 = tag[T - 2 * p]! & tag[T - p]!;
+      t1 = tag[T + 1 - 2 * p]! & tag[T + 1 - p]!;
+      if (t0 !== 0) markHalves(T, free, t0);
+      if (t1 !== 0) markHalves(T + 1, free, t1);
+    }
+    tag[T] = t0;
+    tag[T + 1] = t1;
+    const t2 = t0 & t1;
+    tag[T + 2] = t2;
+    if (t2 !== 0) {
+      if (t0 === t2) notPrime[T] = 1;
+      if (t1 === t2) notPrime[T + 1] = 1;
+      if (free !== 0) markHalves(T + 2, free, t2);
+    }
+    if ((T & 0xffff) < 3 && T > 0 && Date.now() > limits.deadline) throw new ExactLimit("timeLimitMs", T);
+    let i = 1;
     while (digit[i] === 2) {
       digit[i] = 0;
       free &= ~(1 << i);
@@ -174,13 +190,16 @@ export function denseTaggedPrimes(
   digit.fill(0);
   value = 0;
   free = 0;
-  for (let T = 0; T < N; T++) {
-    const t = tag[T]!;
-    if (t !== 0 && notPrime[T] === 0) {
-      primes.push({ value: value >>> 0, mask: (full & ~free) >>> 0, tag: t });
+  for (let T = 0; T < N; T += 3) {
+    for (let d = 0; d < 3; d++) {
+      const t = tag[T + d]!;
+      if (t === 0 || notPrime[T + d] === 1) continue;
+      const v = d === 1 ? value | 1 : value;
+      const f = d === 2 ? free | 1 : free;
+      primes.push({ value: v >>> 0, mask: (full & ~f) >>> 0, tag: t });
       if (primes.length > limits.maxPrimes) throw new ExactLimit("maxPrimes", primes.length);
     }
-    let i = 0;
+    let i = 1;
     while (digit[i] === 2) {
       digit[i] = 0;
       free &= ~(1 << i);

@@ -72,7 +72,7 @@ describe("dense multi-output prime table", () => {
         .sort();
       const tagOfMinterm = (m: number) => tagOfCube.get(`${m}/${fullMask(n)}`) ?? 0;
       const limits = { maxPrimes: Infinity, maxImplicants: Infinity, deadline: Infinity };
-      const dense = denseTaggedPrimes(n, tagOfMinterm, limits).map((p) => `${cubeToString(p, n)}:${p.tag}`).sort();
+      const dense = denseTaggedPrimes(n, Uint32Array.from({ length: 2 ** n }, (_, m) => tagOfMinterm(m)), limits).map((p) => `${cubeToString(p, n)}:${p.tag}`).sort();
       expect(dense).toEqual(want);
       const minterms = Array.from({ length: 2 ** n }, (_, m) => m);
       const tables = taggedPrimes(n, minterms, tagOfMinterm, limits).map((p) => `${cubeToString(p, n)}:${p.tag}`).sort();
