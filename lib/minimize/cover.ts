@@ -105,7 +105,7 @@ let NODE_DOMINANCE = 1;
  * halves, the first step size at inner nodes, and the depth down to which the
  * Lagrangian primal heuristic runs (every `heurEvery` steps).
  */
-export const TUNING = { rootIters: 600, nodeIters: 100, stall: 15, nodeLambda: 2, heurDepth: 0, heurEvery: 25 };
+export const TUNING = { rootIters: 600, nodeIters: 100, stall: 15, nodeLambda: 2, heurDepth: 0, heurEvery: 25, ascent: 2, rootAscent: 1, ascentMid: 0.25 };
 export function setNodeDominance(d: number): void {
   NODE_DOMINANCE = d;
 }
@@ -503,6 +503,7 @@ class BranchAndBound {
     let stall = 0;
     const R = this.R;
     let lastHeur = -Infinity;
+    const bestU = new Float64Array(u.length);
     for (let it = 0; it < iters; it++) {
       let L = 0;
       for (const r of liveRows) {
@@ -529,6 +530,7 @@ class BranchAndBound {
       if (L > best + 1e-9) {
         best = L;
         for (const c of liveCols) bestRc[c] = rc[c]!;
+        bestU.set(u);
         stall = 0;
       } else if (++stall >= TUNING.stall) {
         lambda /= 2;
@@ -552,7 +554,86 @@ class BranchAndBound {
       if (K >= 0) u[R] = Math.max(0, mu + t * gmu);
       if (lambda < 1e-4) break;
     }
+    if ((iters === TUNING.rootIters ? TUNING.rootAscent : TUNING.ascent) > 0 && best > -Infinity && !(Math.ceil(best - 1e-6) >= gapTarget)) {
+      const asc = this.ascend(liveRows, liveCols, start, csr, bestU, K, iters === TUNING.rootIters ? TUNING.rootAscent : TUNING.ascent);
+      if (asc.lb > best) {
+        best = asc.lb;
+        for (const c of liveCols) bestRc[c] = asc.rc[c]!;
+      }
+    }
+    if (best > -Infinity) u.set(bestU);
     return { lb: best, rc: bestRc, liveCols };
+  }
+
+  /**
+   * Coordinate ascent on the Lagrangian from `u` (changed in place): each row
+   * multiplier moves to where its cheapest live column's reduced cost reaches
+   * zero, which never lowers the bound; then the budget multiplier moves to
+   * where exactly K columns have negative reduced cost. Returns the bound and
+   * the reduced costs at the final multipliers.
+   */
+  private ascend(
+    liveRows: number[],
+    liveCols: number[],
+    start: Int32Array,
+    csr: Int32Array,
+    u: Float64Array,
+    K: number,
+    sweeps: number,
+  ): { lb: number; rc: Float64Array } {
+    const R = this.R;
+    const C = this.cols.length;
+    const rc = new Float64Array(C);
+    // Rows → positions of live columns (transpose of the column lists).
+    const rs = new Int32Array(R + 1);
+    for (let q = 0; q < start[liveCols.length]!; q++) rs[csr[q]! + 1]!++;
+    for (let r = 0; r < R; r++) rs[r + 1]! += rs[r]!;
+    const fill = rs.slice(0, R);
+    const rowColIdx = new Int32Array(start[liveCols.length]!);
+    for (let i = 0; i < liveCols.length; i++) for (let q = start[i]!; q < start[i + 1]!; q++) rowColIdx[fill[csr[q]!]!++] = i;
+    const a = new Float64Array(liveCols.length);
+    let mu = K >= 0 ? u[R]! : 0;
+    for (let i = 0; i < liveCols.length; i++) {
+      let v = this.w[liveCols[i]!]!;
+      for (let q = start[i]!; q < start[i + 1]!; q++) v -= u[csr[q]!]!;
+      a[i] = v;
+    }
+    const sorted = K >= 0 ? new Float64Array(liveCols.length) : a;
+    for (let sw = 0; sw < sweeps; sw++) {
+      for (const r of liveRows) {
+        const ur = u[r]!;
+        let m1 = Infinity;
+        let m2 = Infinity;
+        for (let q = rs[r]!; q < rs[r + 1]!; q++) {
+          const v = a[rowColIdx[q]!]! + mu + ur;
+          if (v < m1) {
+            m2 = m1;
+            m1 = v;
+          } else if (v < m2) m2 = v;
+        }
+        const target = TUNING.ascentMid > 0 && Number.isFinite(m2) ? m1 + TUNING.ascentMid * (m2 - m1) : m1;
+        const nu = target > 0 ? target : 0;
+        if (nu === ur || !Number.isFinite(nu)) continue;
+        u[r] = nu;
+        const d = nu - ur;
+        for (let q = rs[r]!; q < rs[r + 1]!; q++) a[rowColIdx[q]!]! -= d;
+      }
+      if (K >= 0) {
+        sorted.set(a);
+        sorted.sort();
+        mu = K < liveCols.length ? Math.max(0, -sorted[K]!) : 0;
+      }
+    }
+    let L = 0;
+    for (const r of liveRows) L += u[r]!;
+    L -= K >= 0 ? mu * K : 0;
+    for (let i = 0; i < liveCols.length; i++) {
+      const v = a[i]! + mu;
+      rc[liveCols[i]!] = v;
+      if (v < 0) L += v;
+    }
+    if (K >= 0) u[R] = mu;
+    return { lb: L, rc };
   }
 
   /**
