@@ -6,41 +6,55 @@ const fromUtf8 = new TextDecoder();
 /**
  * A cover in the equation language: SOP `a * b' + c`, POS `(a + b') * (c)`;
  * 0 and 1 for constants. Written as bytes and decoded once, because covers of
- * tens of thousands of terms make string concatenation the slow part.
+ * tens of thousands of terms make string concatenation the slow part; the
+ * literals of each group of 4 inputs come from a table of their 256 patterns.
  */
 export function formatCover(cubes: readonly Cube[], inputs: readonly string[], form: "sop" | "pos"): string {
   const n = inputs.length;
   if (cubes.length === 0) return form === "sop" ? "0" : "1";
   if (cubes.some((c) => c.mask === 0)) return form === "sop" ? "1" : "0";
-  const plain = inputs.map((x) => utf8.encode(x));
-  const inverted = inputs.map((x) => utf8.encode(`${x}'`));
   const inner = utf8.encode(form === "sop" ? " * " : " + ");
   const outer = utf8.encode(form === "sop" ? " + " : " * ");
   const wrap = form === "pos";
+  // Group g holds bits 4g .. 4g+3 (bit b is input n-1-b); chunk[g][mask·16 + value] lists its literals, each after `inner`.
+  const groups = Math.ceil(n / 4);
+  const chunk: Uint8Array[][] = [];
+  for (let g = 0; g < groups; g++) {
+    const table: Uint8Array[] = [];
+    for (let idx = 0; idx < 256; idx++) {
+      const m = idx >>> 4;
+      const v = idx & 15;
+      const parts: number[] = [];
+      // Declared order: higher bits first.
+      for (let k = 3; k >= 0; k--) {
+        const b = 4 * g + k;
+        if (b >= n || !((m >>> k) & 1)) continue;
+        const name = inputs[n - 1 - b]!;
+        for (const x of inner) parts.push(x);
+        for (const x of utf8.encode((v >>> k) & 1 ? name : `${name}'`)) parts.push(x);
+      }
+      table.push(Uint8Array.from(parts));
+    }
+    chunk.push(table);
+  }
   let size = 0;
   for (const c of cubes) {
     size += outer.length + (wrap ? 2 : 0);
-    for (let i = 0; i < n; i++) {
-      const bit = 1 << (n - 1 - i);
-      if (c.mask & bit) size += inner.length + (c.value & bit ? plain[i]! : inverted[i]!).length;
-    }
+    for (let g = 0; g < groups; g++) size += chunk[g]![(((c.mask >>> (4 * g)) & 15) << 4) | ((c.value >>> (4 * g)) & 15)]!.length;
   }
   const buf = new Uint8Array(size);
   let p = 0;
-  const put = (b: Uint8Array) => {
-    for (let q = 0; q < b.length; q++) buf[p++] = b[q]!;
-  };
   for (let k = 0; k < cubes.length; k++) {
     const c = cubes[k]!;
-    if (k > 0) put(outer);
+    if (k > 0) for (let q = 0; q < outer.length; q++) buf[p++] = outer[q]!;
     if (wrap) buf[p++] = 0x28;
-    let first = true;
-    for (let i = 0; i < n; i++) {
-      const bit = 1 << (n - 1 - i);
-      if (!(c.mask & bit)) continue;
-      if (!first) put(inner);
-      first = false;
-      put(c.value & bit ? plain[i]! : inverted[i]!);
+    // The first literal of the term has no separator before it.
+    let skip = inner.length;
+    for (let g = groups - 1; g >= 0; g--) {
+      const b = chunk[g]![(((c.mask >>> (4 * g)) & 15) << 4) | ((c.value >>> (4 * g)) & 15)]!;
+      if (b.length === 0) continue;
+      for (let q = skip; q < b.length; q++) buf[p++] = b[q]!;
+      skip = 0;
     }
     if (wrap) buf[p++] = 0x29;
   }

@@ -175,9 +175,29 @@ function assignTerms(n: number, targets: Target[], chosen: TaggedPrime[]): Cube[
 }
 
 function costOfCovers(model: CostModel, covers: Cube[][]): number {
-  const distinct = new Map<number, number>();
-  for (const cv of covers) for (const c of cv) distinct.set(cubeKey(c), popcount(c.mask));
-  return designCost(model, [...distinct.values()], covers.map((c) => c.length));
+  // Distinct terms by sorting their keys: covers of tens of thousands of terms make a map the slow part.
+  // The keys are exact below 2^53, that is for masks below 2^23.
+  let total = 0;
+  let wide = false;
+  for (const cv of covers) {
+    total += cv.length;
+    for (const c of cv) if (c.mask >= 2 ** 23) wide = true;
+  }
+  if (wide) {
+    const distinct = new Map<string, number>();
+    for (const cv of covers) for (const c of cv) distinct.set(`${c.mask}/${c.value}`, popcount(c.mask));
+    return designCost(model, [...distinct.values()], covers.map((c) => c.length));
+  }
+  const keys = new Float64Array(total);
+  let i = 0;
+  for (const cv of covers) for (const c of cv) keys[i++] = cubeKey(c);
+  keys.sort();
+  const literals: number[] = [];
+  for (let k = 0; k < total; k++) {
+    if (k > 0 && keys[k] === keys[k - 1]) continue;
+    literals.push(popcount(Math.floor(keys[k]! / 1073741824)));
+  }
+  return designCost(model, literals, covers.map((c) => c.length));
 }
 
 /** The covering problem of the exact route: rows (output, ON minterm), columns multi-output primes. */
@@ -712,9 +732,12 @@ export function minimize(spec: FunctionSpec, options: MinimizeOptions = {}): Min
       `internal error: the ${form} cover of ${verdict.output} fails at minterm ${verdict.minterm} (${verdict.kind}); please report this design`,
     );
   }
-  const uses = new Map<number, number>();
-  for (const cv of solved.covers) for (const c of new Set(cv.map(cubeKey))) uses.set(c, (uses.get(c) ?? 0) + 1);
-  const shared = [...uses.values()].filter((u) => u > 1).length;
+  let shared = 0;
+  if (solved.covers.length > 1) {
+    const uses = new Map<number, number>();
+    for (const cv of solved.covers) for (const c of new Set(cv.map(cubeKey))) uses.set(c, (uses.get(c) ?? 0) + 1);
+    shared = [...uses.values()].filter((u) => u > 1).length;
+  }
   const outputs: MinimizedOutput[] = spec.outputs.map((o, j) => {
     const cubes = outCubes[j]!;
     const own = costOfCovers(model, [solved.covers[j]!]);
