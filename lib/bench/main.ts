@@ -2,7 +2,9 @@
  * `npm run bench`: seeded random functions (8–16 inputs, 40 % ON, 10 % DC)
  * and structured ones, each minimized by minimize() and, when that result is
  * exact, also by the generic route (all primes, then a highs MILP), printing
- * one table row per case and a summary against the targets.
+ * one table row per case and a summary against the targets. Both routes are
+ * warmed up first and timed as the fastest of a few runs (see bestOf); both
+ * start from the same prime generation.
  */
 import { popcount } from "../logic";
 import { columnWeight } from "../minimize/cost";
