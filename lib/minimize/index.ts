@@ -235,7 +235,17 @@ function buildProblem(
   let all: TaggedPrime[];
   // The dense table costs 3^n whatever the function; the tables cost what they hold, little when few care points are adjacent.
   const pairs = n < 6 ? Infinity : adjacentPairs(care, n);
-  if (n <= DENSE_MAX_INPUTS && pairs > 2 ** (n - 1)) {
+  if (pairs === 0) {
+    // No two care points one variable apart: nothing merges, every care minterm is a prime.
+    const full = fullMask(n);
+    all = [];
+    for (let i = 0; i < minterms.length; i++) {
+      const m = minterms[i]!;
+      const tag = tagOf(m);
+      if (tag !== 0) all.push({ value: m, mask: full, tag });
+    }
+    if (all.length > limits.maxPrimes) throw new ExactLimit("maxPrimes", all.length);
+  } else if (n <= DENSE_MAX_INPUTS && pairs > 2 ** (n - 1)) {
     const tags = new Uint32Array(2 ** n);
     targets.forEach((t, j) => {
       for (let w = 0; w < words; w++) {

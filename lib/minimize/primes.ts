@@ -131,7 +131,11 @@ export function denseTaggedPrimes(
   const pow = new Int32Array(n + 1);
   pow[0] = 1;
   for (let i = 0; i < n; i++) pow[i + 1] = pow[i]! * 3;
-  const tag = new Uint32Array(N);
+  // The narrowest tags that hold every output: the table is what the loop waits on.
+  let any = 0;
+  for (let m = 0; m < mintermTags.length; m++) any |= mintermTags[m]!;
+  any >>>= 0;
+  const tag = any < 256 ? new Uint8Array(N) : any < 65536 ? new Uint16Array(N) : new Uint32Array(N);
   const notPrime = new Uint8Array(N);
   // Odometer over digits 1 .. n-1; digit 0 is unrolled (T, T + 1, T + 2 = the 0, 1 and absent cases).
   const digit = new Uint8Array(n + 1);

@@ -80,3 +80,28 @@ describe("dense multi-output prime table", () => {
     });
   }
 });
+
+describe("functions without adjacent care points", () => {
+  for (const n of [6, 9]) {
+    it(`odd parity of ${n} inputs needs all 2^(n-1) minterms as products`, () => {
+      // From memory: no two odd-parity points are one variable apart, so every ON minterm is its own
+      // prime and essential; the minimum is 2^(n-1) products of n literals. Checked here by brute force too.
+      const on: number[] = [];
+      for (let m = 0; m < 2 ** n; m++) {
+        let p = 0;
+        for (let x = m; x; x &= x - 1) p ^= 1;
+        if (p) on.push(m);
+      }
+      const spec: FunctionSpec = {
+        inputs: Array.from({ length: n }, (_, i) => `x${i}`),
+        outputs: [{ name: "p", on: on.map((m) => minterm(m, n)), dc: [] }],
+      };
+      const brute = bruteImplicants(spec).filter((p) => isPrimeFor(spec, 0, p.cube));
+      expect(brute.length).toBe(2 ** (n - 1));
+      const r = minimize(spec);
+      expect(r.exact).toBe(true);
+      expect(r.primes).toBe(2 ** (n - 1));
+      expect([r.outputs[0]!.products, r.outputs[0]!.literals]).toEqual([2 ** (n - 1), n * 2 ** (n - 1)]);
+    });
+  }
+});
