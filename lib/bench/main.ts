@@ -30,7 +30,7 @@ function coverWeight(r: MinimizeResult): number {
 const pad = (s: string | number, w: number) => String(s).padStart(w);
 
 /**
- * Milliseconds of the fastest of up to 5 runs, stopping once 1.5 s have been
+ * Milliseconds of the fastest of up to 10 runs, stopping once 1.5 s have been
  * spent. Both routes are timed this way, so neither the other work on a
  * shared machine nor a collection of the other route's garbage decides their
  * times or the ratio. (A forced collection before each run was tried: it
@@ -40,7 +40,7 @@ const pad = (s: string | number, w: number) => String(s).padStart(w);
 async function bestOf(run: () => number | Promise<number>): Promise<number> {
   let best = Infinity;
   let spent = 0;
-  for (let i = 0; i < 5 && spent < 1500; i++) {
+  for (let i = 0; i < 10 && spent < 1500; i++) {
     const ms = await run();
     best = Math.min(best, ms);
     spent += ms;
