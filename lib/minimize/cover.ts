@@ -109,7 +109,7 @@ let NODE_DOMINANCE = 1;
  * literal phase (a column budget), nodes down to depth `lpDepth` also solve
  * the LP relaxation by dual simplex when at most `lpMaxRows` rows are live.
  */
-export const TUNING = { lpMaxRows: 400, lpDepth: 0, rootIters: 600, nodeIters: 100, stall: 15, nodeLambda: 2, heurDepth: 0, heurEvery: 25, ascent: 2, rootAscent: 1, ascentMid: 0.25 };
+export const TUNING = { lpMaxRows: 400, lpDepth: Infinity, rootIters: 600, nodeIters: 100, stall: 15, nodeLambda: 2, heurDepth: 0, heurEvery: 25, ascent: 2, rootAscent: 1, ascentMid: 0.25 };
 export function setNodeDominance(d: number): void {
   NODE_DOMINANCE = d;
 }
@@ -803,7 +803,8 @@ class BranchAndBound {
     // subgradient's order (the LP's many zero reduced costs ordered it worse in trials).
     let lpFix: { lb: number; rc: Float64Array } | null = null;
     if (depth <= TUNING.lpDepth && K >= 0) {
-      // Subgradient steps stall short of the LP optimum; the simplex duals close that gap.
+      // Subgradient steps stall short of the LP optimum; the simplex duals close that gap
+      // (at every node: both covering phases of the eleven random 10-input bench cases took 0.7× the time of root only).
       const lp = this.lpBound(rowsA, lag.liveCols, u, K, lag.lb);
       if (this.lpX) {
         // LP rounding: the support of the LP solution, largest values first, then the cheapest per new row.
