@@ -4,21 +4,12 @@ import type { MinimizeResult } from "@/lib/minimize/types";
 import type { Analysis } from "@/lib/analysis";
 import type { NetlistDocument } from "@/lib/export/json";
 import type { TargetForm } from "@/lib/map/mapper";
-import type { CostKind } from "@/lib/pipeline/settings";
+import type { CostKind, DesignSettings } from "@/lib/pipeline/settings";
 
 export type { Diagnostic, MinimizeResult, Analysis, NetlistDocument, TargetForm, CostKind };
 
-/** The design settings the workbench edits (the family travels separately). */
-export interface WorkbenchSettings {
-  form?: TargetForm;
-  cost?: CostKind;
-  fanIn?: number;
-  fanOut?: number;
-  complementedInputs?: boolean;
-  outputPinLoad?: number;
-  clockMHz?: number;
-  heuristic?: boolean;
-}
+/** The design settings the workbench edits: the pipeline's, less the family (it travels separately) and the activity factor. */
+export type WorkbenchSettings = Omit<DesignSettings, "familyId" | "activity">;
 
 export interface CompileResponse {
   diagnostics: Diagnostic[];
