@@ -4,16 +4,9 @@ import highsLoader from "highs";
 import type { Cube, FunctionSpec } from "../../lib/logic";
 import { fullMask, minterm, popcount } from "../../lib/logic";
 
-export function rng(seed: number): () => number {
-  let s = seed >>> 0;
-  return () => {
-    s = (s + 0x6d2b79f5) >>> 0;
-    let t = s;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** The bench's seeded generator (mulberry32), so tests and bench draw the same functions from a seed. */
+import { prng as rng } from "../../lib/bench/cases";
+export { rng };
 
 export const names = (n: number) => Array.from({ length: n }, (_, i) => `x${i}`);
 

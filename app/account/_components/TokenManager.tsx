@@ -1,15 +1,10 @@
 "use client";
 import { useState } from "react";
 
-export interface TokenRow {
-  id: string;
-  name: string;
-  prefix: string;
-  createdAt: string;
-  expiresAt: string;
-  lastUsedAt: string | null;
-  revokedAt: string | null;
-}
+// The row shape the tokens API answers with (a type only: nothing server-side reaches the browser).
+import type { TokenSummary as TokenRow } from "@/lib/data/tokens";
+
+export type { TokenRow };
 
 const day = (iso: string | null) => (iso ? iso.slice(0, 10) : "—");
 const input = "mt-1 block w-full rounded border border-rule bg-paper px-3 py-2 text-ink outline-none focus:border-accent";
