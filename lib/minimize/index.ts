@@ -18,10 +18,10 @@ import { PRODUCT_WEIGHT, boundFromSurrogate, columnWeight, designCost, gatesFor,
 import { rowColumns, solveCover } from "./cover";
 import { formatCover } from "./expression";
 import { HeuristicTimeout, heuristicCover } from "./heuristic";
-import { DENSE_MAX_INPUTS, ExactLimit, denseTaggedPrimes, taggedPrimes, type TaggedPrime } from "./primes";
+import { DENSE_MAX_INPUTS, ExactLimit, compactCover, coverTaggedPrimes, denseTaggedPrimes, taggedPrimes, type TaggedPrime } from "./primes";
 import type { CostModel, MinimizeOptions, MinimizeResult, MinimizedOutput } from "./types";
 import { LimitError } from "./types";
-import { complement, mergeAlongVariables, primesOfCover } from "./unate";
+import { OverBudget, WorkBudget, complement } from "./unate";
 
 export type { CostModel, MinimizeOptions, MinimizeResult, MinimizedOutput } from "./types";
 export { LimitError } from "./types";
@@ -46,46 +46,6 @@ interface Target {
   /** Present when inputs ≤ TRUTH_TABLE_MAX_INPUTS. `on` wins where both are set. */
   onT?: Uint32Array;
   dcT?: Uint32Array;
-}
-
-/**
- * A small disjoint cube cover of a truth table: whole aligned blocks of
- * minterms (free low variables) first, then merged along every variable.
- */
-function compactCover(t: Uint32Array, n: number): Cube[] {
-  const full = fullMask(n);
-  const out: Cube[] = [];
-  const rangeState = (lo: number, k: number): 0 | 1 | 2 => {
-    // 0 all off, 1 all on, 2 mixed, for minterms lo .. lo + 2^k - 1.
-    if (k >= 5) {
-      let ones = false;
-      let zeros = false;
-      for (let w = lo >>> 5, end = (lo + 2 ** k) >>> 5; w < end; w++) {
-        const x = t[w]!;
-        if (x !== 0) ones = true;
-        if (x !== 0xffffffff) zeros = true;
-        if (ones && zeros) return 2;
-      }
-      return ones ? 1 : 0;
-    }
-    const all = (1 << (1 << k)) - 1;
-    const bits = (t[lo >>> 5]! >>> (lo & 31)) & all;
-    return bits === 0 ? 0 : bits === all ? 1 : 2;
-  };
-  const walk = (lo: number, k: number) => {
-    const st = rangeState(lo, k);
-    if (st === 0) return;
-    if (st === 1) {
-      const mask = (full & ~((2 ** k - 1) >>> 0)) >>> 0;
-      out.push({ value: lo >>> 0, mask });
-      return;
-    }
-    walk(lo, k - 1);
-    walk(lo + 2 ** (k - 1), k - 1);
-  };
-  if (n === 0) return (t[0]! & 1) === 1 ? [{ value: 0, mask: 0 }] : [];
-  walk(0, n);
-  return mergeAlongVariables(out, n);
 }
 
 function tableCubes(t: Uint32Array, n: number): Cube[] {
@@ -232,7 +192,7 @@ function buildProblem(
     }
     return tag;
   };
-  let all: TaggedPrime[];
+  let all: TaggedPrime[] | null;
   // The dense table costs 3^n whatever the function; the tables cost what they hold, little when few care points are adjacent.
   const pairs = n < 6 ? Infinity : adjacentPairs(care, n);
   if (pairs === 0) {
@@ -245,16 +205,26 @@ function buildProblem(
       if (tag !== 0) all.push({ value: m, mask: full, tag });
     }
     if (all.length > limits.maxPrimes) throw new ExactLimit("maxPrimes", all.length);
-  } else if (n <= DENSE_MAX_INPUTS && pairs > 2 ** (n - 1)) {
-    const tags = new Uint32Array(2 ** n);
-    targets.forEach((t, j) => {
-      for (let w = 0; w < words; w++) {
-        for (let x = t.onT![w]! | t.dcT![w]!; x !== 0; x &= x - 1) tags[w * 32 + 31 - Math.clz32(x & -x)]! |= 1 << j;
-      }
-    });
-    all = denseTaggedPrimes(n, tags, limits);
   } else {
-    all = tablePrimes(n, targets, words, minterms, tagOf, limits, pairs <= 2 ** (n - 1));
+    const dense = n <= DENSE_MAX_INPUTS && pairs > 2 ** (n - 1);
+    // What the table route is about to cost, in cells of the dense table (about 10 ns each): 3^n for the
+    // dense table; for the map-based tables, a few cells per variable for each implicant, of which there
+    // are at least the care points and their adjacent pairs.
+    const tableCost = dense ? 3 ** n : 3 * n * (minterms.length + pairs);
+    // Functions with large cubes have small cube covers and few primes: the recursive rule then costs a
+    // small part of the table, and is tried first within a part of its cost.
+    all = n < 6 ? null : recursivePrimes(n, targets, limits, tableCost);
+    if (all === null && dense) {
+      const tags = new Uint32Array(2 ** n);
+      targets.forEach((t, j) => {
+        for (let w = 0; w < words; w++) {
+          for (let x = t.onT![w]! | t.dcT![w]!; x !== 0; x &= x - 1) tags[w * 32 + 31 - Math.clz32(x & -x)]! |= 1 << j;
+        }
+      });
+      all = denseTaggedPrimes(n, tags, limits);
+    } else if (all === null) {
+      all = tablePrimes(n, targets, words, minterms, tagOf, limits, pairs <= 2 ** (n - 1));
+    }
   }
   return problemFromPrimes(n, targets, model, all);
 }
@@ -350,68 +320,44 @@ function problemFromPrimes(n: number, targets: Target[], model: CostModel, all: 
 }
 
 /**
- * Multi-output primes without the tables: for every subset T of outputs, the
- * primes of the product of their ON ∪ DC (recursive rule on cubes), each
- * tagged with every output it fits. A prime of f_T is a prime of f_T(p), so
- * this is exactly the set the tables would give. Up to 8 outputs.
+ * Multi-output primes without the tables, from compact cube covers of each
+ * output's ON ∪ DC (coverTaggedPrimes in ./primes): exactly the set the
+ * tables give. Without `tableCost`, up to 8 outputs, bounded by the limits
+ * only. With `tableCost` (what the table route would cost, in dense-table
+ * cells), returns null instead as soon as the covers take more than 1/64 of
+ * it to set up (n units a block) or the recursive rule more than 1/8 (one
+ * unit a cube comparison): the tables are then the better choice, and at
+ * most a small part of their cost was spent.
  */
+function recursivePrimes(n: number, targets: Target[], limits: { maxPrimes: number; deadline: number }): TaggedPrime[];
 function recursivePrimes(
   n: number,
   targets: Target[],
   limits: { maxPrimes: number; deadline: number },
-): TaggedPrime[] {
+  tableCost: number,
+): TaggedPrime[] | null;
+function recursivePrimes(
+  n: number,
+  targets: Target[],
+  limits: { maxPrimes: number; deadline: number },
+  tableCost?: number,
+): TaggedPrime[] | null {
   const k = targets.length;
-  if (k > 8) throw new ExactLimit("implicants", k);
-  const full = fullMask(n);
+  if (tableCost === undefined && k > 8) throw new ExactLimit("implicants", k);
   const words = targets[0]!.onT!.length;
+  const setup = tableCost === undefined ? undefined : new WorkBudget(tableCost / 64);
+  const work = tableCost === undefined ? undefined : new WorkBudget(tableCost / 8);
   const care = targets.map((t) => {
     const c = new Uint32Array(words);
     for (let w = 0; w < words; w++) c[w] = t.onT![w]! | t.dcT![w]!;
     return c;
   });
-  const found = new Map<number, Cube>();
-  for (let T = 1; T < 1 << k; T++) {
-    if (Date.now() > limits.deadline) throw new ExactLimit("timeLimitMs", found.size);
-    const careT = new Uint32Array(words).fill(0xffffffff);
-    for (let j = 0; j < k; j++) if ((T >>> j) & 1) for (let w = 0; w < words; w++) careT[w]! &= care[j]![w]!;
-    let useful = false;
-    for (let j = 0; j < k && !useful; j++) {
-      if (!((T >>> j) & 1)) continue;
-      for (let w = 0; w < words; w++) if (careT[w]! & targets[j]!.onT![w]!) useful = true;
-    }
-    if (!useful) continue;
-    let P: Cube[];
-    try {
-      P = primesOfCover(compactCover(careT, n), full, limits.maxPrimes * 4);
-    } catch (e) {
-      if (e instanceof RangeError) throw new ExactLimit("maxPrimes", limits.maxPrimes);
-      throw e;
-    }
-    for (const p of P) found.set(cubeKey(p), p);
-    if (found.size > limits.maxPrimes) throw new ExactLimit("maxPrimes", found.size);
+  try {
+    return coverTaggedPrimes(n, care, limits, { setup, work });
+  } catch (e) {
+    if (e instanceof OverBudget) return null;
+    throw e;
   }
-  const out: TaggedPrime[] = [];
-  for (const p of found.values()) {
-    let tag = 0;
-    for (let j = 0; j < k; j++) {
-      const t = care[j]!;
-      let inside = true;
-      const free = (full & ~p.mask) >>> 0;
-      let sub = 0;
-      for (;;) {
-        const m = (p.value | sub) >>> 0;
-        if (!((t[m >>> 5]! >>> (m & 31)) & 1)) {
-          inside = false;
-          break;
-        }
-        if (sub === free) break;
-        sub = ((sub - free) & free) >>> 0;
-      }
-      if (inside) tag |= 1 << j;
-    }
-    out.push({ value: p.value, mask: p.mask, tag });
-  }
-  return out;
 }
 
 /**
@@ -422,7 +368,8 @@ export function coveringProblem(spec: FunctionSpec, options: { cost?: CostModel;
   const n = spec.inputs.length;
   const targets = buildTargets(spec, options.form ?? "sop");
   const model = options.cost ?? DEFAULTS.cost;
-  // Same prime generation as minimize() (tables, or the recursive rule where the tables would explode), without its limits.
+  // Same prime generation as minimize() (the cube route within its budget, else the tables, or the cube route where the
+  // tables would explode), without its limits.
   let p: ReturnType<typeof buildProblem>;
   try {
     p = buildProblem(n, targets, model, { maxPrimes: Infinity, maxImplicants: DEFAULTS.maxImplicants, deadline: Infinity });

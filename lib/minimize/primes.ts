@@ -9,7 +9,9 @@
  * whole tag: it is then a prime of the product of the outputs in its tag.
  * Don't-cares take part in merging; the cover step ignores them.
  */
+import type { Cube } from "../logic";
 import { fullMask } from "../logic";
+import { type WorkBudget, mergeLists, primesOfCover, removeContained } from "./unate";
 
 export interface TaggedPrime {
   value: number;
@@ -218,4 +220,175 @@ export function denseTaggedPrimes(
     }
   }
   return primes;
+}
+
+/**
+ * A small disjoint cube cover of a truth table (bit m = minterm m). Splits on
+ * the highest variable first: a constant block becomes a cube, a block whose
+ * two halves are equal drops that variable; the blocks are then merged along
+ * every variable. Each block is charged n units to `budget` (the merging
+ * costs about n map operations a block).
+ */
+export function compactCover(t: Uint32Array, n: number, budget?: WorkBudget): Cube[] {
+  if (n === 0) return (t[0]! & 1) === 1 ? [{ value: 0, mask: 0 }] : [];
+  const full = fullMask(n);
+  const values: number[] = [];
+  const masks: number[] = [];
+  // Minterms lo .. lo + 2^k - 1 (lo a multiple of 2^k): 0 all off, 1 all on, 2 mixed.
+  const rangeState = (lo: number, k: number): 0 | 1 | 2 => {
+    if (k >= 5) {
+      let ones = false;
+      let zeros = false;
+      for (let w = lo >>> 5, end = (lo + (1 << k)) >>> 5; w < end; w++) {
+        const x = t[w]!;
+        if (x !== 0) ones = true;
+        if (x !== -1 >>> 0) zeros = true;
+        if (ones && zeros) return 2;
+      }
+      return ones ? 1 : 0;
+    }
+    const all = (1 << (1 << k)) - 1;
+    const bits = (t[lo >>> 5]! >>> (lo & 31)) & all;
+    return bits === 0 ? 0 : bits === all ? 1 : 2;
+  };
+  // Whether the block's halves along variable k - 1 are equal (k ≥ 1).
+  const sameHalves = (lo: number, k: number): boolean => {
+    const h = 1 << (k - 1);
+    if (k - 1 >= 5) {
+      for (let w = lo >>> 5, u = (lo + h) >>> 5, end = u; w < end; w++, u++) if (t[w] !== t[u]) return false;
+      return true;
+    }
+    const bits = t[lo >>> 5]! >>> (lo & 31);
+    const low = (1 << h) - 1;
+    return (bits & low) === ((bits >>> h) & low);
+  };
+  // `free`: variables at or above k that the block does not depend on.
+  const walk = (lo: number, k: number, free: number) => {
+    const st = rangeState(lo, k);
+    if (st === 0) return;
+    if (st === 1) {
+      budget?.spend(n);
+      values.push((lo & ~free) >>> 0);
+      masks.push((full & ~((1 << k) - 1) & ~free) >>> 0);
+      return;
+    }
+    if (sameHalves(lo, k)) {
+      walk(lo, k - 1, free | (1 << (k - 1)));
+      return;
+    }
+    walk(lo, k - 1, free);
+    walk(lo + (1 << (k - 1)), k - 1, free);
+  };
+  walk(0, n, 0);
+  return mergeLists(values, masks, n);
+}
+
+/** The maximal cubes among the nonempty intersections p ∩ q, p ∈ P, q ∈ Q (cubes over n ≤ 20 inputs). */
+function meet(n: number, P: readonly Cube[], Q: readonly Cube[], budget?: WorkBudget): Cube[] {
+  budget?.spend(P.length * Q.length);
+  const scale = 2 ** n;
+  const seen = new Set<number>();
+  const products: Cube[] = [];
+  for (const p of P) {
+    for (const q of Q) {
+      if (((p.value ^ q.value) & p.mask & q.mask) !== 0) continue;
+      const c = { value: (p.value | q.value) >>> 0, mask: (p.mask | q.mask) >>> 0 };
+      const key = c.mask * scale + c.value;
+      if (seen.has(key)) continue;
+      seen.add(key);
+      products.push(c);
+    }
+  }
+  return removeContained(products, budget);
+}
+
+/**
+ * The same multi-output primes as {@link taggedPrimes}, from cube covers of
+ * each output's ON ∪ DC (`care[j]`, a truth table), with work proportional
+ * to the covers and the primes rather than to the implicants or to 3^n. The
+ * primes of each output come from the recursive rule ({@link primesOfCover})
+ * on its {@link compactCover}; those of the product f_T of a set T of outputs
+ * are the maximal intersections of a prime of f_{T∖j} with a prime of f_j (a
+ * prime of a product is the intersection of primes of its factors). Every
+ * set T with f_T ≠ 0 is visited, by adding outputs in index order and
+ * stopping at an empty product; the tables of the products tell an empty one
+ * and one equal to f_{T∖j} (same primes) without intersecting cubes. A prime
+ * of f_T that fits output j is a prime of f_{T∪j} too, so the union of the
+ * sets in whose primes a cube appears is its tag (all the outputs it fits):
+ * exactly the multi-output primes. Sorted in the ternary order of
+ * {@link denseTaggedPrimes}. Throws ExactLimit past `maxPrimes` primes (or,
+ * without a work budget, intermediate sets of 4·maxPrimes cubes) or the
+ * deadline, and OverBudget (./unate) when `budget.setup` (charged by
+ * compactCover) or `budget.work` (cube comparisons and table words) runs out.
+ */
+export function coverTaggedPrimes(
+  n: number,
+  care: readonly Uint32Array[],
+  limits: { maxPrimes: number; deadline: number },
+  budget: { setup?: WorkBudget; work?: WorkBudget } = {},
+): TaggedPrime[] {
+  const k = care.length;
+  if (k > 31) throw new RangeError(`${k} outputs: tags hold at most 31`);
+  const full = fullMask(n);
+  const words = care[0]?.length ?? 0;
+  const work = budget.work;
+  const covers = care.map((t) => compactCover(t, n, budget.setup));
+  // Without a budget, intermediate sets are held to a few times maxPrimes; with one, the budget holds them.
+  const cap = work ? Infinity : limits.maxPrimes * 4;
+  let single: Cube[][];
+  try {
+    single = covers.map((F) => primesOfCover(F, full, cap, work));
+  } catch (e) {
+    if (e instanceof RangeError) throw new ExactLimit("maxPrimes", limits.maxPrimes);
+    throw e;
+  }
+  // Keys mask·2^n + value: small integers (the fast map keys) up to 15 inputs, exact beyond.
+  const scale = 2 ** n;
+  const keyOf = (c: Cube): number => c.mask * scale + c.value;
+  const tags = new Map<number, number>();
+  const cubes: Cube[] = [];
+  // P: the primes of f_T, `table` its truth table, `last` the highest output in T.
+  const extend = (T: number, P: Cube[], table: Uint32Array, last: number) => {
+    for (const p of P) {
+      const key = keyOf(p);
+      const t = tags.get(key);
+      if (t !== undefined) {
+        tags.set(key, t | T);
+        continue;
+      }
+      tags.set(key, T);
+      cubes.push(p);
+      if (cubes.length > limits.maxPrimes) throw new ExactLimit("maxPrimes", cubes.length);
+    }
+    if (Date.now() > limits.deadline) throw new ExactLimit("timeLimitMs", cubes.length);
+    for (let j = last + 1; j < k; j++) {
+      work?.spend(words);
+      const cj = care[j]!;
+      const next = new Uint32Array(words);
+      let any = 0;
+      let same = true;
+      for (let w = 0; w < words; w++) {
+        const x = table[w]! & cj[w]!;
+        next[w] = x;
+        any |= x;
+        if (x !== table[w]) same = false;
+      }
+      if (any === 0) continue;
+      extend((T | (1 << j)) >>> 0, same ? P : meet(n, P, single[j]!, work), next, j);
+    }
+  };
+  for (let j = 0; j < k; j++) if (single[j]!.length > 0) extend(1 << j, single[j]!, care[j]!, j);
+  // Ternary index: digit i is 0 or 1 for a literal of variable i, 2 when it is absent.
+  const pow = [1];
+  for (let i = 1; i < n; i++) pow.push(pow[i - 1]! * 3);
+  const index = cubes.map((c) => {
+    let x = 0;
+    for (let i = 0; i < n; i++) x += ((c.mask >>> i) & 1 ? (c.value >>> i) & 1 : 2) * pow[i]!;
+    return x;
+  });
+  const order = cubes.map((_, i) => i).sort((a, b) => index[a]! - index[b]!);
+  return order.map((i) => {
+    const c = cubes[i]!;
+    return { value: c.value, mask: c.mask, tag: tags.get(keyOf(c))! };
+  });
 }

@@ -111,20 +111,53 @@ export function tautology(F: readonly Cube[], space: number): boolean {
   return tautology(cofactorLiteral(F, bit, true), rest) && tautology(cofactorLiteral(F, bit, false), rest);
 }
 
-/** Drops cubes contained in another cube of the list. */
-export function removeContained(F: readonly Cube[]): Cube[] {
-  const sorted = F.slice().sort((a, b) => popcount(a.mask) - popcount(b.mask));
+/**
+ * A work allowance shared by nested calls, in cube comparisons: callers that
+ * have a cheaper route at hand stop the recursive rule when it runs past it.
+ */
+export class WorkBudget {
+  constructor(public left: number) {}
+  spend(units: number): void {
+    this.left -= units;
+    if (this.left < 0) throw new OverBudget();
+  }
+}
+
+/** Thrown by {@link WorkBudget.spend} when the allowance is used up. */
+export class OverBudget extends Error {
+  constructor() {
+    super("work budget exhausted");
+  }
+}
+
+/**
+ * Drops cubes contained in another cube of the list, charging its
+ * comparisons to `budget`. Largest cubes first, so a cube is only compared
+ * with kept ones; equal sizes keep their order.
+ */
+export function removeContained(F: readonly Cube[], budget?: WorkBudget): Cube[] {
+  if (F.length < 2) return F.slice();
+  const lits = F.map((c) => popcount(c.mask));
+  const order = F.map((_, i) => i).sort((a, b) => lits[a]! - lits[b]!);
   const out: Cube[] = [];
-  for (const c of sorted) {
+  let work = 0;
+  for (const i of order) {
+    const c = F[i]!;
     let inside = false;
-    for (const d of out) {
+    for (let k = 0; k < out.length; k++) {
+      const d = out[k]!;
       if ((d.mask & ~c.mask) === 0 && ((d.value ^ c.value) & d.mask) === 0) {
         inside = true;
+        work += k;
         break;
       }
     }
-    if (!inside) out.push(c);
+    if (!inside) {
+      work += out.length;
+      out.push(c);
+    }
   }
+  budget?.spend(work + F.length);
   return out;
 }
 
@@ -132,38 +165,53 @@ export function removeContained(F: readonly Cube[]): Cube[] {
  * All prime implicants of the function covered by F, by the recursive
  * (Shannon) rule P(f) = ABS(x·P(f_x) ∪ x'·P(f_x') ∪ P(f_x)·P(f_x')), where
  * ABS drops cubes contained in others; a unate cover's primes are its
- * maximal cubes. Throws RangeError when an intermediate set exceeds `cap`.
+ * maximal cubes. Throws RangeError when an intermediate set exceeds `cap`,
+ * and {@link OverBudget} when `budget` runs out.
  */
-export function primesOfCover(F: readonly Cube[], space: number, cap = Infinity): Cube[] {
+export function primesOfCover(F: readonly Cube[], space: number, cap = Infinity, budget?: WorkBudget): Cube[] {
   if (F.length === 0) return [];
   for (const c of F) if ((c.mask & space) === 0) return [{ value: 0, mask: 0 }];
+  budget?.spend(F.length * popcount(space));
   const { bit, binate } = splitBit(F, space);
-  if (!binate) return removeContained(F);
+  if (!binate) return removeContained(F, budget);
   const rest = (space & ~bit) >>> 0;
-  const P1 = primesOfCover(cofactorLiteral(F, bit, true), rest, cap);
-  const P0 = primesOfCover(cofactorLiteral(F, bit, false), rest, cap);
-  const cand: Cube[] = [];
-  for (const p of P1) cand.push({ value: (p.value | bit) >>> 0, mask: (p.mask | bit) >>> 0 });
-  for (const q of P0) cand.push({ value: q.value, mask: (q.mask | bit) >>> 0 });
-  for (const p of P1) {
-    for (const q of P0) {
-      if (((p.value ^ q.value) & p.mask & q.mask) !== 0) continue;
-      cand.push({ value: (p.value | q.value) >>> 0, mask: (p.mask | q.mask) >>> 0 });
-    }
-    if (cand.length > cap) throw new RangeError(`more than ${cap} candidate primes`);
-  }
-  return removeContained(dedupe(cand));
-}
-
-function dedupe(F: Cube[]): Cube[] {
+  const P1 = primesOfCover(cofactorLiteral(F, bit, true), rest, cap, budget);
+  const P0 = primesOfCover(cofactorLiteral(F, bit, false), rest, cap, budget);
+  // The products p·q carry no literal of x, so only other products can contain them; x·p lies in a
+  // product only when some q contains p (the product is then p itself), and likewise x'·q.
+  budget?.spend(P1.length * P0.length);
+  const covered1 = new Uint8Array(P1.length);
+  const covered0 = new Uint8Array(P0.length);
+  const products: Cube[] = [];
+  // Keys mask·2^w + value, w the width of `rest`: small integers (fast set keys) up to 15 inputs.
+  const scale = 2 ** (32 - Math.clz32(rest));
   const seen = new Set<number>();
-  const out: Cube[] = [];
-  for (const c of F) {
-    const k = c.mask * 1073741824 + c.value;
-    if (seen.has(k)) continue;
-    seen.add(k);
-    out.push(c);
+  for (let i = 0; i < P1.length; i++) {
+    const p = P1[i]!;
+    for (let k = 0; k < P0.length; k++) {
+      const q = P0[k]!;
+      if (((p.value ^ q.value) & p.mask & q.mask) !== 0) continue;
+      const mask = (p.mask | q.mask) >>> 0;
+      if (mask === p.mask) covered1[i] = 1;
+      if (mask === q.mask) covered0[k] = 1;
+      const value = (p.value | q.value) >>> 0;
+      const key = mask * scale + value;
+      if (seen.has(key)) continue;
+      seen.add(key);
+      products.push({ value, mask });
+    }
+    if (products.length > cap) throw new RangeError(`more than ${cap} candidate primes`);
   }
+  const out = removeContained(products, budget);
+  for (let i = 0; i < P1.length; i++) {
+    const p = P1[i]!;
+    if (covered1[i] === 0) out.push({ value: (p.value | bit) >>> 0, mask: (p.mask | bit) >>> 0 });
+  }
+  for (let k = 0; k < P0.length; k++) {
+    const q = P0[k]!;
+    if (covered0[k] === 0) out.push({ value: q.value, mask: (q.mask | bit) >>> 0 });
+  }
+  if (out.length > cap) throw new RangeError(`more than ${cap} candidate primes`);
   return out;
 }
 
@@ -173,27 +221,43 @@ function dedupe(F: Cube[]): Cube[] {
  * minterms of functions with large cubes shrink by orders of magnitude.
  */
 export function mergeAlongVariables(F: readonly Cube[], n: number): Cube[] {
-  let cur = new Map<number, Cube>();
-  for (const c of F) cur.set(c.mask * 1073741824 + c.value, c);
+  return mergeLists(
+    F.map((c) => c.value),
+    F.map((c) => c.mask),
+    n,
+  );
+}
+
+/** {@link mergeAlongVariables} on a cube list given as its values and masks (both consumed). */
+export function mergeLists(values: number[], masks: number[], n: number): Cube[] {
+  // Keys mask·2^n + value: small integers (the fast map keys) up to 15 inputs, exact beyond.
+  const scale = 2 ** n;
+  const upper = new Map<number, number>();
   for (let i = 0; i < n; i++) {
     const bit = 1 << i;
-    const next = new Map<number, Cube>();
-    for (const [k, c] of cur) {
-      if (!(c.mask & bit)) {
-        next.set(k, c);
-        continue;
-      }
-      if (c.value & bit) {
-        if (!cur.has(c.mask * 1073741824 + ((c.value & ~bit) >>> 0))) next.set(k, c);
-        continue;
-      }
-      const pk = c.mask * 1073741824 + ((c.value | bit) >>> 0);
-      if (cur.has(pk)) {
-        const m = { value: c.value, mask: (c.mask & ~bit) >>> 0 };
-        next.set(m.mask * 1073741824 + m.value, m);
-      } else next.set(k, c);
+    // The cubes with the positive literal of variable i, by key; a partner with the negative one absorbs them.
+    upper.clear();
+    for (let k = 0; k < values.length; k++) if (masks[k]! & values[k]! & bit) upper.set(masks[k]! * scale + values[k]!, k);
+    if (upper.size === 0) continue;
+    const gone = new Uint8Array(values.length);
+    let merged = 0;
+    for (let k = 0; k < values.length; k++) {
+      if ((masks[k]! & bit) === 0 || (values[k]! & bit) !== 0) continue;
+      const j = upper.get(masks[k]! * scale + values[k]! + bit);
+      if (j === undefined) continue;
+      gone[j] = 1;
+      masks[k] = (masks[k]! & ~bit) >>> 0;
+      merged++;
     }
-    cur = next;
+    if (merged === 0) continue;
+    let w = 0;
+    for (let k = 0; k < values.length; k++) {
+      if (gone[k] === 1) continue;
+      values[w] = values[k]!;
+      masks[w++] = masks[k]!;
+    }
+    values.length = w;
+    masks.length = w;
   }
-  return [...cur.values()];
+  return values.map((value, k) => ({ value, mask: masks[k]! }));
 }

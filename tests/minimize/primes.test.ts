@@ -1,9 +1,9 @@
 import { describe, expect, it } from "vitest";
-import { cubeToString, fullMask, minterm, type FunctionSpec } from "../../lib/logic";
-import { minimize } from "../../lib/minimize";
-import { denseTaggedPrimes, taggedPrimes } from "../../lib/minimize/primes";
+import { cubeToString, fullMask, minterm, popcount, tableFromCubes, type Cube, type FunctionSpec } from "../../lib/logic";
+import { coveringProblem, minimize } from "../../lib/minimize";
+import { coverTaggedPrimes, denseTaggedPrimes, taggedPrimes, type TaggedPrime } from "../../lib/minimize/primes";
 import { primesOfCover } from "../../lib/minimize/unate";
-import { bruteImplicants, isPrimeFor, randomSpec } from "./helpers";
+import { bruteImplicants, isPrimeFor, randomSpec, rng } from "./helpers";
 
 describe("recursive prime generation", () => {
   for (const seed of [71, 72, 73, 74]) {
@@ -102,6 +102,103 @@ describe("functions without adjacent care points", () => {
       expect(r.exact).toBe(true);
       expect(r.primes).toBe(2 ** (n - 1));
       expect([r.outputs[0]!.products, r.outputs[0]!.literals]).toEqual([2 ** (n - 1), n * 2 ** (n - 1)]);
+    });
+  }
+});
+
+/**
+ * ON ∪ DC of each output as a few random cubes of 1 .. 4 literals, so the cubes are large; the last
+ * output is sometimes the union of the others (nested outputs, like a "valid" flag), and an output is
+ * sometimes a copy of the first (identical outputs).
+ */
+function largeCubeCovers(n: number, k: number, seed: number): Cube[][] {
+  const r = rng(seed);
+  const cube = (): Cube => {
+    let mask = 0;
+    const lits = Math.min(n, 1 + Math.floor(r() * 4));
+    while (popcount(mask) < lits) mask |= 1 << Math.floor(r() * n);
+    return { value: Math.floor(r() * 2 ** n) & mask, mask };
+  };
+  const covers: Cube[][] = [];
+  for (let j = 0; j < k; j++) {
+    const shape = r();
+    if (j === k - 1 && j > 0 && shape < 0.3) covers.push(covers.flat());
+    else if (j > 0 && shape > 0.85) covers.push(covers[0]!.slice());
+    else covers.push(Array.from({ length: 1 + Math.floor(r() * 6) }, cube));
+  }
+  return covers;
+}
+
+const largeCubeTables = (n: number, k: number, seed: number) => largeCubeCovers(n, k, seed).map((cv) => tableFromCubes(cv, n));
+
+describe("multi-output primes from cube covers", () => {
+  const key = (p: TaggedPrime, n: number) => `${cubeToString(p, n)}:${p.tag}`;
+  const limits = { maxPrimes: Infinity, maxImplicants: Infinity, deadline: Infinity };
+  const mintermTags = (care: Uint32Array[], n: number) =>
+    Uint32Array.from({ length: 2 ** n }, (_, m) => care.reduce((t, c, j) => t | (((c[m >>> 5]! >>> (m & 31)) & 1) << j), 0));
+
+  for (let seed = 1; seed <= 60; seed++) {
+    const n = 6 + (seed % 6);
+    const k = 1 + (seed % 5);
+    it(`equal the dense table's and the Quine–McCluskey tables' (${n} inputs, ${k} outputs, seed ${seed})`, () => {
+      const care = largeCubeTables(n, k, 1000 + seed);
+      const tags = mintermTags(care, n);
+      const got = coverTaggedPrimes(n, care, limits).map((p) => key(p, n));
+      // Same set and same (ternary) order as the dense table.
+      const dense = denseTaggedPrimes(n, tags, limits).map((p) => key(p, n));
+      expect(got).toEqual(dense);
+      const minterms = Array.from({ length: 2 ** n }, (_, m) => m);
+      const tables = taggedPrimes(n, minterms, (m) => tags[m]!, limits).map((p) => key(p, n));
+      expect(got.slice().sort()).toEqual(tables.sort());
+    });
+  }
+
+  for (const seed of [1, 2, 3, 4]) {
+    it(`give coveringProblem the dense table's primes on 12 inputs, 4 outputs, ON and DC (seed ${seed})`, () => {
+      // minimize() and coveringProblem() pick the cube route for such functions by its cost; the result must not change.
+      const n = 12;
+      const on = largeCubeCovers(n, 4, 3000 + seed);
+      const dc = largeCubeCovers(n, 4, 4000 + seed).map((cv) => cv.slice(0, 1));
+      const spec: FunctionSpec = {
+        inputs: Array.from({ length: n }, (_, i) => `x${i}`),
+        outputs: on.map((cv, j) => ({ name: `f${j}`, on: cv, dc: dc[j]! })),
+      };
+      const care = on.map((cv, j) => tableFromCubes(cv.concat(dc[j]!), n));
+      const dense = denseTaggedPrimes(n, mintermTags(care, n), limits).map((p) => key(p, n));
+      expect(coveringProblem(spec).primes.map((p) => key(p, n))).toEqual(dense);
+    });
+  }
+
+  for (const seed of [7, 8, 9]) {
+    it(`equal brute-force multi-output primes on 6 inputs, 3 outputs (seed ${seed})`, () => {
+      const n = 6;
+      const care = largeCubeTables(n, 3, 2000 + seed);
+      const spec: FunctionSpec = {
+        inputs: Array.from({ length: n }, (_, i) => `x${i}`),
+        outputs: care.map((t, j) => ({
+          name: `f${j}`,
+          on: Array.from({ length: 2 ** n }, (_, m) => m)
+            .filter((m) => (t[m >>> 5]! >>> (m & 31)) & 1)
+            .map((m) => minterm(m, n)),
+          dc: [],
+        })),
+      };
+      // Reference: the test's own enumeration of all 3^6 cubes; a multi-output prime is an implicant
+      // no one-literal expansion keeps with its whole tag.
+      const imps = bruteImplicants(spec);
+      const tagOfCube = new Map(imps.map((p) => [`${p.cube.value}/${p.cube.mask}`, p.tag]));
+      const want = imps
+        .filter((p) => {
+          for (let b = 0; b < n; b++) {
+            if (!(p.cube.mask & (1 << b))) continue;
+            const up = tagOfCube.get(`${p.cube.value & ~(1 << b)}/${p.cube.mask & ~(1 << b)}`) ?? 0;
+            if ((up & p.tag) === p.tag) return false;
+          }
+          return true;
+        })
+        .map((p) => `${cubeToString(p.cube, n)}:${p.tag}`)
+        .sort();
+      expect(coverTaggedPrimes(n, care, limits).map((p) => key(p, n)).sort()).toEqual(want);
     });
   }
 });
