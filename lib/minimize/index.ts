@@ -182,7 +182,9 @@ function buildProblem(
   const words = targets[0]!.onT!.length;
   const care = new Uint32Array(words);
   for (const t of targets) for (let w = 0; w < words; w++) care[w]! |= t.onT![w]! | t.dcT![w]!;
-  const minterms = tableMinterms(care, n);
+  // The care minterms as a list only for the routes that walk them.
+  let mintermList: number[] | null = null;
+  const minterms = () => (mintermList ??= tableMinterms(care, n));
   const tagOf = (m: number): number => {
     let tag = 0;
     const w = m >>> 5;
@@ -199,8 +201,7 @@ function buildProblem(
     // No two care points one variable apart: nothing merges, every care minterm is a prime.
     const full = fullMask(n);
     all = [];
-    for (let i = 0; i < minterms.length; i++) {
-      const m = minterms[i]!;
+    for (const m of minterms()) {
       const tag = tagOf(m);
       if (tag !== 0) all.push({ value: m, mask: full, tag });
     }
@@ -210,7 +211,9 @@ function buildProblem(
     // What the table route is about to cost, in cells of the dense table (about 10 ns each): 3^n for the
     // dense table; for the map-based tables, a few cells per variable for each implicant, of which there
     // are at least the care points and their adjacent pairs.
-    const tableCost = dense ? 3 ** n : 3 * n * (minterms.length + pairs);
+    let careCount = 0;
+    for (let w = 0; w < words; w++) careCount += popcount(care[w]!);
+    const tableCost = dense ? 3 ** n : 3 * n * (careCount + pairs);
     // Functions with large cubes have small cube covers and few primes: the recursive rule then costs a
     // small part of the table, and is tried first within a part of its cost.
     all = n < 6 ? null : recursivePrimes(n, targets, limits, tableCost);
@@ -223,7 +226,7 @@ function buildProblem(
       });
       all = denseTaggedPrimes(n, tags, limits);
     } else if (all === null) {
-      all = tablePrimes(n, targets, words, minterms, tagOf, limits, pairs <= 2 ** (n - 1));
+      all = tablePrimes(n, targets, words, minterms(), tagOf, limits, pairs <= 2 ** (n - 1));
     }
   }
   return problemFromPrimes(n, targets, model, all);
@@ -275,45 +278,70 @@ function tablePrimes(
 
 function problemFromPrimes(n: number, targets: Target[], model: CostModel, all: TaggedPrime[]): CoveringProblem & { rowsPerOutput: number[] } {
   const full = fullMask(n);
+  const words = targets[0]!.onT!.length;
+  const valid = n >= 5 ? -1 >>> 0 : 2 ** 2 ** n - 1;
+  // Rows of each output numbered consecutively in minterm order: the row of ON minterm 32w + b of output j
+  // is first[j][w] + (ON minterms of word w below bit b).
   let rowCount = 0;
   const rowsPerOutput: number[] = [];
-  // Rows of each output numbered consecutively; a dense index per output when it fits in about 128 MB, else maps.
-  const dense = targets.length * 2 ** n <= 2 ** 25;
-  const rowIdx = targets.map((t) => {
-    const ms = tableMinterms(t.onT!, n);
-    rowsPerOutput.push(ms.length);
-    if (dense) {
-      const a = new Int32Array(2 ** n).fill(-1);
-      for (const m of ms) a[m] = rowCount++;
-      return a;
+  const first = targets.map((t) => {
+    const f = new Int32Array(words);
+    const start = rowCount;
+    for (let w = 0; w < words; w++) {
+      f[w] = rowCount;
+      rowCount += popcount(t.onT![w]! & valid);
     }
-    const map = new Map<number, number>();
-    for (const m of ms) map.set(m, rowCount++);
-    return map;
+    rowsPerOutput.push(rowCount - start);
+    return f;
   });
   const colRows: Int32Array[] = [];
   const weight: number[] = [];
   const cols: TaggedPrime[] = [];
-  const buf: number[] = [];
+  let buf = new Int32Array(1024);
   for (const p of all) {
-    buf.length = 0;
-    const free = (full & ~p.mask) >>> 0;
+    let len = 0;
+    // The cube's minterms a word at a time: `pattern` holds its positions within a word (variables 0..4),
+    // the words are those matching it on variables 5 and up.
+    const lowFree = ~p.mask & full & 31;
+    let pattern = 0;
+    for (let sub = 0; ; sub = (sub - lowFree) & lowFree) {
+      pattern |= 1 << ((p.value & 31) | sub);
+      if (sub === lowFree) break;
+    }
+    pattern = (pattern & valid) >>> 0;
+    const highFree = (~p.mask & full) >>> 5;
+    const base = p.value >>> 5;
     for (let j = 0; j < targets.length; j++) {
       if (!((p.tag >>> j) & 1)) continue;
-      const idx = rowIdx[j]!;
-      const arr = idx instanceof Int32Array ? idx : null;
-      let sub = 0;
-      for (;;) {
-        const m = (p.value | sub) >>> 0;
-        const r = arr ? arr[m]! : ((idx as Map<number, number>).get(m) ?? -1);
-        if (r >= 0) buf.push(r);
-        if (sub === free) break;
-        sub = ((sub - free) & free) >>> 0;
+      const on = targets[j]!.onT!;
+      const f = first[j]!;
+      for (let sub = 0; ; sub = (sub - highFree) & highFree) {
+        const w = base | sub;
+        const word = on[w]!;
+        let x = word & pattern;
+        if (x !== 0) {
+          if (len + 32 > buf.length) {
+            const grown = new Int32Array(buf.length * 2);
+            grown.set(buf);
+            buf = grown;
+          }
+          const f0 = f[w]!;
+          if (x === (word | 0)) {
+            // The whole word's ON points: consecutive rows.
+            for (let r = f0, end = f0 + popcount(word); r < end; r++) buf[len++] = r;
+          } else {
+            for (; x !== 0; x &= x - 1) {
+              const b = 31 - Math.clz32(x & -x);
+              buf[len++] = f0 + popcount(word & ((1 << b) - 1));
+            }
+          }
+        }
+        if (sub === highFree) break;
       }
     }
-    if (buf.length === 0) continue;
+    if (len === 0) continue;
     cols.push(p);
-    colRows.push(Int32Array.from(buf));
+    colRows.push(buf.slice(0, len));
     weight.push(columnWeight(model, popcount(p.mask)));
   }
   return { primes: all, columns: cols, colRows, weight, rowCount, rowsPerOutput };
