@@ -208,15 +208,11 @@ function buildProblem(
     if (all.length > limits.maxPrimes) throw new ExactLimit("maxPrimes", all.length);
   } else {
     const dense = n <= DENSE_MAX_INPUTS && pairs > 2 ** (n - 1);
-    // What the table route is about to cost, in cells of the dense table (about 10 ns each): 3^n for the
-    // dense table; for the map-based tables, a few cells per variable for each implicant, of which there
-    // are at least the care points and their adjacent pairs.
     let careCount = 0;
     for (let w = 0; w < words; w++) careCount += popcount(care[w]!);
-    const tableCost = dense ? 3 ** n : 3 * n * (careCount + pairs);
     // Functions with large cubes have small cube covers and few primes: the recursive rule then costs a
-    // small part of the table, and is tried first within a part of its cost.
-    all = n < 6 ? null : recursivePrimes(n, targets, limits, tableCost);
+    // small part of the table route, and is tried first within a part of that cost.
+    all = n < 6 ? null : recursivePrimes(n, targets, limits, { dense, careCount, pairs });
     if (all === null && dense) {
       const tags = new Uint32Array(2 ** n);
       targets.forEach((t, j) => {
@@ -350,38 +346,52 @@ function problemFromPrimes(n: number, targets: Target[], model: CostModel, all: 
 /**
  * Multi-output primes without the tables, from compact cube covers of each
  * output's ON ∪ DC (coverTaggedPrimes in ./primes): exactly the set the
- * tables give. Without `tableCost`, up to 8 outputs, bounded by the limits
- * only. With `tableCost` (what the table route would cost, in dense-table
- * cells), returns null instead as soon as the covers take more than 1/64 of
- * it to set up (n units a block) or the recursive rule more than 1/8 (one
- * unit a cube comparison): the tables are then the better choice, and at
- * most a small part of their cost was spent.
+ * tables give. Without `table`, up to 8 outputs, bounded by the limits only.
+ * With `table` (the route the tables would take: dense or not, care points,
+ * adjacent pairs), returns null instead as soon as the work passes a part of
+ * what that route would cost: then the tables are the better choice, and
+ * little of their cost was spent.
  */
 function recursivePrimes(n: number, targets: Target[], limits: { maxPrimes: number; deadline: number }): TaggedPrime[];
 function recursivePrimes(
   n: number,
   targets: Target[],
   limits: { maxPrimes: number; deadline: number },
-  tableCost: number,
+  table: { dense: boolean; careCount: number; pairs: number },
 ): TaggedPrime[] | null;
 function recursivePrimes(
   n: number,
   targets: Target[],
   limits: { maxPrimes: number; deadline: number },
-  tableCost?: number,
+  table?: { dense: boolean; careCount: number; pairs: number },
 ): TaggedPrime[] | null {
   const k = targets.length;
-  if (tableCost === undefined && k > 8) throw new ExactLimit("implicants", k);
+  if (table === undefined && k > 8) throw new ExactLimit("implicants", k);
   const words = targets[0]!.onT!.length;
-  const setup = tableCost === undefined ? undefined : new WorkBudget(tableCost / 64);
-  const work = tableCost === undefined ? undefined : new WorkBudget(tableCost / 8);
   const care = targets.map((t) => {
     const c = new Uint32Array(words);
     for (let w = 0; w < words; w++) c[w] = t.onT![w]! | t.dcT![w]!;
     return c;
   });
+  if (table === undefined) return coverTaggedPrimes(n, care, limits);
+  // The table route's cost in the budget's units (about a nanosecond, see COST in ./unate): the dense
+  // table about 4 a cube plus 8 for each implicant it finds; the map-based tables about 30 per variable
+  // for each implicant. Implicants: at least the care points and their adjacent pairs, and at least the
+  // 3^d cubes inside each cube of d free variables of an output's disjoint cover.
+  const base = table.dense ? 4 * 3 ** n : 30 * n * (table.careCount + table.pairs);
   try {
-    return coverTaggedPrimes(n, care, limits, { setup, work });
+    // Building the covers: the first 1/16. The walk that stops it early costs far less than the merging it charges.
+    const setup = new WorkBudget(base / 16);
+    const covers = care.map((c) => compactCover(c, n, setup));
+    let inside = 0;
+    for (const cv of covers) {
+      let sum = 0;
+      for (const c of cv) sum += 3 ** (n - popcount(c.mask));
+      inside = Math.max(inside, sum);
+    }
+    const cost = table.dense ? base + 8 * inside : 30 * n * Math.max(table.careCount + table.pairs, inside);
+    // The rest: 1/10.
+    return coverTaggedPrimes(n, care, limits, { covers, work: new WorkBudget(cost / 10) });
   } catch (e) {
     if (e instanceof OverBudget) return null;
     throw e;

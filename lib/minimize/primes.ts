@@ -11,7 +11,7 @@
  */
 import type { Cube } from "../logic";
 import { fullMask } from "../logic";
-import { type WorkBudget, mergeLists, primesOfCover, removeContained } from "./unate";
+import { COST, type WorkBudget, mergeLists, primesOfCover, removeContained } from "./unate";
 
 export interface TaggedPrime {
   value: number;
@@ -226,8 +226,7 @@ export function denseTaggedPrimes(
  * A small disjoint cube cover of a truth table (bit m = minterm m). Splits on
  * the highest variable first: a constant block becomes a cube, a block whose
  * two halves are equal drops that variable; the blocks are then merged along
- * every variable. Each block is charged n units to `budget` (the merging
- * costs about n map operations a block).
+ * every variable. Each block is charged the merging's cost to `budget`.
  */
 export function compactCover(t: Uint32Array, n: number, budget?: WorkBudget): Cube[] {
   if (n === 0) return (t[0]! & 1) === 1 ? [{ value: 0, mask: 0 }] : [];
@@ -267,7 +266,7 @@ export function compactCover(t: Uint32Array, n: number, budget?: WorkBudget): Cu
     const st = rangeState(lo, k);
     if (st === 0) return;
     if (st === 1) {
-      budget?.spend(n);
+      budget?.spend(n * COST.merge);
       values.push((lo & ~free) >>> 0);
       masks.push((full & ~((1 << k) - 1) & ~free) >>> 0);
       return;
@@ -283,9 +282,54 @@ export function compactCover(t: Uint32Array, n: number, budget?: WorkBudget): Cu
   return mergeLists(values, masks, n);
 }
 
+/**
+ * The cover F of the function of truth table t with the literals its function
+ * does not need dropped: where the function is positive unate in a variable
+ * (never 1 with it 0 and 0 with it 1), a cube's complemented literal of it
+ * goes, and likewise for negative unate. Each cube stays an implicant, so the
+ * list still covers the function, and the recursive rule then splits only on
+ * the binate variables (a unate function's primes are its maximal cubes).
+ */
+function dropUnateLiterals(F: readonly Cube[], t: Uint32Array, n: number): Cube[] {
+  const low = [0x55555555, 0x33333333, 0x0f0f0f0f, 0x00ff00ff, 0x0000ffff];
+  // Literals that may go: drop0 = complemented ones, drop1 = plain ones (bit i = variable i).
+  let drop0 = 0;
+  let drop1 = 0;
+  for (let i = 0; i < n; i++) {
+    let up = 0; // points that are 1 with x_i = 0 and 0 with x_i = 1
+    let down = 0; // points that are 1 with x_i = 1 and 0 with x_i = 0
+    if (i < 5) {
+      const sh = 1 << i;
+      const L = n >= 5 ? low[i]! : low[i]! & (2 ** 2 ** n - 1);
+      for (let w = 0; w < t.length; w++) {
+        const x0 = t[w]! & L;
+        const x1 = (t[w]! >>> sh) & L;
+        up |= x0 & ~x1;
+        down |= x1 & ~x0;
+      }
+    } else {
+      const s = 1 << (i - 5);
+      for (let w = 0; w < t.length; w++) {
+        if (w & s) continue;
+        up |= t[w]! & ~t[w + s]!;
+        down |= t[w + s]! & ~t[w]!;
+      }
+    }
+    if (up === 0) drop0 |= 1 << i;
+    if (down === 0) drop1 |= 1 << i;
+  }
+  if ((drop0 | drop1) === 0) return F.slice();
+  const out: Cube[] = [];
+  for (const c of F) {
+    const mask = (c.mask & ~((drop0 & ~c.value) | (drop1 & c.value))) >>> 0;
+    out.push({ value: (c.value & mask) >>> 0, mask });
+  }
+  return out;
+}
+
 /** The maximal cubes among the nonempty intersections p ∩ q, p ∈ P, q ∈ Q (cubes over n ≤ 20 inputs). */
 function meet(n: number, P: readonly Cube[], Q: readonly Cube[], budget?: WorkBudget): Cube[] {
-  budget?.spend(P.length * Q.length);
+  budget?.spend(P.length * Q.length * COST.pair);
   const scale = 2 ** n;
   const seen = new Set<number>();
   const products: Cube[] = [];
@@ -299,6 +343,7 @@ function meet(n: number, P: readonly Cube[], Q: readonly Cube[], budget?: WorkBu
       products.push(c);
     }
   }
+  budget?.spend(products.length * COST.product);
   return removeContained(products, budget);
 }
 
@@ -307,7 +352,8 @@ function meet(n: number, P: readonly Cube[], Q: readonly Cube[], budget?: WorkBu
  * each output's ON ∪ DC (`care[j]`, a truth table), with work proportional
  * to the covers and the primes rather than to the implicants or to 3^n. The
  * primes of each output come from the recursive rule ({@link primesOfCover})
- * on its {@link compactCover}; those of the product f_T of a set T of outputs
+ * on its {@link compactCover}, without the literals its function does not
+ * need ({@link dropUnateLiterals}); those of the product f_T of a set T of outputs
  * are the maximal intersections of a prime of f_{T∖j} with a prime of f_j (a
  * prime of a product is the intersection of primes of its factors). Every
  * set T with f_T ≠ 0 is visited, by adding outputs in index order and
@@ -318,26 +364,26 @@ function meet(n: number, P: readonly Cube[], Q: readonly Cube[], budget?: WorkBu
  * exactly the multi-output primes. Sorted in the ternary order of
  * {@link denseTaggedPrimes}. Throws ExactLimit past `maxPrimes` primes (or,
  * without a work budget, intermediate sets of 4·maxPrimes cubes) or the
- * deadline, and OverBudget (./unate) when `budget.setup` (charged by
- * compactCover) or `budget.work` (cube comparisons and table words) runs out.
+ * deadline, and OverBudget (./unate) when `work` runs out. `covers`: the
+ * compact covers of `care`, when the caller has them.
  */
 export function coverTaggedPrimes(
   n: number,
   care: readonly Uint32Array[],
   limits: { maxPrimes: number; deadline: number },
-  budget: { setup?: WorkBudget; work?: WorkBudget } = {},
+  options: { covers?: readonly (readonly Cube[])[]; work?: WorkBudget } = {},
 ): TaggedPrime[] {
   const k = care.length;
   if (k > 31) throw new RangeError(`${k} outputs: tags hold at most 31`);
   const full = fullMask(n);
   const words = care[0]?.length ?? 0;
-  const work = budget.work;
-  const covers = care.map((t) => compactCover(t, n, budget.setup));
+  const work = options.work;
+  const covers = options.covers ?? care.map((t) => compactCover(t, n));
   // Without a budget, intermediate sets are held to a few times maxPrimes; with one, the budget holds them.
   const cap = work ? Infinity : limits.maxPrimes * 4;
   let single: Cube[][];
   try {
-    single = covers.map((F) => primesOfCover(F, full, cap, work));
+    single = covers.map((F, j) => primesOfCover(dropUnateLiterals(F, care[j]!, n), full, cap, work));
   } catch (e) {
     if (e instanceof RangeError) throw new ExactLimit("maxPrimes", limits.maxPrimes);
     throw e;
