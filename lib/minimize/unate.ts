@@ -126,7 +126,7 @@ export class WorkBudget {
 
 /**
  * What the steps of {@link primesOfCover} cost in budget units, fitted to its
- * running times on functions of 6 to 16 inputs (V8; within a factor 1.5):
+ * running times on functions of 11 to 16 inputs (V8; within a factor 2):
  * a cube entering a call (cofactors, split choice, the call itself), a pair
  * of cubes tested for intersection, a product kept (allocated, deduplicated),
  * a containment test, and per variable a block merged by
