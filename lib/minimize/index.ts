@@ -212,7 +212,7 @@ function buildProblem(
     for (let w = 0; w < words; w++) careCount += popcount(care[w]!);
     // Functions with large cubes have small cube covers and few primes: the recursive rule then costs a
     // small part of the table route, and is tried first within a part of that cost.
-    all = n < 6 ? null : recursivePrimes(n, targets, limits, { dense, careCount, pairs });
+    all = recursivePrimes(n, targets, limits, { dense, careCount, pairs });
     if (all === null && dense) {
       const tags = new Uint32Array(2 ** n);
       targets.forEach((t, j) => {
@@ -367,6 +367,13 @@ function recursivePrimes(
 ): TaggedPrime[] | null {
   const k = targets.length;
   if (table === undefined && k > 8) throw new ExactLimit("implicants", k);
+  // The table route's cost in the budget's units (about a nanosecond, see COST in ./unate): the dense
+  // table about 4 a cube plus 8 for each implicant it finds; the map-based tables about 30 per variable
+  // for each implicant. Implicants: at least the care points and their adjacent pairs, and at least the
+  // 3^d cubes inside each cube of d free variables of an output's disjoint cover.
+  const base = table === undefined ? Infinity : table.dense ? 4 * 3 ** n : 30 * n * (table.careCount + table.pairs);
+  // Below about 0.1 ms there is nothing to win.
+  if (base < 1e5) return null;
   const words = targets[0]!.onT!.length;
   const care = targets.map((t) => {
     const c = new Uint32Array(words);
@@ -374,11 +381,6 @@ function recursivePrimes(
     return c;
   });
   if (table === undefined) return coverTaggedPrimes(n, care, limits);
-  // The table route's cost in the budget's units (about a nanosecond, see COST in ./unate): the dense
-  // table about 4 a cube plus 8 for each implicant it finds; the map-based tables about 30 per variable
-  // for each implicant. Implicants: at least the care points and their adjacent pairs, and at least the
-  // 3^d cubes inside each cube of d free variables of an output's disjoint cover.
-  const base = table.dense ? 4 * 3 ** n : 30 * n * (table.careCount + table.pairs);
   try {
     // Building the covers: the first 1/16. The walk that stops it early costs far less than the merging it charges.
     const setup = new WorkBudget(base / 16);

@@ -226,7 +226,8 @@ export function denseTaggedPrimes(
  * A small disjoint cube cover of a truth table (bit m = minterm m). Splits on
  * the highest variable first: a constant block becomes a cube, a block whose
  * two halves are equal drops that variable; the blocks are then merged along
- * every variable. Each block is charged the merging's cost to `budget`.
+ * every variable. Each block is charged its cost (COST.merge a variable) to
+ * `budget`.
  */
 export function compactCover(t: Uint32Array, n: number, budget?: WorkBudget): Cube[] {
   if (n === 0) return (t[0]! & 1) === 1 ? [{ value: 0, mask: 0 }] : [];

@@ -129,8 +129,8 @@ export class WorkBudget {
  * running times on functions of 11 to 16 inputs (V8; within a factor 2):
  * a cube entering a call (cofactors, split choice, the call itself), a pair
  * of cubes tested for intersection, a product kept (allocated, deduplicated),
- * a containment test, and per variable a block merged by
- * {@link mergeAlongVariables}.
+ * a containment test, and per variable a block of a compact cover (found
+ * by its walk over the truth table, then merged by {@link mergeLists}).
  */
 export const COST = { cube: 200, pair: 3, product: 50, test: 2, merge: 14 };
 
@@ -279,28 +279,45 @@ export function mergeAlongVariables(F: readonly Cube[], n: number): Cube[] {
 
 /** {@link mergeAlongVariables} on a cube list given as its values and masks (both consumed). */
 export function mergeLists(values: number[], masks: number[], n: number): Cube[] {
-  // Keys mask·2^n + value: small integers (the fast map keys) up to 15 inputs, exact beyond.
-  const scale = 2 ** n;
-  const upper = new Map<number, number>();
+  // An open-addressing table of the cubes with the positive literal of the variable at hand (index + 1;
+  // 0 empty), hashed on mask and value: a partner with the negative literal absorbs them.
+  let bits = 4;
+  while (1 << bits < 2 * values.length) bits++;
+  const slots = new Int32Array(1 << bits);
+  const slotMask = (1 << bits) - 1;
+  const hash = (mask: number, value: number) => Math.imul(mask ^ Math.imul(value, 0x9e3779b1), 0x85ebca77) >>> (32 - bits);
+  const gone = new Uint8Array(values.length);
   for (let i = 0; i < n; i++) {
     const bit = 1 << i;
-    // The cubes with the positive literal of variable i, by key; a partner with the negative one absorbs them.
-    upper.clear();
-    for (let k = 0; k < values.length; k++) if (masks[k]! & values[k]! & bit) upper.set(masks[k]! * scale + values[k]!, k);
-    if (upper.size === 0) continue;
-    const gone = new Uint8Array(values.length);
+    const len = values.length;
+    slots.fill(0);
+    let upper = 0;
+    for (let k = 0; k < len; k++) {
+      if ((masks[k]! & values[k]! & bit) === 0) continue;
+      let h = hash(masks[k]!, values[k]!);
+      while (slots[h] !== 0) h = (h + 1) & slotMask;
+      slots[h] = k + 1;
+      upper++;
+    }
+    if (upper === 0) continue;
+    gone.fill(0, 0, len);
     let merged = 0;
-    for (let k = 0; k < values.length; k++) {
-      if ((masks[k]! & bit) === 0 || (values[k]! & bit) !== 0) continue;
-      const j = upper.get(masks[k]! * scale + values[k]! + bit);
-      if (j === undefined) continue;
-      gone[j] = 1;
-      masks[k] = (masks[k]! & ~bit) >>> 0;
-      merged++;
+    for (let k = 0; k < len; k++) {
+      const m = masks[k]!;
+      if ((m & bit) === 0 || (values[k]! & bit) !== 0) continue;
+      const v = (values[k]! | bit) >>> 0;
+      for (let h = hash(m, v); slots[h] !== 0; h = (h + 1) & slotMask) {
+        const j = slots[h]! - 1;
+        if (masks[j] !== m || values[j] !== v) continue;
+        gone[j] = 1;
+        masks[k] = (m & ~bit) >>> 0;
+        merged++;
+        break;
+      }
     }
     if (merged === 0) continue;
     let w = 0;
-    for (let k = 0; k < values.length; k++) {
+    for (let k = 0; k < len; k++) {
       if (gone[k] === 1) continue;
       values[w] = values[k]!;
       masks[w++] = masks[k]!;
