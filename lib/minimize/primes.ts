@@ -242,7 +242,7 @@ export function compactCover(t: Uint32Array, n: number, budget?: WorkBudget): Cu
       for (let w = lo >>> 5, end = (lo + (1 << k)) >>> 5; w < end; w++) {
         const x = t[w]!;
         if (x !== 0) ones = true;
-        if (x !== -1 >>> 0) zeros = true;
+        if (x !== 0xffffffff) zeros = true;
         if (ones && zeros) return 2;
       }
       return ones ? 1 : 0;
