@@ -3,37 +3,76 @@ import type { Cube } from "../logic";
 const utf8 = new TextEncoder();
 const fromUtf8 = new TextDecoder();
 
-/**
- * A cover in the equation language: SOP `a * b' + c`, POS `(a + b') * (c)`;
- * 0 and 1 for constants. Written as bytes and decoded once, because covers of
- * tens of thousands of terms make string concatenation the slow part. The
- * inputs go in groups of G (4, or 8 for large covers); the literals of a
- * group under one (mask, value) pattern are encoded once into a pool, and a
- * term is the copy of its groups' pieces.
- */
+/** A cover in the equation language: SOP `a * b' + c`, POS `(a + b') * (c)`; 0 and 1 for constants. */
 export function formatCover(cubes: readonly Cube[], inputs: readonly string[], form: "sop" | "pos"): string {
-  const n = inputs.length;
   if (cubes.length === 0) return form === "sop" ? "0" : "1";
   for (let k = 0; k < cubes.length; k++) if (cubes[k]!.mask === 0) return form === "sop" ? "1" : "0";
+  return cubes.length < 1024 ? formatAsStrings(cubes, inputs, form) : formatAsBytes(cubes, inputs, form);
+}
+
+/**
+ * Short covers: strings, the pieces of each group of 4 inputs under one
+ * (mask, value) pattern built once (encoding bytes costs more than it saves here).
+ */
+function formatAsStrings(cubes: readonly Cube[], inputs: readonly string[], form: "sop" | "pos"): string {
+  const n = inputs.length;
+  const inner = form === "sop" ? " * " : " + ";
+  const groups = Math.ceil(n / 4);
+  // Slot (g << 8) | (mask << 4) | value of group g: its literals, each after `inner` (piece) or the first without (lead).
+  const piece: (string | undefined)[] = new Array<string | undefined>(groups << 8);
+  const lead: string[] = new Array<string>(groups << 8);
+  const terms: string[] = new Array<string>(cubes.length);
+  for (let k = 0; k < cubes.length; k++) {
+    const c = cubes[k]!;
+    let t = "";
+    for (let g = groups - 1; g >= 0; g--) {
+      const slot = (g << 8) | (((c.mask >>> (4 * g)) & 15) << 4) | ((c.value >>> (4 * g)) & 15);
+      let p = piece[slot];
+      if (p === undefined) {
+        const parts: string[] = [];
+        // Declared order: higher bits first.
+        for (let i = 3; i >= 0; i--) {
+          const b = 4 * g + i;
+          if (b < n && ((c.mask >>> b) & 1) === 1) parts.push((c.value >>> b) & 1 ? inputs[n - 1 - b]! : `${inputs[n - 1 - b]!}'`);
+        }
+        p = parts.length === 0 ? "" : inner + parts.join(inner);
+        piece[slot] = p;
+        lead[slot] = parts.join(inner);
+      }
+      if (p === "") continue;
+      t += t === "" ? lead[slot]! : p;
+    }
+    terms[k] = form === "sop" ? t : `(${t})`;
+  }
+  return terms.join(form === "sop" ? " + " : " * ");
+}
+
+/**
+ * Long covers: bytes, decoded once, because covers of tens of thousands of
+ * terms make string concatenation the slow part. The inputs go in groups of 8;
+ * the literals of a group under one (mask, value) pattern are encoded once
+ * into a pool, and a term is the copy of its groups' pieces.
+ */
+function formatAsBytes(cubes: readonly Cube[], inputs: readonly string[], form: "sop" | "pos"): string {
+  const n = inputs.length;
   const inner = utf8.encode(form === "sop" ? " * " : " + ");
   const outer = utf8.encode(form === "sop" ? " + " : " * ");
   const wrap = form === "pos";
-  // A group of 8 has 2^16 patterns: worth their table only when many terms share them.
-  const G = cubes.length >= 1024 ? 8 : 4;
+  const G = 8;
   const ones = (1 << G) - 1;
   const groups = Math.ceil(n / G);
-  // Literal of bit b (input n-1-b), after the `inner` separator: lit[2b] plain, lit[2b+1] complemented.
-  const lit: Uint8Array[] = [];
-  for (let b = 0; b < n; b++) {
-    const name = inputs[n - 1 - b]!;
-    for (const text of [name, `${name}'`]) {
-      const bytes = utf8.encode(text);
-      const out = new Uint8Array(inner.length + bytes.length);
-      out.set(inner, 0);
-      out.set(bytes, inner.length);
-      lit.push(out);
-    }
-  }
+  // Literal of bit b (input n-1-b) after the `inner` separator: lit[2b] plain, lit[2b+1] complemented; encoded on first use.
+  const lit: (Uint8Array | undefined)[] = new Array<Uint8Array | undefined>(2 * n);
+  const literal = (b: number, plain: boolean): Uint8Array => {
+    const hit = lit[2 * b + (plain ? 0 : 1)];
+    if (hit) return hit;
+    const bytes = utf8.encode(plain ? inputs[n - 1 - b]! : `${inputs[n - 1 - b]!}'`);
+    const out = new Uint8Array(inner.length + bytes.length);
+    out.set(inner, 0);
+    out.set(bytes, inner.length);
+    lit[2 * b + (plain ? 0 : 1)] = out;
+    return out;
+  };
   // Piece of group g under (mask m, value v): slot (g << 2G) | (m << G) | v, bytes pool[off .. off + len);
   // built on first use (len 0 until then: the table holds len + 1).
   const len1 = new Int32Array(groups << (2 * G));
@@ -49,7 +88,7 @@ export function formatCover(cubes: readonly Cube[], inputs: readonly string[], f
     for (let k = G - 1; k >= 0; k--) {
       const b = G * g + k;
       if (b >= n || !((m >>> k) & 1)) continue;
-      const x = lit[2 * b + ((v >>> k) & 1 ? 0 : 1)]!;
+      const x = literal(b, ((v >>> k) & 1) === 1);
       if (at + x.length > pool.length) {
         const bigger = new Uint8Array(2 * (at + x.length));
         bigger.set(pool.subarray(0, at));
