@@ -539,32 +539,43 @@ function swapForFewerLiterals(chosen: number[], colRows: Int32Array[], lits: num
   const inCover = new Uint8Array(colRows.length);
   for (const c of cur) inCover[c] = 1;
   for (const c of cur) for (const r of colRows[c]!) count[r]!++;
-  // mark[r] === stamp: row r is one of the rows only the column under study covers.
-  const mark = new Int32Array(rowCount);
-  let stamp = 0;
+  // The rows only the column under study covers.
   const own: number[] = [];
+  // Whether column d covers every row of `own`: d among each row's columns (ascending), first miss ends it.
+  const coversOwn = (d: number): boolean => {
+    if (colRows[d]!.length < own.length) return false;
+    for (let k = 0; k < own.length; k++) {
+      const r = own[k]!;
+      let q = start[r]!;
+      const end = start[r + 1]!;
+      while (q < end && cols[q]! < d) q++;
+      if (q === end || cols[q] !== d) return false;
+    }
+    return true;
+  };
   for (let improved = true; improved; ) {
     improved = false;
     for (let i = 0; i < cur.length; i++) {
       const c = cur[i]!;
-      own.length = 0;
-      stamp++;
-      for (const r of colRows[c]!) {
-        if (count[r] === 1) {
-          own.push(r);
-          mark[r] = stamp;
-        }
+      const rows = colRows[c]!;
+      let first = 0;
+      while (first < rows.length && count[rows[first]!] !== 1) first++;
+      if (first === rows.length) continue;
+      // A replacement covers the first own row and has fewer literals; without one, the other own rows do not matter.
+      const r0 = rows[first]!;
+      let some = false;
+      for (let q = start[r0]!; q < start[r0 + 1]! && !some; q++) {
+        const d = cols[q]!;
+        some = d !== c && !inCover[d] && lits[d]! < lits[c]!;
       }
-      if (own.length === 0) continue;
+      if (!some) continue;
+      own.length = 0;
+      for (let k = first; k < rows.length; k++) if (count[rows[k]!] === 1) own.push(rows[k]!);
       let best = -1;
-      const r0 = own[0]!;
       for (let q = start[r0]!; q < start[r0 + 1]!; q++) {
         const d = cols[q]!;
         if (d === c || inCover[d] || lits[d]! >= lits[best < 0 ? c : best]!) continue;
-        const rs = colRows[d]!;
-        let hits = 0;
-        for (let k = 0; k < rs.length; k++) if (mark[rs[k]!] === stamp) hits++;
-        if (hits === own.length) best = d;
+        if (coversOwn(d)) best = d;
       }
       if (best < 0) continue;
       for (const r of colRows[c]!) count[r]!--;
