@@ -7,12 +7,13 @@ const fromUtf8 = new TextDecoder();
 export function formatCover(cubes: readonly Cube[], inputs: readonly string[], form: "sop" | "pos"): string {
   if (cubes.length === 0) return form === "sop" ? "0" : "1";
   for (let k = 0; k < cubes.length; k++) if (cubes[k]!.mask === 0) return form === "sop" ? "1" : "0";
-  return cubes.length < 1024 ? formatAsStrings(cubes, inputs, form) : formatAsBytes(cubes, inputs, form);
+  return cubes.length < 8192 ? formatAsStrings(cubes, inputs, form) : formatAsBytes(cubes, inputs, form);
 }
 
 /**
- * Short covers: strings, the pieces of each group of 4 inputs under one
- * (mask, value) pattern built once (encoding bytes costs more than it saves here).
+ * Covers up to a few thousand terms: strings, the pieces of each group of 4
+ * inputs under one (mask, value) pattern built once (encoding bytes costs
+ * more than it saves here).
  */
 function formatAsStrings(cubes: readonly Cube[], inputs: readonly string[], form: "sop" | "pos"): string {
   const n = inputs.length;
