@@ -484,7 +484,8 @@ function lexicographicCover(prob: CoveringProblem, model: CostModel, deadline: n
   const only = essentialCover(colRows, rc, rowCount);
   if (only) {
     // Every cover holds the essential columns, and they cover every row: they are the one minimum cover.
-    const w = only.reduce((a, c) => a + weight[c]!, 0);
+    let w = 0;
+    for (let i = 0; i < only.length; i++) w += weight[only[i]!]!;
     return { chosen: only, weight: w, lowerBound: w, exact: true };
   }
   if (model.kind !== "products") return solveCover({ colRows, weight, rowCount, deadline });
@@ -599,20 +600,19 @@ function outputAloneBounds(prob: CoveringProblem & { rowsPerOutput: number[] }, 
   const { start, cols } = rc;
   // used[c] === stamp: column c covers a row already taken for this output, so no other row of c may be taken.
   const used = new Int32Array(prob.colRows.length);
-  let first = 0;
-  return prob.rowsPerOutput.map((count, j) => {
-    const lo = first;
-    first += count;
-    if (count === 0) return 0;
+  const bounds: number[] = [];
+  for (let j = 0, lo = 0; j < prob.rowsPerOutput.length; j++) {
+    const count = prob.rowsPerOutput[j]!;
+    const hi = lo + count;
     const stamp = j + 1;
     // Fewest columns first, ties in row order: a counting sort on the column counts.
     let most = 0;
-    for (let r = lo; r < lo + count; r++) most = Math.max(most, start[r + 1]! - start[r]!);
+    for (let r = lo; r < hi; r++) most = Math.max(most, start[r + 1]! - start[r]!);
     const at = new Int32Array(most + 2);
-    for (let r = lo; r < lo + count; r++) at[start[r + 1]! - start[r]! + 1]!++;
+    for (let r = lo; r < hi; r++) at[start[r + 1]! - start[r]! + 1]!++;
     for (let d = 0; d <= most; d++) at[d + 1]! += at[d]!;
     const order = new Int32Array(count);
-    for (let r = lo; r < lo + count; r++) order[at[start[r + 1]! - start[r]!]!++] = r;
+    for (let r = lo; r < hi; r++) order[at[start[r + 1]! - start[r]!]!++] = r;
     let w = 0;
     for (let k = 0; k < count; k++) {
       const r = order[k]!;
@@ -628,8 +628,10 @@ function outputAloneBounds(prob: CoveringProblem & { rowsPerOutput: number[] }, 
       }
       w += m;
     }
-    return boundFromSurrogate(model, w, 1);
-  });
+    bounds.push(count === 0 ? 0 : boundFromSurrogate(model, w, 1));
+    lo = hi;
+  }
+  return bounds;
 }
 
 /** Exact route over a group of outputs sharing terms. Throws ExactLimit beyond its limits. */
@@ -851,7 +853,7 @@ export function minimize(spec: FunctionSpec, options: MinimizeOptions = {}): Min
       cubes,
       expression: formatCover(cubes, spec.inputs, form),
       products: cubes.length,
-      literals: cubes.reduce((a, c) => a + popcount(c.mask), 0),
+      literals: literalsOf(cubes),
       exact: solved.exact,
       lowerBound: Math.min(own, solved.outputBounds[j] ?? 0),
     };
@@ -867,6 +869,12 @@ export function minimize(spec: FunctionSpec, options: MinimizeOptions = {}): Min
     primes: solved.primes,
     route: solved.route,
   };
+}
+
+function literalsOf(cubes: readonly Cube[]): number {
+  let total = 0;
+  for (let i = 0; i < cubes.length; i++) total += popcount(cubes[i]!.mask);
+  return total;
 }
 
 /**
