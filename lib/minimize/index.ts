@@ -210,9 +210,11 @@ function assignTerms(
   for (let q = 0; q < order.length; q++) {
     const i = order[q]!;
     const rs = colRows[chosen[i]!]!;
+    const tag = prob.columns[chosen[i]!]!.tag & outputs;
+    // Outputs for which the term covers a row no other kept term covers; once all its outputs, nothing to drop.
     let needed = 0;
-    for (let x = 0; x < rs.length; x++) if (count[rs[x]!]! <= 1) needed |= 1 << rowOutput[rs[x]!]!;
-    const drop = prob.columns[chosen[i]!]!.tag & outputs & ~needed;
+    for (let x = 0; x < rs.length && needed !== tag; x++) if (count[rs[x]!]! <= 1) needed |= 1 << rowOutput[rs[x]!]!;
+    const drop = tag & ~needed;
     if (drop === 0) continue;
     dropped[i] = drop;
     for (let x = 0; x < rs.length; x++) if ((drop >>> rowOutput[rs[x]!]!) & 1) count[rs[x]!]!--;
