@@ -114,13 +114,37 @@ export function tableSet(t: TruthTable, m: number): void {
   t[m >>> 5]! |= 1 << (m & 31);
 }
 
-/** Set every minterm of the cube in the table (enumerates free variables). */
+/**
+ * Minterms of a cube among the 32 of one table word: the low five variables
+ * (bits 0..4 of the minterm index) pick positions inside the word.
+ */
+const LOW_VARIABLE_WORDS = [0xaaaaaaaa, 0xcccccccc, 0xf0f0f0f0, 0xff00ff00, 0xffff0000];
+
+/**
+ * Set every minterm of the cube in the table. Works a word at a time: the
+ * cube's low five literals give one 32-bit pattern, its higher free variables
+ * enumerate the words that receive it.
+ */
 export function tableAddCube(t: TruthTable, c: Cube, n: number): void {
-  const free = fullMask(n) & ~c.mask;
-  // Enumerate subsets of the free bits (Gosper-free standard trick).
+  const full = fullMask(n);
+  if (c.mask === full) {
+    // A minterm: one bit.
+    t[c.value >>> 5]! |= 1 << (c.value & 31);
+    return;
+  }
+  let pattern = n >= 5 ? 0xffffffff : (2 ** (2 ** n) - 1) >>> 0;
+  // A value bit outside the mask acts as a fixed 1, as in (value | subset of the free bits).
+  const fixed = c.mask | c.value;
+  for (let i = 0; i < 5 && i < n; i++) {
+    if (!((fixed >>> i) & 1)) continue;
+    pattern &= (c.value >>> i) & 1 ? LOW_VARIABLE_WORDS[i]! : ~LOW_VARIABLE_WORDS[i]!;
+  }
+  const free = ((full & ~c.mask) >>> 5) >>> 0;
+  const base = c.value >>> 5;
+  // Enumerate subsets of the free word-index bits.
   let sub = 0;
   for (;;) {
-    tableSet(t, (c.value | sub) >>> 0);
+    t[base | sub]! |= pattern;
     if (sub === free) break;
     sub = ((sub - free) & free) >>> 0;
   }

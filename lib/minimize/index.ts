@@ -74,6 +74,8 @@ function buildTargets(spec: FunctionSpec, form: "sop" | "pos"): Target[] {
 interface Solved {
   /** Per output, the product cubes of the covered function (before POS inversion). */
   covers: Cube[][];
+  /** costOfCovers of `covers`. */
+  cost: number;
   exact: boolean;
   designBound: number;
   outputBounds: number[];
@@ -81,83 +83,121 @@ interface Solved {
   route: "exact" | "heuristic";
 }
 
-function sameCube(a: Cube, b: Cube): boolean {
-  return a.value === b.value && a.mask === b.mask;
-}
-
 function cubeKey(c: Cube): number {
   return c.mask * 1073741824 + c.value;
 }
 
-/** Per output, drop chosen terms that the output's other terms already cover, costliest first. */
-function assignTerms(n: number, targets: Target[], chosen: TaggedPrime[]): Cube[][] {
-  const full = fullMask(n);
-  // How many candidate terms cover each ON point; reset after each output through the point lists.
-  const count = new Int32Array(2 ** n);
-  return targets.map((t, j) => {
-    const bit = 1 << j;
-    const cand = chosen.filter((p) => (p.tag & bit) !== 0);
-    const onT = t.onT!;
-    const pts = cand.map((p) => {
-      const list: number[] = [];
-      const free = (full & ~p.mask) >>> 0;
-      let sub = 0;
-      for (;;) {
-        const m = (p.value | sub) >>> 0;
-        if ((onT[m >>> 5]! >>> (m & 31)) & 1) {
-          list.push(m);
-          count[m]!++;
-        }
-        if (sub === free) break;
-        sub = ((sub - free) & free) >>> 0;
+/**
+ * Distinct terms of one or more covers: open addressing on (mask, value),
+ * which fit 30 bits each. Covers of tens of thousands of terms make a Map or
+ * a sort the slow part of pricing them.
+ */
+class TermTable {
+  /** Slot i holds mask + 1 at 2i (0 when free) and value at 2i + 1. */
+  private readonly cells: Int32Array;
+  private readonly shift: number;
+  /** Literal count of every distinct term, in the order first seen. */
+  readonly literals: number[] = [];
+
+  constructor(capacity: number) {
+    // More than twice as many slots as terms.
+    const bits = Math.max(4, 33 - Math.clz32(capacity));
+    this.shift = 32 - bits;
+    this.cells = new Int32Array(2 << bits);
+  }
+
+  /** Number of slots: slot() returns indices below it. */
+  get slots(): number {
+    return this.cells.length >>> 1;
+  }
+
+  /** Slot of the term; a new term takes a free slot. */
+  slot(c: Cube): number {
+    const cells = this.cells;
+    const last = (cells.length >>> 1) - 1;
+    const mask = c.mask | 0;
+    const value = c.value | 0;
+    let i = Math.imul(mask ^ Math.imul(value, 0x85ebca6b), 0x9e3779b1) >>> this.shift;
+    for (;;) {
+      const m = cells[2 * i]!;
+      if (m === 0) {
+        cells[2 * i] = mask + 1;
+        cells[2 * i + 1] = value;
+        this.literals.push(popcount(mask));
+        return i;
       }
-      return list;
-    });
-    const order = cand.map((_, i) => i).sort((a, b) => popcount(cand[b]!.mask) - popcount(cand[a]!.mask));
-    const keep = new Uint8Array(cand.length).fill(1);
-    for (const i of order) {
-      const list = pts[i]!;
-      let redundant = true;
-      for (let k = 0; k < list.length; k++) {
-        if (count[list[k]!]! <= 1) {
-          redundant = false;
-          break;
-        }
-      }
-      if (redundant) {
-        keep[i] = 0;
-        for (let k = 0; k < list.length; k++) count[list[k]!]!--;
-      }
+      if (m === mask + 1 && cells[2 * i + 1] === value) return i;
+      i = (i + 1) & last;
     }
-    for (const list of pts) for (let k = 0; k < list.length; k++) count[list[k]!] = 0;
-    return cand.filter((_, i) => keep[i] === 1).map((p) => ({ value: p.value, mask: p.mask }));
-  });
+  }
+}
+
+/**
+ * Per output, drop chosen terms that the output's other terms already cover,
+ * costliest first (ties in the order chosen). Works on the rows of the
+ * covering problem: the rows of output j that column c covers are its ON
+ * points of output j. Rows of different outputs are disjoint, so one pass in
+ * the global order makes, for each output, the decisions its own pass would.
+ * Also returns the literal count of each term kept by some output: the
+ * columns are distinct primes, so these are the design's distinct terms.
+ */
+function assignTerms(
+  n: number,
+  k: number,
+  prob: CoveringProblem & { rowsPerOutput: number[] },
+  chosen: number[],
+): { covers: Cube[][]; literals: number[] } {
+  const { colRows, rowCount } = prob;
+  const rowOutput = new Uint8Array(rowCount);
+  for (let j = 0, r = 0; j < k; j++) for (let e = r + prob.rowsPerOutput[j]!; r < e; r++) rowOutput[r] = j;
+  // count[r]: chosen terms, not yet dropped for r's output, that cover row r.
+  const count = new Int32Array(rowCount);
+  const lits = new Int32Array(chosen.length);
+  for (let i = 0; i < chosen.length; i++) {
+    const rs = colRows[chosen[i]!]!;
+    for (let x = 0; x < rs.length; x++) count[rs[x]!]!++;
+    lits[i] = popcount(prob.columns[chosen[i]!]!.mask);
+  }
+  // Stable order by literals, most first (a counting sort: ties keep the chosen order).
+  const bucket = new Int32Array(n + 2);
+  for (let i = 0; i < lits.length; i++) bucket[n - lits[i]! + 1]!++;
+  for (let l = 0; l <= n; l++) bucket[l + 1]! += bucket[l]!;
+  const order = new Int32Array(chosen.length);
+  for (let i = 0; i < chosen.length; i++) order[bucket[n - lits[i]!]!++] = i;
+  // dropped[i]: outputs (bits) for which the i-th chosen term is redundant.
+  const dropped = new Int32Array(chosen.length);
+  const outputs = k >= 31 ? 0x7fffffff : (1 << k) - 1;
+  for (let q = 0; q < order.length; q++) {
+    const i = order[q]!;
+    const rs = colRows[chosen[i]!]!;
+    const tag = prob.columns[chosen[i]!]!.tag & outputs;
+    // Outputs for which the term covers a row no other kept term covers; once all its outputs, nothing to drop.
+    let needed = 0;
+    for (let x = 0; x < rs.length && needed !== tag; x++) if (count[rs[x]!]! <= 1) needed |= 1 << rowOutput[rs[x]!]!;
+    const drop = tag & ~needed;
+    if (drop === 0) continue;
+    dropped[i] = drop;
+    for (let x = 0; x < rs.length; x++) if ((drop >>> rowOutput[rs[x]!]!) & 1) count[rs[x]!]!--;
+  }
+  const covers: Cube[][] = Array.from({ length: k }, () => []);
+  const literals: number[] = [];
+  for (let i = 0; i < chosen.length; i++) {
+    const p = prob.columns[chosen[i]!]!;
+    const kept = p.tag & outputs & ~dropped[i]!;
+    if (kept !== 0) literals.push(lits[i]!);
+    for (let keep = kept; keep !== 0; keep &= keep - 1) {
+      covers[31 - Math.clz32(keep & -keep)]!.push({ value: p.value, mask: p.mask });
+    }
+  }
+  return { covers, literals };
 }
 
 function costOfCovers(model: CostModel, covers: Cube[][]): number {
-  // Distinct terms by sorting their keys: covers of tens of thousands of terms make a map the slow part.
-  // The keys are exact below 2^53, that is for masks below 2^23.
   let total = 0;
-  let wide = false;
-  for (const cv of covers) {
-    total += cv.length;
-    for (const c of cv) if (c.mask >= 2 ** 23) wide = true;
-  }
-  if (wide) {
-    const distinct = new Map<string, number>();
-    for (const cv of covers) for (const c of cv) distinct.set(`${c.mask}/${c.value}`, popcount(c.mask));
-    return designCost(model, [...distinct.values()], covers.map((c) => c.length));
-  }
-  const keys = new Float64Array(total);
-  let i = 0;
-  for (const cv of covers) for (const c of cv) keys[i++] = cubeKey(c);
-  keys.sort();
-  const literals: number[] = [];
-  for (let k = 0; k < total; k++) {
-    if (k > 0 && keys[k] === keys[k - 1]) continue;
-    literals.push(popcount(Math.floor(keys[k]! / 1073741824)));
-  }
-  return designCost(model, literals, covers.map((c) => c.length));
+  for (const cv of covers) total += cv.length;
+  const terms = new TermTable(total);
+  for (const cv of covers) for (let i = 0; i < cv.length; i++) terms.slot(cv[i]!);
+  return designCost(model, terms.literals, covers.map((c) => c.length));
 }
 
 /** The covering problem of the exact route: rows (output, ON minterm), columns multi-output primes. */
@@ -428,13 +468,20 @@ export function coveringProblem(spec: FunctionSpec, options: { cost?: CostModel;
  * relaxed into the Lagrangian bound and checked against independent rows).
  * Returns weights in the {@link columnWeight} scale.
  */
-function lexicographicCover(prob: CoveringProblem, model: CostModel, deadline: number) {
+function lexicographicCover(prob: CoveringProblem, model: CostModel, deadline: number, rc: RowColumns) {
   const { colRows, weight, rowCount } = prob;
+  const only = essentialCover(colRows, rc, rowCount);
+  if (only) {
+    // Every cover holds the essential columns, and they cover every row: they are the one minimum cover.
+    let w = 0;
+    for (let i = 0; i < only.length; i++) w += weight[only[i]!]!;
+    return { chosen: only, weight: w, lowerBound: w, exact: true };
+  }
   if (model.kind !== "products") return solveCover({ colRows, weight, rowCount, deadline });
   const lits = prob.columns.map((p) => popcount(p.mask));
   const s1 = solveCover({ colRows, weight: lits.map(() => 1), rowCount, deadline });
   const P = s1.chosen.length;
-  const start = swapForFewerLiterals(s1.chosen, colRows, lits, rowCount);
+  const start = swapForFewerLiterals(s1.chosen, colRows, lits, rowCount, rc);
   const s2 = solveCover({ colRows, weight: lits, rowCount, deadline, incumbent: start, maxColumns: P });
   const chosen = s2.chosen.length === P || !s1.exact ? s2.chosen : s1.chosen;
   const w = chosen.reduce((a, c) => a + weight[c]!, 0);
@@ -444,44 +491,81 @@ function lexicographicCover(prob: CoveringProblem, model: CostModel, deadline: n
   return { chosen, weight: w, lowerBound: lb, exact: s1.exact && s2.exact };
 }
 
+type RowColumns = ReturnType<typeof rowColumns>;
+
+/**
+ * The essential columns (sole column of some row) when they cover every row,
+ * in the order the cover search lists them (rows in order, a row already
+ * covered skipped); null when rows remain.
+ */
+function essentialCover(colRows: Int32Array[], rc: RowColumns, rowCount: number): number[] | null {
+  const { start, cols } = rc;
+  const covered = new Uint8Array(rowCount);
+  const taken = new Uint8Array(colRows.length);
+  const chosen: number[] = [];
+  for (let r = 0; r < rowCount; r++) {
+    if (covered[r] || start[r + 1]! - start[r]! !== 1) continue;
+    const c = cols[start[r]!]!;
+    if (!taken[c]) {
+      taken[c] = 1;
+      chosen.push(c);
+    }
+    const rs = colRows[c]!;
+    for (let i = 0; i < rs.length; i++) covered[rs[i]!] = 1;
+  }
+  for (let r = 0; r < rowCount; r++) if (!covered[r]) return null;
+  return chosen;
+}
+
 /**
  * One-for-one swaps that keep the cover and lower its literals: a column can
  * give way to a cheaper one covering every row only it covers. Gives the
  * literal search a good first incumbent.
  */
-function swapForFewerLiterals(chosen: number[], colRows: Int32Array[], lits: number[], rowCount: number): number[] {
-  const { start, cols } = rowColumns(colRows, rowCount);
+function swapForFewerLiterals(chosen: number[], colRows: Int32Array[], lits: number[], rowCount: number, rc: RowColumns): number[] {
+  const { start, cols } = rc;
   const count = new Int32Array(rowCount);
   const cur = chosen.slice();
   const inCover = new Uint8Array(colRows.length);
   for (const c of cur) inCover[c] = 1;
   for (const c of cur) for (const r of colRows[c]!) count[r]!++;
-  // mark[r] === stamp: row r is one of the rows only the column under study covers.
-  const mark = new Int32Array(rowCount);
-  let stamp = 0;
+  // The rows only the column under study covers.
   const own: number[] = [];
+  // Whether column d covers every row of `own`: d among each row's columns (ascending), first miss ends it.
+  const coversOwn = (d: number): boolean => {
+    if (colRows[d]!.length < own.length) return false;
+    for (let k = 0; k < own.length; k++) {
+      const r = own[k]!;
+      let q = start[r]!;
+      const end = start[r + 1]!;
+      while (q < end && cols[q]! < d) q++;
+      if (q === end || cols[q] !== d) return false;
+    }
+    return true;
+  };
   for (let improved = true; improved; ) {
     improved = false;
     for (let i = 0; i < cur.length; i++) {
       const c = cur[i]!;
-      own.length = 0;
-      stamp++;
-      for (const r of colRows[c]!) {
-        if (count[r] === 1) {
-          own.push(r);
-          mark[r] = stamp;
-        }
+      const rows = colRows[c]!;
+      let first = 0;
+      while (first < rows.length && count[rows[first]!] !== 1) first++;
+      if (first === rows.length) continue;
+      // A replacement covers the first own row and has fewer literals; without one, the other own rows do not matter.
+      const r0 = rows[first]!;
+      let some = false;
+      for (let q = start[r0]!; q < start[r0 + 1]! && !some; q++) {
+        const d = cols[q]!;
+        some = d !== c && !inCover[d] && lits[d]! < lits[c]!;
       }
-      if (own.length === 0) continue;
+      if (!some) continue;
+      own.length = 0;
+      for (let k = first; k < rows.length; k++) if (count[rows[k]!] === 1) own.push(rows[k]!);
       let best = -1;
-      const r0 = own[0]!;
       for (let q = start[r0]!; q < start[r0 + 1]!; q++) {
         const d = cols[q]!;
         if (d === c || inCover[d] || lits[d]! >= lits[best < 0 ? c : best]!) continue;
-        const rs = colRows[d]!;
-        let hits = 0;
-        for (let k = 0; k < rs.length; k++) if (mark[rs[k]!] === stamp) hits++;
-        if (hits === own.length) best = d;
+        if (coversOwn(d)) best = d;
       }
       if (best < 0) continue;
       for (const r of colRows[c]!) count[r]!--;
@@ -500,38 +584,43 @@ function swapForFewerLiterals(chosen: number[], colRows: Int32Array[], lits: num
  * rows no column covers two of (fewest columns first), each charged its
  * cheapest column. Rows of one output are numbered consecutively.
  */
-function outputAloneBounds(prob: CoveringProblem & { rowsPerOutput: number[] }, model: CostModel): number[] {
-  const { colRows, weight, rowCount } = prob;
-  const { start, cols } = rowColumns(colRows, rowCount);
-  const blocked = new Int32Array(rowCount);
-  const colDone = new Int32Array(colRows.length);
-  let first = 0;
-  return prob.rowsPerOutput.map((count, j) => {
-    const lo = first;
-    first += count;
-    if (count === 0) return 0;
+function outputAloneBounds(prob: CoveringProblem & { rowsPerOutput: number[] }, model: CostModel, rc: RowColumns): number[] {
+  const { weight } = prob;
+  const { start, cols } = rc;
+  // used[c] === stamp: column c covers a row already taken for this output, so no other row of c may be taken.
+  const used = new Int32Array(prob.colRows.length);
+  const bounds: number[] = [];
+  for (let j = 0, lo = 0; j < prob.rowsPerOutput.length; j++) {
+    const count = prob.rowsPerOutput[j]!;
+    const hi = lo + count;
     const stamp = j + 1;
-    // Fewest columns first; ties in row order (keys are unique, so a plain numeric sort does it).
-    const keys = new Float64Array(count);
-    for (let i = 0; i < count; i++) keys[i] = (start[lo + i + 1]! - start[lo + i]!) * 2 ** 24 + i;
-    keys.sort();
+    // Fewest columns first, ties in row order: a counting sort on the column counts.
+    let most = 0;
+    for (let r = lo; r < hi; r++) most = Math.max(most, start[r + 1]! - start[r]!);
+    const at = new Int32Array(most + 2);
+    for (let r = lo; r < hi; r++) at[start[r + 1]! - start[r]! + 1]!++;
+    for (let d = 0; d <= most; d++) at[d + 1]! += at[d]!;
+    const order = new Int32Array(count);
+    for (let r = lo; r < hi; r++) order[at[start[r + 1]! - start[r]!]!++] = r;
     let w = 0;
     for (let k = 0; k < count; k++) {
-      const r = lo + (keys[k]! % 2 ** 24);
-      if (blocked[r] === stamp) continue;
+      const r = order[k]!;
+      // A row shares a column with a row already taken exactly when one of its columns is used.
+      let free = true;
+      for (let q = start[r]!; q < start[r + 1]! && free; q++) if (used[cols[q]!] === stamp) free = false;
+      if (!free) continue;
       let m = Infinity;
       for (let q = start[r]!; q < start[r + 1]!; q++) {
         const c = cols[q]!;
         if (weight[c]! < m) m = weight[c]!;
-        if (colDone[c] === stamp) continue;
-        colDone[c] = stamp;
-        const rs = colRows[c]!;
-        for (let i = 0; i < rs.length; i++) blocked[rs[i]!] = stamp;
+        used[c] = stamp;
       }
       w += m;
     }
-    return boundFromSurrogate(model, w, 1);
-  });
+    bounds.push(count === 0 ? 0 : boundFromSurrogate(model, w, 1));
+    lo = hi;
+  }
+  return bounds;
 }
 
 /** Exact route over a group of outputs sharing terms. Throws ExactLimit beyond its limits. */
@@ -544,16 +633,18 @@ function exactGroup(
   const prob = buildProblem(n, targets, model, limits);
   const { rowCount } = prob;
   const all = prob.primes;
-  const cols = prob.columns;
   const live = targets.filter((t, j) => t.on.length > 0 && prob.rowsPerOutput[j]! > 0).length;
-  const sol = rowCount === 0 ? { chosen: [], weight: 0, lowerBound: 0, exact: true } : lexicographicCover(prob, model, limits.deadline);
-  const covers = assignTerms(n, targets, sol.chosen.map((c) => cols[c]!));
-  const cost = costOfCovers(model, covers);
+  // Rows → columns, once for the steps below (the cover search builds its own).
+  const rc = rowColumns(prob.colRows, rowCount);
+  const sol = rowCount === 0 ? { chosen: [], weight: 0, lowerBound: 0, exact: true } : lexicographicCover(prob, model, limits.deadline, rc);
+  const { covers, literals } = assignTerms(n, targets.length, prob, sol.chosen);
+  const cost = designCost(model, literals, covers.map((c) => c.length));
   const bound = Math.min(cost, boundFromSurrogate(model, sol.lowerBound, live));
   // Per output: independent rows of that output alone, each charged its cheapest column.
-  const outputBounds = outputAloneBounds(prob, model);
+  const outputBounds = outputAloneBounds(prob, model, rc);
   return {
     covers,
+    cost,
     exact: sol.exact && cost === bound,
     designBound: Math.max(bound, ...outputBounds),
     outputBounds,
@@ -636,7 +727,7 @@ function heuristicAll(n: number, targets: Target[], model: CostModel, deadline: 
   }
   const cost = costOfCovers(model, covers);
   design = Math.min(cost, Math.max(design, ...perOutput));
-  return { covers, exact: boundProves(model, cost, design), designBound: design, outputBounds: perOutput, primes: -1, route: "heuristic" };
+  return { covers, cost, exact: boundProves(model, cost, design), designBound: design, outputBounds: perOutput, primes: -1, route: "heuristic" };
 }
 
 /**
@@ -696,7 +787,7 @@ export function minimize(spec: FunctionSpec, options: MinimizeOptions = {}): Min
         const designBound = Math.min(cost, Math.max(...outputBounds));
         // Outputs covered one by one cannot prove a shared optimum: only a met bound of a cost-only model does.
         const exact = parts.every((p) => p.exact) && boundProves(model, cost, designBound);
-        solved = { covers, exact, designBound, outputBounds, primes: parts.reduce((a, p) => a + p.primes, 0), route: "exact" };
+        solved = { covers, cost, exact, designBound, outputBounds, primes: parts.reduce((a, p) => a + p.primes, 0), route: "exact" };
       }
     } catch (e) {
       if (!(e instanceof ExactLimit)) throw e;
@@ -710,19 +801,16 @@ export function minimize(spec: FunctionSpec, options: MinimizeOptions = {}): Min
       } catch (e) {
         if (!(e instanceof LimitError)) throw e;
       }
-      if (h && costOfCovers(model, h.covers) < costOfCovers(model, solved.covers)) {
+      if (h && h.cost < solved.cost) {
         solved = { ...h, designBound: Math.max(h.designBound, solved.designBound), primes: solved.primes };
       }
-      solved.exact = boundProves(model, costOfCovers(model, solved.covers), solved.designBound);
+      solved.exact = boundProves(model, solved.cost, solved.designBound);
     }
   }
   solved ??= heuristicAll(n, targets, model, deadline, timeLimitMs);
 
   // Canonical order: fewer literals first, then by the earliest declared inputs.
-  const order = (a: Cube, b: Cube) => popcount(a.mask) - popcount(b.mask) || b.mask - a.mask || b.value - a.value;
-  const outCubes = solved.covers.map((cv) =>
-    (form === "sop" ? cv.slice() : cv.map((c) => ({ value: (~c.value & c.mask) >>> 0, mask: c.mask }))).sort(order),
-  );
+  const outCubes = solved.covers.map((cv) => canonicalOrder(cv, n, form === "pos"));
   const verdict = verifyCovers(spec, outCubes.map((cubes) => ({ form, cubes })));
   if (!verdict.ok) {
     throw new Error(
@@ -731,34 +819,115 @@ export function minimize(spec: FunctionSpec, options: MinimizeOptions = {}): Min
   }
   let shared = 0;
   if (solved.covers.length > 1) {
-    const uses = new Map<number, number>();
-    for (const cv of solved.covers) for (const c of new Set(cv.map(cubeKey))) uses.set(c, (uses.get(c) ?? 0) + 1);
-    shared = [...uses.values()].filter((u) => u > 1).length;
+    // Terms in more than one output: count each term once per output that uses it.
+    const terms = new TermTable(solved.covers.reduce((a, cv) => a + cv.length, 0));
+    const lastOutput = new Int32Array(terms.slots).fill(-1);
+    const uses = new Int32Array(terms.slots);
+    solved.covers.forEach((cv, j) => {
+      for (const c of cv) {
+        const s = terms.slot(c);
+        if (lastOutput[s] === j) continue;
+        lastOutput[s] = j;
+        if (++uses[s]! === 2) shared++;
+      }
+    });
   }
+  const cost = solved.cost;
   const outputs: MinimizedOutput[] = spec.outputs.map((o, j) => {
     const cubes = outCubes[j]!;
-    const own = costOfCovers(model, [solved.covers[j]!]);
+    const own = solved.covers.length === 1 ? cost : costOfCovers(model, [solved.covers[j]!]);
     return {
       name: o.name,
       form,
       cubes,
       expression: formatCover(cubes, spec.inputs, form),
       products: cubes.length,
-      literals: cubes.reduce((a, c) => a + popcount(c.mask), 0),
+      literals: literalsOf(cubes),
       exact: solved.exact,
       lowerBound: Math.min(own, solved.outputBounds[j] ?? 0),
     };
   });
-  void sameCube;
   return {
     inputs: spec.inputs.slice(),
     outputs,
     shared,
     exact: solved.exact,
     ms: Date.now() - t0,
-    cost: costOfCovers(model, solved.covers),
+    cost,
     lowerBound: solved.designBound,
     primes: solved.primes,
     route: solved.route,
   };
+}
+
+function literalsOf(cubes: readonly Cube[]): number {
+  let total = 0;
+  for (let i = 0; i < cubes.length; i++) total += popcount(cubes[i]!.mask);
+  return total;
+}
+
+/**
+ * A cover's terms in canonical order: fewer literals first, then the larger
+ * mask, then the larger value (earliest declared inputs first, plain before
+ * complemented); ties keep their order. With `invert`, POS sum terms: every
+ * literal inverted. Up to 27 inputs the keys fit two 32-bit words, sorted by
+ * a stable radix sort (a comparison sort of tens of thousands of terms is
+ * the slow part otherwise).
+ */
+function canonicalOrder(cv: readonly Cube[], n: number, invert: boolean): Cube[] {
+  const len = cv.length;
+  const out: Cube[] = new Array<Cube>(len);
+  for (let i = 0; i < len; i++) {
+    const c = cv[i]!;
+    out[i] = invert ? { value: (~c.value & c.mask) >>> 0, mask: c.mask } : c;
+  }
+  if (n > 27) {
+    return out.sort((a, b) => popcount(a.mask) - popcount(b.mask) || b.mask - a.mask || b.value - a.value);
+  }
+  const full = fullMask(n);
+  const scale = 2 ** n;
+  // Ascending (hi, lo) with hi = literals · 2^n + (full - mask), lo = full - value.
+  const hi = new Uint32Array(len);
+  const lo = new Uint32Array(len);
+  for (let i = 0; i < len; i++) {
+    const c = out[i]!;
+    hi[i] = popcount(c.mask) * scale + (full - c.mask);
+    lo[i] = full - c.value;
+  }
+  // Terms often arrive in one run (the cover search lists them by row): then a scan orders them.
+  let rising = true;
+  let falling = true;
+  for (let i = 1; i < len && (rising || falling); i++) {
+    const d = hi[i]! - hi[i - 1]! || lo[i]! - lo[i - 1]!;
+    if (d < 0) rising = false;
+    if (d >= 0) falling = false;
+  }
+  if (rising) return out;
+  if (falling) return out.reverse();
+  let perm = new Int32Array(len);
+  for (let i = 0; i < len; i++) perm[i] = i;
+  let next = new Int32Array(len);
+  const count = new Int32Array(257);
+  // Least significant byte first: the bytes of lo, then those of hi.
+  const loPasses = Math.ceil(n / 8);
+  const passes = loPasses + Math.ceil((n + 5) / 8);
+  for (let pass = 0; pass < passes; pass++) {
+    const keys = pass < loPasses ? lo : hi;
+    const shift = 8 * (pass < loPasses ? pass : pass - loPasses);
+    count.fill(0);
+    for (let i = 0; i < len; i++) count[((keys[i]! >>> shift) & 255) + 1]!++;
+    // One byte value throughout: the pass would move nothing.
+    if (len === 0 || count[((keys[0]! >>> shift) & 255) + 1] === len) continue;
+    for (let d = 0; d < 256; d++) count[d + 1]! += count[d]!;
+    for (let i = 0; i < len; i++) {
+      const p = perm[i]!;
+      next[count[(keys[p]! >>> shift) & 255]!++] = p;
+    }
+    const t = perm;
+    perm = next;
+    next = t;
+  }
+  const sorted: Cube[] = new Array<Cube>(len);
+  for (let i = 0; i < len; i++) sorted[i] = out[perm[i]!]!;
+  return sorted;
 }

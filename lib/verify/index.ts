@@ -11,7 +11,7 @@
 import Logic from "logic-solver";
 import type { Formula } from "logic-solver";
 import type { Cube, FunctionSpec } from "../logic";
-import { TRUTH_TABLE_MAX_INPUTS, fullMask, popcount, tableAddCube } from "../logic";
+import { TRUTH_TABLE_MAX_INPUTS, fullMask } from "../logic";
 
 export type { Formula } from "logic-solver";
 export type LogicModule = typeof Logic;
@@ -60,27 +60,45 @@ export function inputTables(n: number): Uint32Array[] {
   return out;
 }
 
-/** Truth table of a list of cubes; big cubes by literal ANDs, small ones by enumeration. */
-export function coverTable(cubes: readonly Cube[], n: number, literalTables?: Uint32Array[]): Uint32Array {
+/** In-word minterm patterns of the five lowest variables (bit pos of the minterm index set). */
+const LOW_WORDS = [0xaaaaaaaa, 0xcccccccc, 0xf0f0f0f0, 0xff00ff00, 0xffff0000];
+
+/**
+ * Truth table of a list of cubes, a word at a time: a cube's literals on the
+ * five lowest variables give its pattern inside a word, its free higher
+ * variables enumerate the words that receive the pattern. Written here rather
+ * than taken from lib/logic so that the check shares no table builder with
+ * the minimizer it checks.
+ */
+export function coverTable(cubes: readonly Cube[], n: number): Uint32Array {
+  return cubesTable(cubes, n, false);
+}
+
+/** {@link coverTable}; with `inverted`, of the cubes with every literal inverted (POS sum terms as OFF products). */
+function cubesTable(cubes: readonly Cube[], n: number, inverted: boolean): Uint32Array {
   const words = Math.max(1, 2 ** n / 32);
   const t = new Uint32Array(words);
-  let tables = literalTables;
-  for (const c of cubes) {
-    const free = n - popcount(c.mask);
-    if (2 ** free <= words * 4) {
-      tableAddCube(t, c, n);
+  const full = fullMask(n);
+  const valid = n >= 5 ? 0xffffffff : (2 ** (2 ** n) - 1) >>> 0;
+  const low = Math.min(n, 5);
+  for (let k = 0; k < cubes.length; k++) {
+    const c = cubes[k]!;
+    const mask = c.mask & full;
+    const value = (inverted ? ~c.value : c.value) & mask;
+    if (mask === full) {
+      t[value >>> 5]! |= 1 << (value & 31);
       continue;
     }
-    tables ??= inputTables(n);
-    const acc = new Uint32Array(words).fill(0xffffffff);
-    for (let i = 0; i < n; i++) {
-      const bit = 1 << (n - 1 - i);
-      if (!(c.mask & bit)) continue;
-      const lt = tables[i]!;
-      if (c.value & bit) for (let w = 0; w < words; w++) acc[w]! &= lt[w]!;
-      else for (let w = 0; w < words; w++) acc[w]! &= ~lt[w]!;
+    let inWord = valid;
+    for (let pos = 0; pos < low; pos++) {
+      if ((mask >>> pos) & 1) inWord &= (value >>> pos) & 1 ? LOW_WORDS[pos]! : ~LOW_WORDS[pos]!;
     }
-    for (let w = 0; w < words; w++) t[w]! |= acc[w]!;
+    const wordValue = value >>> 5;
+    const wordFree = ((full & ~mask) >>> 5) >>> 0;
+    for (let sub = 0; ; sub = ((sub - wordFree) & wordFree) >>> 0) {
+      t[wordValue | sub]! |= inWord;
+      if (sub === wordFree) break;
+    }
   }
   return t;
 }
@@ -121,8 +139,8 @@ function exhaustiveCheck(spec: FunctionSpec, simulate: NonNullable<Implementatio
   const valid = n >= 5 ? 0xffffffff : (2 ** (2 ** n) - 1) >>> 0;
   for (let j = 0; j < spec.outputs.length; j++) {
     const o = spec.outputs[j]!;
-    const on = coverTable(o.on, n, inputs);
-    const dc = coverTable(o.dc, n, inputs);
+    const on = coverTable(o.on, n);
+    const dc = coverTable(o.dc, n);
     const g = got[j];
     if (!g || g.length !== on.length) throw new Error(`simulate() returned no table of ${on.length} words for output ${o.name}`);
     for (let w = 0; w < on.length; w++) {
@@ -190,10 +208,10 @@ export function verifyCovers(spec: FunctionSpec, covers: readonly TwoLevelCover[
   return verifyImplementation(
     spec,
     {
-      simulate(inputs) {
+      simulate() {
         return covers.map((cv) => {
-          if (cv.form === "sop") return coverTable(cv.cubes, n, inputs);
-          const t = coverTable(sumTermsAsOffProducts(cv.cubes), n, inputs);
+          if (cv.form === "sop") return coverTable(cv.cubes, n);
+          const t = cubesTable(cv.cubes, n, true);
           for (let w = 0; w < t.length; w++) t[w] = ~t[w]! >>> 0;
           return t;
         });

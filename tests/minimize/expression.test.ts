@@ -32,4 +32,17 @@ describe("expression text", () => {
       for (const form of ["sop", "pos"] as const) expect(formatCover(cubes, inputs, form)).toBe(naive(cubes, inputs, form));
     });
   }
+  // Covers of 8192 terms and more are written as bytes, in groups of 8 inputs.
+  for (const n of [2, 7, 16, 21, 30]) {
+    it(`matches plain formatting on a cover of 9000 terms over ${n} inputs`, () => {
+      const r = rng(900 + n);
+      const inputs = Array.from({ length: n }, (_, i) => (i % 2 === 0 ? `q${i}` : `ŝig_${i}`));
+      const full = 2 ** n - 1;
+      const cubes = Array.from({ length: 9000 }, () => {
+        const mask = (Math.floor(r() * (full + 1)) | (1 << Math.floor(r() * n))) & full;
+        return { value: Math.floor(r() * (full + 1)) & mask, mask };
+      });
+      for (const form of ["sop", "pos"] as const) expect(formatCover(cubes, inputs, form)).toBe(naive(cubes, inputs, form));
+    });
+  }
 });
