@@ -21,6 +21,10 @@ export interface CoverProblem {
   maxColumns?: number;
   /** A known cover (column indices) to start from. */
   incumbent?: number[];
+  /** Rows → columns of `colRows` ({@link rowColumns}), when the caller already has it. */
+  rowCols?: { start: Int32Array; cols: Int32Array };
+  /** Stop after the root's reductions and LP: `exact` only when they prove the incumbent optimal. */
+  rootOnly?: boolean;
   /** Core size (rows × columns) above which the exact search is not attempted; default 3e8 (about 80 MB of bitsets). */
   maxCoreCells?: number;
 }
@@ -31,6 +35,8 @@ export interface CoverSolution {
   /** Proven lower bound on the minimum weight. */
   lowerBound: number;
   exact: boolean;
+  /** Branch-and-bound nodes searched (0 when the essentials alone cover). */
+  nodes: number;
 }
 
 /** Rows → columns, flattened: the columns of row r are cols[start[r] .. start[r + 1]), ascending. */
@@ -50,7 +56,7 @@ export function rowColumns(colRows: Int32Array[], rowCount: number): { start: In
 export function solveCover(p: CoverProblem): CoverSolution {
   const C = p.colRows.length;
   const R = p.rowCount;
-  const rc = rowColumns(p.colRows, R);
+  const rc = p.rowCols ?? rowColumns(p.colRows, R);
   for (let r = 0; r < R; r++) {
     if (rc.start[r + 1] === rc.start[r]) throw new Error(`internal: row ${r} has no covering prime`);
   }
@@ -72,7 +78,7 @@ export function solveCover(p: CoverProblem): CoverSolution {
   }
   const coreRows: number[] = [];
   for (let r = 0; r < R; r++) if (!covered[r]) coreRows.push(r);
-  if (coreRows.length === 0) return { chosen, weight: base, lowerBound: base, exact: true };
+  if (coreRows.length === 0) return { chosen, weight: base, lowerBound: base, exact: true, nodes: 0 };
   const rowMap = new Int32Array(R).fill(-1);
   coreRows.forEach((r, i) => (rowMap[r] = i));
   const coreCols: number[] = [];
@@ -89,6 +95,7 @@ export function solveCover(p: CoverProblem): CoverSolution {
     cells > (p.maxCoreCells ?? 3e8),
   );
   if (p.maxColumns !== undefined) bb.card = p.maxColumns - chosen.length;
+  bb.rootOnly = p.rootOnly === true;
   if (p.incumbent) {
     const coreIndex = new Map(coreCols.map((c, i) => [c, i]));
     const mapped = p.incumbent.filter((c) => coreIndex.has(c)).map((c) => coreIndex.get(c)!);
@@ -96,20 +103,21 @@ export function solveCover(p: CoverProblem): CoverSolution {
   }
   const res = bb.run();
   for (const c of res.chosen) chosen.push(coreCols[c]!);
-  return { chosen, weight: base + res.weight, lowerBound: base + res.lowerBound, exact: res.exact };
+  return { chosen, weight: base + res.weight, lowerBound: base + res.lowerBound, exact: res.exact, nodes: bb.nodes };
 }
 
 /** Dominance tests at inner nodes: bit 0 columns, bit 1 rows (the root always runs both). */
 let NODE_DOMINANCE = 1;
 /**
- * Search settings, exported so that experiments can vary them: subgradient
+ * Search settings, exported so that experiments can vary them: the largest
+ * core a root-only search solves the LP of (its cost grows with rows²), subgradient
  * steps at inner nodes, steps without improvement before the step size
  * halves, the first step size at inner nodes, and the depth down to which the
  * Lagrangian primal heuristic runs (every `heurEvery` steps). In the
  * literal phase (a column budget), nodes down to depth `lpDepth` also solve
  * the LP relaxation by dual simplex when at most `lpMaxRows` rows are live.
  */
-export const TUNING = { lpMaxRows: 400, lpDepth: Infinity, rootIters: 600, nodeIters: 100, stall: 15, nodeLambda: 2, heurDepth: 0, heurEvery: 25, ascent: 2, rootAscent: 1, ascentMid: 0.25 };
+export const TUNING = { rootOnlyMaxRows: 260, lpMaxRows: 400, lpDepth: Infinity, rootIters: 600, nodeIters: 100, stall: 15, nodeLambda: 2, heurDepth: 0, heurEvery: 25, ascent: 2, rootAscent: 1, ascentMid: 0.25 };
 export function setNodeDominance(d: number): void {
   NODE_DOMINANCE = d;
 }
@@ -125,6 +133,8 @@ class BranchAndBound {
   bestChosen: number[] = [];
   /** Column budget of the core, or -1 for none. */
   card = -1;
+  /** See {@link CoverProblem.rootOnly}. */
+  rootOnly = false;
   private readonly nnz: number;
   private csr = new Int32Array(0);
   private rcBuf = new Float64Array(0);
@@ -133,8 +143,8 @@ class BranchAndBound {
   nodes = 0;
   /** Best bound proven at the root of the search (kept for a search cut short). */
   rootBound = -Infinity;
-  /** Primal LP values at the last node the LP ran at (over all columns), or null. */
-  private lpX: Float64Array | null = null;
+  /** The proven bound (Lagrangian at the LP duals) of the last LP that ran to the end. */
+  private lpLb = -Infinity;
 
   constructor(
     readonly R: number,
@@ -203,6 +213,19 @@ class BranchAndBound {
       lowerBound: exact ? this.best : Math.min(this.best, Math.max(0, this.rootBound)),
       exact,
     };
+  }
+
+  private liveColumns(colsA: Uint32Array): number[] {
+    const out: number[] = [];
+    for (let k = 0; k < this.WC; k++) {
+      let x = colsA[k]!;
+      while (x !== 0) {
+        const b = x & -x;
+        x ^= b;
+        out.push(k * 32 + 31 - Math.clz32(b));
+      }
+    }
+    return out;
   }
 
   private colsOfRow(r: number, colsA: Uint32Array, out: number[]): void {
@@ -573,13 +596,15 @@ class BranchAndBound {
 
   /**
    * Lagrangian bound at the duals of the LP relaxation (dense dual simplex on
-   * the live rows and columns, budget K ≥ 0 or none). The bound is evaluated
-   * from the multipliers, so it is proven whatever the simplex's rounding.
-   * When it beats `beat`, `u` takes the LP duals (children start
-   * from them). Returns null when the simplex could not run to the end or the bound is no better.
+   * the live rows and columns, budget K ≥ 0 or none), relative to the node's
+   * cost. The bound is evaluated from the multipliers, so it is proven
+   * whatever the simplex's rounding. Returns "infeasible" when the simplex
+   * certifies that no fractional cover fits the budget, null when it could
+   * not run to the end or the bound does not beat `beat`. The subgradient's
+   * multipliers stay as they are: children started from the LP's vertex
+   * duals searched up to six times longer in trials.
    */
-  private lpBound(rowsA: Uint32Array, liveCols: number[], u: Float64Array, K: number, beat: number): { lb: number; rc: Float64Array; liveCols: number[]; x: Float64Array } | null {
-    this.lpX = null;
+  private lpBound(rowsA: Uint32Array, liveCols: number[], K: number, beat: number, maxRows = TUNING.lpMaxRows): { lb: number; rc: Float64Array; liveCols: number[]; x: Float64Array } | "infeasible" | null {
     const liveRows: number[] = [];
     const local = new Int32Array(this.R).fill(-1);
     for (let k = 0; k < this.WR; k++) {
@@ -593,7 +618,7 @@ class BranchAndBound {
       }
     }
     // The dense inverse costs rows² per pivot: past a few hundred rows the LP costs more than it saves.
-    if (liveRows.length > TUNING.lpMaxRows) return null;
+    if (liveRows.length > maxRows) return null;
     const cols: Int32Array[] = [];
     const w: number[] = [];
     for (const c of liveCols) {
@@ -604,7 +629,8 @@ class BranchAndBound {
       w.push(this.w[c]!);
     }
     const res = coverLpDuals(liveRows.length, cols, w, K, this.deadline);
-    if (!res.optimal) return null;
+    if (res.status === "infeasible") return "infeasible";
+    if (res.status !== "optimal") return null;
     const mu = K >= 0 ? res.mu : 0;
     let L = -mu * Math.max(0, K);
     for (let i = 0; i < liveRows.length; i++) L += res.u[i]!;
@@ -618,10 +644,7 @@ class BranchAndBound {
     }
     const x = new Float64Array(this.cols.length);
     for (let i = 0; i < liveCols.length; i++) x[liveCols[i]!] = res.x[i]!;
-    this.lpX = x;
     if (!(L > beat)) return null;
-    // `u` keeps the subgradient's multipliers: children started from the LP's
-    // vertex duals searched up to six times longer in trials.
     return { lb: L, rc, liveCols, x };
   }
 
@@ -773,6 +796,13 @@ class BranchAndBound {
     }
   }
 
+  /** LP rounding: the support of the LP solution, largest values first, then the cheapest per new row. */
+  private lpRounding(rowsA: Uint32Array, colsA: Uint32Array, x: Float64Array, liveCols: number[], cost: number, here: number[]): void {
+    const key = new Float64Array(this.cols.length);
+    for (const c of liveCols) key[c] = -x[c]! - 1e-9;
+    this.lagHeuristic(rowsA, colsA, key, liveCols, cost, here);
+  }
+
   private search(rowsA: Uint32Array, colsA: Uint32Array, cost: number, chosen: number[], u: Float64Array, depth: number): void {
     if (this.aborted) return;
     if ((++this.nodes & 63) === 0 && Date.now() > this.deadline) {
@@ -796,27 +826,38 @@ class BranchAndBound {
       return;
     }
     if (cost + lb >= this.best) return;
+    let lpFix: { lb: number; rc: Float64Array } | null = null;
+    if (this.rootOnly) {
+      // Root only: the LP relaxation and its rounding, no subgradient steps; the search stops unless they close the gap.
+      const res = this.lpBound(rowsA, this.liveColumns(colsA), K, -Infinity, TUNING.rootOnlyMaxRows);
+      if (res && res !== "infeasible") {
+        this.lpRounding(rowsA, colsA, res.x, res.liveCols, cost, here);
+        if (cost + Math.ceil(res.lb - 1e-6) >= this.best) {
+          this.rootBound = Math.max(this.rootBound, cost + Math.ceil(res.lb - 1e-6));
+          return;
+        }
+      }
+      this.aborted = true;
+      return;
+    }
     // Lagrangian bound and reduced-cost fixing.
     const lag = this.lagrange(rowsA, colsA, u, depth === 0 ? TUNING.rootIters : TUNING.nodeIters, this.best - cost, K, depth <= TUNING.heurDepth ? { cost, here } : undefined);
     if (cost + Math.ceil(lag.lb - 1e-6) >= this.best) return;
     // The LP's bound and reduced costs fix columns too; branching keeps the
     // subgradient's order (the LP's many zero reduced costs ordered it worse in trials).
-    let lpFix: { lb: number; rc: Float64Array } | null = null;
     if (depth <= TUNING.lpDepth && K >= 0) {
       // Subgradient steps stall short of the LP optimum; the simplex duals close that gap
       // (at every node: both covering phases of the eleven random 10-input bench cases took 0.7× the time of root only).
-      const lp = this.lpBound(rowsA, lag.liveCols, u, K, lag.lb);
-      if (this.lpX) {
-        // LP rounding: the support of the LP solution, largest values first, then the cheapest per new row.
-        const key = new Float64Array(this.cols.length);
-        for (const c of lag.liveCols) key[c] = -this.lpX[c]! - 1e-9;
-        this.lagHeuristic(rowsA, colsA, key, lag.liveCols, cost, here);
-      }
-      if (lp && lp.lb > lag.lb) {
-        if (cost + Math.ceil(lp.lb - 1e-6) >= this.best) return;
-        lpFix = lp;
+      const res = this.lpBound(rowsA, lag.liveCols, K, lag.lb);
+      // No fractional cover fits the budget: neither does a cover.
+      if (res === "infeasible") return;
+      if (res) {
+        this.lpRounding(rowsA, colsA, res.x, lag.liveCols, cost, here);
+        if (cost + Math.ceil(res.lb - 1e-6) >= this.best) return;
+        lpFix = res;
       }
     }
+    if (lpFix && !(lpFix.lb > lag.lb)) lpFix = null;
     const lbBest = lpFix ? lpFix.lb : lag.lb;
     if (depth === 0) this.rootBound = Math.max(this.rootBound, cost + lb, cost + Math.ceil(lbBest - 1e-6));
     if (depth <= TUNING.heurDepth) {

@@ -83,10 +83,6 @@ interface Solved {
   route: "exact" | "heuristic";
 }
 
-function cubeKey(c: Cube): number {
-  return c.mask * 1073741824 + c.value;
-}
-
 /**
  * Distinct terms of one or more covers: open addressing on (mask, value),
  * which fit 30 bits each. Covers of tens of thousands of terms make a Map or
@@ -477,12 +473,25 @@ function lexicographicCover(prob: CoveringProblem, model: CostModel, deadline: n
     for (let i = 0; i < only.length; i++) w += weight[only[i]!]!;
     return { chosen: only, weight: w, lowerBound: w, exact: true };
   }
-  if (model.kind !== "products") return solveCover({ colRows, weight, rowCount, deadline });
+  if (model.kind !== "products") return solveCover({ colRows, weight, rowCount, deadline, rowCols: rc });
   const lits = prob.columns.map((p) => popcount(p.mask));
-  const s1 = solveCover({ colRows, weight: lits.map(() => 1), rowCount, deadline });
+  // One root LP over the combined weight first: when its rounding meets its bound the cover is
+  // lexicographically minimum as well, provided no cover with fewer products can make up the product
+  // weight in literals (PRODUCT_WEIGHT ≥ most literals × products).
+  const s0 = solveCover({ colRows, weight, rowCount, deadline, rootOnly: true, rowCols: rc });
+  if (s0.exact && PRODUCT_WEIGHT >= Math.max(1, ...lits) * s0.chosen.length) {
+    return { chosen: s0.chosen, weight: s0.weight, lowerBound: s0.weight, exact: true };
+  }
+  // The root's rounded cover, when there is one, starts both searches.
+  const first = s0.chosen.length > 0 ? s0.chosen : undefined;
+  const s1 = solveCover({ colRows, weight: lits.map(() => 1), rowCount, deadline, rowCols: rc, incumbent: first });
   const P = s1.chosen.length;
-  const start = swapForFewerLiterals(s1.chosen, colRows, lits, rowCount, rc);
-  const s2 = solveCover({ colRows, weight: lits, rowCount, deadline, incumbent: start, maxColumns: P });
+  let start = swapForFewerLiterals(s1.chosen, colRows, lits, rowCount, rc);
+  if (first && first.length <= P) {
+    const litsOf = (cs: number[]) => cs.reduce((a, c) => a + lits[c]!, 0);
+    if (litsOf(first) < litsOf(start)) start = first;
+  }
+  const s2 = solveCover({ colRows, weight: lits, rowCount, deadline, incumbent: start, maxColumns: P, rowCols: rc });
   const chosen = s2.chosen.length === P || !s1.exact ? s2.chosen : s1.chosen;
   const w = chosen.reduce((a, c) => a + weight[c]!, 0);
   // Bound in the combined scale: at least the proven product count, each with at least one literal... kept simple:
@@ -634,7 +643,7 @@ function exactGroup(
   const { rowCount } = prob;
   const all = prob.primes;
   const live = targets.filter((t, j) => t.on.length > 0 && prob.rowsPerOutput[j]! > 0).length;
-  // Rows → columns, once for the steps below (the cover search builds its own).
+  // Rows → columns, once for the steps below and the cover searches.
   const rc = rowColumns(prob.colRows, rowCount);
   const sol = rowCount === 0 ? { chosen: [], weight: 0, lowerBound: 0, exact: true } : lexicographicCover(prob, model, limits.deadline, rc);
   const { covers, literals } = assignTerms(n, targets.length, prob, sol.chosen);

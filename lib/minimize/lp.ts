@@ -2,13 +2,16 @@
  * LP relaxation of a set cover with an optional column budget, by a dense
  * bounded dual simplex:
  *
- *   min Σ w_c x_c  s.t.  Σ_{c ∋ r} x_c ≥ 1 for every row r,  Σ x_c ≤ K,  0 ≤ x_c ≤ 1.
+ *   min Σ w_c x_c  s.t.  Σ_{c ∋ r} x_c ≥ 1 for every row r,  Σ x_c ≤ K,  lo_c ≤ x_c ≤ up_c,
  *
- * Starting from x = 0 every reduced cost is w_c ≥ 0, so the slack basis is
- * dual feasible and no first phase is needed. The result is only used as
- * Lagrangian multipliers: the caller evaluates the Lagrangian bound at them,
- * which is a proven bound for any u ≥ 0, μ ≥ 0, so rounding in the simplex
- * can cost tightness but never soundness.
+ * with 0 ≤ lo_c ≤ up_c ≤ 1. Starting from x = lo every reduced cost is
+ * w_c ≥ 0, so the slack basis is dual feasible and no first phase is needed.
+ * Tightening bounds (a branch that takes or excludes columns) keeps a basis
+ * dual feasible, so {@link CoverLp} re-solves a child node from its parent's
+ * basis in a few pivots. The result is only used as Lagrangian multipliers:
+ * the caller evaluates the Lagrangian bound at them, which is a proven bound
+ * for any u ≥ 0, μ ≥ 0, so rounding in the simplex can cost tightness but
+ * never soundness.
  */
 
 export interface CoverLpResult {
@@ -20,7 +23,391 @@ export interface CoverLpResult {
   x: Float64Array;
   /** True when the simplex ended primal and dual feasible (an optimal basis). */
   optimal: boolean;
+  /** "infeasible" only with a certificate that no point meets the rows within the budget. */
+  status: "optimal" | "infeasible" | "stopped";
   iterations: number;
+}
+
+/** A saved simplex state (see {@link CoverLp.save}). */
+export interface CoverLpState {
+  Binv: Float64Array;
+  basis: Int32Array;
+  pos: Int32Array;
+  xB: Float64Array;
+  atUpper: Uint8Array;
+  d: Float64Array;
+  beta: Float64Array;
+  lo: Uint8Array;
+  up: Uint8Array;
+}
+
+/**
+ * The covering LP with variable bounds and a basis that persists between
+ * solves. Rows: -a_r·x + t_r = -1 (t_r ≥ 0) and Σx + t = K; the slacks t are
+ * variables n .. n+M-1, columns 0 .. n-1 have bounds lo_c, up_c ∈ {0, 1}.
+ */
+export class CoverLp {
+  readonly n: number;
+  readonly M: number;
+  private readonly hasCard: boolean;
+  private readonly card: number;
+  private readonly NV: number;
+  private s: CoverLpState;
+  private readonly alpha: Float64Array;
+  private readonly colq: Float64Array;
+  private readonly rowp: Float64Array;
+  private readonly nzIdx: Int32Array;
+  /** Rows → columns (CSR), for the tableau row computed over B⁻¹'s nonzeros. */
+  private readonly rowStart: Int32Array;
+  private readonly rowCols: Int32Array;
+  private readonly rowNz: Int32Array;
+  private readonly seen: Int32Array;
+  private readonly touched: Int32Array;
+  private stamp = 0;
+  iterations = 0;
+
+  constructor(
+    readonly rowCount: number,
+    readonly cols: Int32Array[],
+    readonly w: ArrayLike<number>,
+    readonly K = -1,
+  ) {
+    const n = cols.length;
+    this.n = n;
+    this.hasCard = K >= 0;
+    const M = rowCount + (this.hasCard ? 1 : 0);
+    this.M = M;
+    this.card = rowCount;
+    this.NV = n + M;
+    const Binv = new Float64Array(M * M);
+    for (let i = 0; i < M; i++) Binv[i * M + i] = 1;
+    const basis = new Int32Array(M);
+    for (let i = 0; i < M; i++) basis[i] = n + i;
+    const pos = new Int32Array(this.NV).fill(-1);
+    for (let i = 0; i < M; i++) pos[n + i] = i;
+    const xB = new Float64Array(M);
+    for (let i = 0; i < rowCount; i++) xB[i] = -1;
+    if (this.hasCard) xB[this.card] = K;
+    const d = new Float64Array(this.NV);
+    // A tiny spread of the costs breaks the heavy dual degeneracy of covering LPs.
+    let seed = 0x9e3779b9;
+    for (let c = 0; c < n; c++) {
+      seed = (Math.imul(seed, 1664525) + 1013904223) >>> 0;
+      d[c] = w[c]! + 1e-7 * (1 + seed / 4294967296);
+    }
+    this.s = {
+      Binv,
+      basis,
+      pos,
+      xB,
+      atUpper: new Uint8Array(this.NV),
+      d,
+      beta: new Float64Array(M).fill(1),
+      lo: new Uint8Array(n),
+      up: new Uint8Array(n).fill(1),
+    };
+    this.alpha = new Float64Array(this.NV);
+    this.colq = new Float64Array(M);
+    this.rowp = new Float64Array(M);
+    this.nzIdx = new Int32Array(M);
+    this.rowStart = new Int32Array(rowCount + 1);
+    for (const l of cols) for (let k = 0; k < l.length; k++) this.rowStart[l[k]! + 1]!++;
+    for (let r = 0; r < rowCount; r++) this.rowStart[r + 1]! += this.rowStart[r]!;
+    this.rowCols = new Int32Array(this.rowStart[rowCount]!);
+    const fill = this.rowStart.slice(0, rowCount);
+    for (let c = 0; c < n; c++) for (const r of cols[c]!) this.rowCols[fill[r]!++] = c;
+    this.rowNz = new Int32Array(M);
+    this.seen = new Int32Array(n);
+    this.touched = new Int32Array(this.NV);
+  }
+
+  /** Copies the simplex state into `into` (allocated when absent) and returns it. */
+  save(into?: CoverLpState): CoverLpState {
+    const s = this.s;
+    if (!into) {
+      return {
+        Binv: s.Binv.slice(),
+        basis: s.basis.slice(),
+        pos: s.pos.slice(),
+        xB: s.xB.slice(),
+        atUpper: s.atUpper.slice(),
+        d: s.d.slice(),
+        beta: s.beta.slice(),
+        lo: s.lo.slice(),
+        up: s.up.slice(),
+      };
+    }
+    into.Binv.set(s.Binv);
+    into.basis.set(s.basis);
+    into.pos.set(s.pos);
+    into.xB.set(s.xB);
+    into.atUpper.set(s.atUpper);
+    into.d.set(s.d);
+    into.beta.set(s.beta);
+    into.lo.set(s.lo);
+    into.up.set(s.up);
+    return into;
+  }
+
+  /** Restores a state saved by {@link save} from this LP. */
+  restore(from: CoverLpState): void {
+    this.save.call({ s: from } as unknown as CoverLp, this.s);
+  }
+
+  private value(j: number): number {
+    const s = this.s;
+    if (s.pos[j]! >= 0) return s.xB[s.pos[j]!]!;
+    if (j >= this.n) return 0;
+    return s.atUpper[j] ? s.up[j]! : s.lo[j]!;
+  }
+
+  /** xB -= Δ · B⁻¹ a_j for column j moving by Δ while nonbasic. */
+  private shift(j: number, delta: number): void {
+    const { Binv, xB } = this.s;
+    const M = this.M;
+    const l = this.cols[j]!;
+    for (let i = 0; i < M; i++) {
+      const row = i * M;
+      let a = this.hasCard ? Binv[row + this.card]! : 0;
+      for (let k = 0; k < l.length; k++) a -= Binv[row + l[k]!]!;
+      if (a !== 0) xB[i]! -= delta * a;
+    }
+  }
+
+  /** Sets the bounds of column c (0 ≤ lo ≤ up ≤ 1). Tightening keeps the basis dual feasible. */
+  setBounds(c: number, lo: 0 | 1, up: 0 | 1): void {
+    const s = this.s;
+    if (s.lo[c] === lo && s.up[c] === up) return;
+    if (s.pos[c]! >= 0) {
+      s.lo[c] = lo;
+      s.up[c] = up;
+      return;
+    }
+    const before = this.value(c);
+    s.lo[c] = lo;
+    s.up[c] = up;
+    // A nonbasic column sits at the bound its reduced cost asks for; a fixed one at its value.
+    if (lo === up) s.atUpper[c] = 0;
+    else s.atUpper[c] = s.d[c]! < 0 ? 1 : 0;
+    const after = this.value(c);
+    if (after !== before) this.shift(c, after - before);
+  }
+
+  /**
+   * Dual simplex from the current basis. Stops after `maxIters` pivots or at
+   * `deadline` ("stopped"); "infeasible" only with a certificate (see
+   * {@link certifiedInfeasible}).
+   */
+  solve(deadline = Infinity, maxIters = 50 * (this.M + 1)): "optimal" | "infeasible" | "stopped" {
+    const s = this.s;
+    const { Binv, basis, pos, xB, atUpper, d, beta, lo, up } = s;
+    const { n, M, alpha, colq, rowp, nzIdx, cols, rowStart, rowCols, rowNz, seen, touched, rowCount } = this;
+    const hasCard = this.hasCard;
+    const card = this.card;
+    const tolP = 1e-9;
+    const tolPiv = 1e-9;
+    for (let it = 0; it < maxIters; it++, this.iterations++) {
+      if ((it & 31) === 31 && Date.now() > deadline) return "stopped";
+      // Leaving row: dual steepest edge, the largest violation² over the squared norm of its B⁻¹ row.
+      let p = -1;
+      let worst = 0;
+      let below = true;
+      for (let i = 0; i < M; i++) {
+        const v = xB[i]!;
+        const b = basis[i]!;
+        const l0 = b < n ? lo[b]! : 0;
+        if (l0 - v > tolP) {
+          const e = l0 - v;
+          const score = (e * e) / beta[i]!;
+          if (score > worst) {
+            worst = score;
+            p = i;
+            below = true;
+          }
+        } else if (b < n) {
+          const e = v - up[b]!;
+          if (e > tolP) {
+            const score = (e * e) / beta[i]!;
+            if (score > worst) {
+              worst = score;
+              p = i;
+              below = false;
+            }
+          }
+        }
+      }
+      if (p < 0) return "optimal";
+      // Tableau row over the nonbasic variables that may move, row-wise over the nonzeros of B⁻¹'s row p
+      // (a column's entry is the budget entry less the row entries it covers), and the dual ratio test.
+      let nzp = 0;
+      for (let k = 0; k < M; k++) {
+        const v = Binv[p * M + k]!;
+        rowp[k] = v;
+        if (v !== 0) rowNz[nzp++] = k;
+      }
+      const st = ++this.stamp;
+      let nt = 0;
+      for (let t = 0; t < nzp; t++) {
+        const k = rowNz[t]!;
+        if (k >= rowCount) continue;
+        const v = rowp[k]!;
+        for (let e = rowStart[k]!; e < rowStart[k + 1]!; e++) {
+          const j = rowCols[e]!;
+          if (seen[j] !== st) {
+            seen[j] = st;
+            alpha[j] = 0;
+            touched[nt++] = j;
+          }
+          alpha[j]! -= v;
+        }
+      }
+      const base = hasCard ? rowp[card]! : 0;
+      if (base !== 0) {
+        nt = 0;
+        for (let j = 0; j < n; j++) {
+          alpha[j] = seen[j] === st ? alpha[j]! + base : base;
+          touched[nt++] = j;
+        }
+      }
+      for (let t = 0; t < nzp; t++) {
+        const j = n + rowNz[t]!;
+        alpha[j] = rowp[rowNz[t]!]!;
+        touched[nt++] = j;
+      }
+      let q = -1;
+      let bestRatio = Infinity;
+      let bestAbs = 0;
+      for (let t = 0; t < nt; t++) {
+        const j = touched[t]!;
+        if (pos[j]! >= 0 || (j < n && lo[j] === up[j])) continue;
+        const a = alpha[j]!;
+        const atUp = atUpper[j] === 1;
+        // Below lower: the row rises when a variable at lower with a < 0 grows or one at upper with a > 0 shrinks.
+        const eligible = below ? (atUp ? a > tolPiv : a < -tolPiv) : atUp ? a < -tolPiv : a > tolPiv;
+        if (!eligible) continue;
+        const abs = Math.abs(a);
+        const ratio = Math.abs(d[j]!) / abs;
+        if (ratio < bestRatio - 1e-12 || (ratio <= bestRatio + 1e-12 && abs > bestAbs)) {
+          bestRatio = ratio;
+          bestAbs = abs;
+          q = j;
+        }
+      }
+      if (q < 0) return this.certifiedInfeasible(p, below) ? "infeasible" : "stopped";
+      // Entering column B⁻¹ a_q.
+      if (q < n) {
+        const l = cols[q]!;
+        for (let i = 0; i < M; i++) {
+          const row = i * M;
+          let sum = hasCard ? Binv[row + card]! : 0;
+          for (let k = 0; k < l.length; k++) sum -= Binv[row + l[k]!]!;
+          colq[i] = sum;
+        }
+      } else {
+        for (let i = 0; i < M; i++) colq[i] = Binv[i * M + (q - n)]!;
+      }
+      const apq = colq[p]!;
+      if (Math.abs(apq) < tolPiv) return "stopped"; // the row and column disagree numerically
+      const thetaD = d[q]! / apq;
+      for (let t = 0; t < nt; t++) {
+        const j = touched[t]!;
+        if (pos[j]! < 0 && (j >= n || lo[j] !== up[j])) d[j]! -= thetaD * alpha[j]!;
+      }
+      const leave = basis[p]!;
+      d[q] = 0;
+      d[leave] = -thetaD;
+      const target = below ? (leave < n ? lo[leave]! : 0) : up[leave]!;
+      const thetaP = (xB[p]! - target) / apq;
+      const xq = q < n ? (atUpper[q] ? up[q]! : lo[q]!) : 0;
+      for (let i = 0; i < M; i++) xB[i]! -= thetaP * colq[i]!;
+      xB[p] = xq + thetaP;
+      atUpper[leave] = below ? 0 : 1;
+      atUpper[q] = 0;
+      basis[p] = q;
+      pos[q] = p;
+      pos[leave] = -1;
+      // B⁻¹ ← E B⁻¹. The pivot row of B⁻¹ stays sparse for a long time: update over its nonzeros only.
+      // The row norms follow exactly: |r_i − f r_p|² = β_i − 2f (r_i·r_p) + f² β_p.
+      const prow = p * M;
+      const inv = 1 / apq;
+      let nz = 0;
+      let bp = 0;
+      for (let k = 0; k < M; k++) {
+        const v = Binv[prow + k]!;
+        if (v !== 0) {
+          const s2 = v * inv;
+          Binv[prow + k] = s2;
+          bp += s2 * s2;
+          nzIdx[nz++] = k;
+        }
+      }
+      beta[p] = bp;
+      for (let i = 0; i < M; i++) {
+        if (i === p) continue;
+        const f = colq[i]!;
+        if (f === 0) continue;
+        const row = i * M;
+        let dot = 0;
+        for (let t = 0; t < nz; t++) {
+          const k = nzIdx[t]!;
+          const pk = Binv[prow + k]!;
+          const v = Binv[row + k]!;
+          dot += v * pk;
+          Binv[row + k] = v - f * pk;
+        }
+        const b = beta[i]! - 2 * f * dot + f * f * bp;
+        beta[i] = b > 1e-12 ? b : 1e-12;
+      }
+    }
+    return "stopped";
+  }
+
+  /**
+   * Whether basic row p, out of its bounds with no nonbasic variable able to
+   * bring it back, proves the LP infeasible: its tableau row is recomputed
+   * from B⁻¹, and every move the ratio test ignored as too small (|α| below
+   * the pivot tolerance, over the variable's whole range: 1 for a column, C
+   * for a row surplus) must fall short of the violation by a clear margin.
+   */
+  private certifiedInfeasible(p: number, below: boolean): boolean {
+    const { Binv, basis, pos, xB, atUpper, lo, up } = this.s;
+    const { n, M, NV, cols } = this;
+    const b = basis[p]!;
+    const violation = below ? (b < n ? lo[b]! : 0) - xB[p]! : xB[p]! - up[b]!;
+    let reach = 0;
+    for (let j = 0; j < NV; j++) {
+      if (pos[j]! >= 0) continue;
+      let a: number;
+      if (j < n) {
+        if (lo[j] === up[j]) continue;
+        a = this.hasCard ? Binv[p * M + this.card]! : 0;
+        const l = cols[j]!;
+        for (let k = 0; k < l.length; k++) a -= Binv[p * M + l[k]!]!;
+      } else a = Binv[p * M + (j - n)]!;
+      const helps = below ? (atUpper[j] ? a > 0 : a < 0) : atUpper[j] ? a < 0 : a > 0;
+      if (helps) reach += Math.abs(a) * (j < n ? 1 : n);
+    }
+    return violation > reach + 1e-6;
+  }
+
+  /** Row duals u_r ≥ 0 from the slacks' reduced costs. */
+  duals(u: Float64Array = new Float64Array(this.rowCount)): Float64Array {
+    const { pos, d } = this.s;
+    for (let i = 0; i < this.rowCount; i++) u[i] = pos[this.n + i]! >= 0 ? 0 : Math.max(0, d[this.n + i]!);
+    return u;
+  }
+
+  /** Budget dual μ ≥ 0 (0 without a budget). */
+  budgetDual(): number {
+    const { pos, d } = this.s;
+    return this.hasCard && pos[this.n + this.card]! < 0 ? Math.max(0, d[this.n + this.card]!) : 0;
+  }
+
+  /** Primal column values of the current basis. */
+  primal(x: Float64Array = new Float64Array(this.n)): Float64Array {
+    for (let c = 0; c < this.n; c++) x[c] = this.value(c);
+    return x;
+  }
 }
 
 /**
@@ -30,167 +417,9 @@ export interface CoverLpResult {
  * (Date.now() milliseconds), returning the duals reached so far.
  */
 export function coverLpDuals(rowCount: number, cols: Int32Array[], w: ArrayLike<number>, K = -1, deadline = Infinity, maxIters = 50 * (rowCount + 1)): CoverLpResult {
-  const n = cols.length;
-  const hasCard = K >= 0;
-  const M = rowCount + (hasCard ? 1 : 0);
-  const card = rowCount;
-  const NV = n + M;
-  // Rows: -a_r·x + t_r = -1 (t_r ≥ 0) and Σx + t = K; slacks t are variables n .. n+M-1.
-  const Binv = new Float64Array(M * M);
-  for (let i = 0; i < M; i++) Binv[i * M + i] = 1;
-  const basis = new Int32Array(M);
-  for (let i = 0; i < M; i++) basis[i] = n + i;
-  const pos = new Int32Array(NV).fill(-1);
-  for (let i = 0; i < M; i++) pos[n + i] = i;
-  const xB = new Float64Array(M);
-  for (let i = 0; i < rowCount; i++) xB[i] = -1;
-  if (hasCard) xB[card] = K;
-  const atUpper = new Uint8Array(NV);
-  const d = new Float64Array(NV);
-  // A tiny spread of the costs breaks the heavy dual degeneracy of covering LPs.
-  let seed = 0x9e3779b9;
-  for (let c = 0; c < n; c++) {
-    seed = (Math.imul(seed, 1664525) + 1013904223) >>> 0;
-    d[c] = w[c]! + 1e-7 * (1 + seed / 4294967296);
-  }
-  const upper = (v: number) => (v < n ? 1 : Infinity);
-  const alpha = new Float64Array(NV);
-  const colq = new Float64Array(M);
-  const rowp = new Float64Array(M);
-  const nzIdx = new Int32Array(M);
-  const beta = new Float64Array(M).fill(1);
-  const tolP = 1e-9;
-  const tolPiv = 1e-9;
-  let optimal = false;
-  let it = 0;
-  for (; it < maxIters; it++) {
-    if ((it & 31) === 31 && Date.now() > deadline) break;
-    // Leaving row: dual steepest edge, the largest violation² over the squared norm of its B⁻¹ row.
-    let p = -1;
-    let worst = 0;
-    let below = true;
-    for (let i = 0; i < M; i++) {
-      const v = xB[i]!;
-      if (-v > tolP) {
-        const score = (v * v) / beta[i]!;
-        if (score > worst) {
-          worst = score;
-          p = i;
-          below = true;
-        }
-      } else {
-        const e = v - upper(basis[i]!);
-        if (e > tolP) {
-          const score = (e * e) / beta[i]!;
-          if (score > worst) {
-            worst = score;
-            p = i;
-            below = false;
-          }
-        }
-      }
-    }
-    if (p < 0) {
-      optimal = true;
-      break;
-    }
-    for (let k = 0; k < M; k++) rowp[k] = Binv[p * M + k]!;
-    // Tableau row over the nonbasic variables, and the dual ratio test.
-    let q = -1;
-    let bestRatio = Infinity;
-    let bestAbs = 0;
-    for (let j = 0; j < NV; j++) {
-      if (pos[j]! >= 0) continue;
-      let a: number;
-      if (j < n) {
-        a = hasCard ? rowp[card]! : 0;
-        const l = cols[j]!;
-        for (let k = 0; k < l.length; k++) a -= rowp[l[k]!]!;
-      } else a = rowp[j - n]!;
-      alpha[j] = a;
-      const up = atUpper[j] === 1;
-      // Below lower: the row rises when a variable at lower with a < 0 grows or one at upper with a > 0 shrinks.
-      const eligible = below ? (up ? a > tolPiv : a < -tolPiv) : up ? a < -tolPiv : a > tolPiv;
-      if (!eligible) continue;
-      const abs = Math.abs(a);
-      const ratio = Math.abs(d[j]!) / abs;
-      if (ratio < bestRatio - 1e-12 || (ratio <= bestRatio + 1e-12 && abs > bestAbs)) {
-        bestRatio = ratio;
-        bestAbs = abs;
-        q = j;
-      }
-    }
-    if (q < 0) break; // dual unbounded: the LP has no feasible point (a budget too small)
-    // Entering column B⁻¹ a_q.
-    if (q < n) {
-      const l = cols[q]!;
-      for (let i = 0; i < M; i++) {
-        const row = i * M;
-        let s = hasCard ? Binv[row + card]! : 0;
-        for (let k = 0; k < l.length; k++) s -= Binv[row + l[k]!]!;
-        colq[i] = s;
-      }
-    } else {
-      for (let i = 0; i < M; i++) colq[i] = Binv[i * M + (q - n)]!;
-    }
-    const apq = colq[p]!;
-    if (Math.abs(apq) < tolPiv) break; // the row and column disagree numerically: stop with the duals so far
-    const thetaD = d[q]! / apq;
-    for (let j = 0; j < NV; j++) if (pos[j]! < 0) d[j]! -= thetaD * alpha[j]!;
-    const leave = basis[p]!;
-    d[q] = 0;
-    d[leave] = -thetaD;
-    const target = below ? 0 : upper(leave);
-    const thetaP = (xB[p]! - target) / apq;
-    const xq = atUpper[q] ? 1 : 0;
-    for (let i = 0; i < M; i++) xB[i]! -= thetaP * colq[i]!;
-    xB[p] = xq + thetaP;
-    atUpper[leave] = below ? 0 : 1;
-    atUpper[q] = 0;
-    basis[p] = q;
-    pos[q] = p;
-    pos[leave] = -1;
-    // B⁻¹ ← E B⁻¹.
-    const prow = p * M;
-    const inv = 1 / apq;
-    // The pivot row of B⁻¹ stays sparse for a long time: update over its nonzeros only.
-    // The row norms follow exactly: |r_i − f r_p|² = β_i − 2f (r_i·r_p) + f² β_p.
-    let nz = 0;
-    let bp = 0;
-    for (let k = 0; k < M; k++) {
-      const v = Binv[prow + k]!;
-      if (v !== 0) {
-        const s2 = v * inv;
-        Binv[prow + k] = s2;
-        bp += s2 * s2;
-        nzIdx[nz++] = k;
-      }
-    }
-    beta[p] = bp;
-    for (let i = 0; i < M; i++) {
-      if (i === p) continue;
-      const f = colq[i]!;
-      if (f === 0) continue;
-      const row = i * M;
-      let dot = 0;
-      for (let t = 0; t < nz; t++) {
-        const k = nzIdx[t]!;
-        const pk = Binv[prow + k]!;
-        const v = Binv[row + k]!;
-        dot += v * pk;
-        Binv[row + k] = v - f * pk;
-      }
-      const b = beta[i]! - 2 * f * dot + f * f * bp;
-      beta[i] = b > 1e-12 ? b : 1e-12;
-    }
-  }
-  // Duals from the slacks' reduced costs: d(t_r) = u_r, d(t) = μ.
-  const u = new Float64Array(rowCount);
-  for (let i = 0; i < rowCount; i++) u[i] = pos[n + i]! >= 0 ? 0 : Math.max(0, d[n + i]!);
-  const mu = hasCard && pos[n + card]! < 0 ? Math.max(0, d[n + card]!) : 0;
-  const x = new Float64Array(n);
-  for (let c = 0; c < n; c++) x[c] = pos[c]! >= 0 ? xB[pos[c]!]! : atUpper[c]!;
-  return { u, mu, x, optimal, iterations: it };
+  const lp = new CoverLp(rowCount, cols, w, K);
+  const status = lp.solve(deadline, maxIters);
+  return { u: lp.duals(), mu: lp.budgetDual(), x: lp.primal(), optimal: status === "optimal", status, iterations: lp.iterations };
 }
 
 /**

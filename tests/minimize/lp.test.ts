@@ -40,6 +40,7 @@ function randomInstance(seed: number): { rowCount: number; cols: Int32Array[]; w
 describe("LP relaxation of the covering problem", () => {
   it("its Lagrangian bound never exceeds the integer optimum, and reaches the LP optimum", async () => {
     let withBudget = 0;
+    let infeasible = 0;
     for (let seed = 1; seed <= 60; seed++) {
       const { rowCount, cols, w } = randomInstance(seed);
       // Half the instances carry a column budget, some of them too tight to meet.
@@ -48,6 +49,12 @@ describe("LP relaxation of the covering problem", () => {
       const bound = lagrangianValue(cols, w, lp.u, lp.mu, K);
       // Reference: highs MILP on the same instance (the test's own model).
       const opt = await highsCover(rowCount, cols, w, K, false);
+      const relaxedFirst = await highsCover(rowCount, cols, w, K, true);
+      // Reference: highs on the LP relaxation. "infeasible" is claimed only when highs finds no fractional point either.
+      if (lp.status === "infeasible") {
+        expect(relaxedFirst).toBeNull();
+        infeasible++;
+      }
       if (opt === null) continue; // no cover within the budget: every bound is valid
       if (K >= 0) withBudget++;
       expect(bound).toBeLessThanOrEqual(opt + 1e-6);
@@ -57,6 +64,8 @@ describe("LP relaxation of the covering problem", () => {
       expect(bound).toBeCloseTo(relaxed!, 4);
     }
     expect(withBudget).toBeGreaterThan(5);
+    // Some budgets are too tight for any fractional cover, and the simplex proves it.
+    expect(infeasible).toBeGreaterThan(0);
   });
 
   it("bounds the fewest literals among covers with the fewest products of random functions", async () => {
