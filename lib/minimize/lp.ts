@@ -6,9 +6,7 @@
  *
  * with 0 ≤ lo_c ≤ up_c ≤ 1. Starting from x = lo every reduced cost is
  * w_c ≥ 0, so the slack basis is dual feasible and no first phase is needed.
- * Tightening bounds (a branch that takes or excludes columns) keeps a basis
- * dual feasible, so {@link CoverLp} re-solves a child node from its parent's
- * basis in a few pivots. The result is only used as Lagrangian multipliers:
+ * The result is only used as Lagrangian multipliers:
  * the caller evaluates the Lagrangian bound at them, which is a proven bound
  * for any u ≥ 0, μ ≥ 0, so rounding in the simplex can cost tightness but
  * never soundness.
@@ -28,8 +26,8 @@ export interface CoverLpResult {
   iterations: number;
 }
 
-/** A saved simplex state (see {@link CoverLp.save}). */
-export interface CoverLpState {
+/** The simplex state: basis inverse, basis, values, reduced costs, edge weights, bounds. */
+interface CoverLpState {
   Binv: Float64Array;
   basis: Int32Array;
   pos: Int32Array;
@@ -42,8 +40,8 @@ export interface CoverLpState {
 }
 
 /**
- * The covering LP with variable bounds and a basis that persists between
- * solves. Rows: -a_r·x + t_r = -1 (t_r ≥ 0) and Σx + t = K; the slacks t are
+ * The covering LP with variable bounds (columns fixed at 0 or 1 sit at their
+ * bound and never enter the basis). Rows: -a_r·x + t_r = -1 (t_r ≥ 0) and Σx + t = K; the slacks t are
  * variables n .. n+M-1, columns 0 .. n-1 have bounds lo_c, up_c ∈ {0, 1}.
  */
 export class CoverLp {
@@ -121,76 +119,11 @@ export class CoverLp {
     this.touched = new Int32Array(this.NV);
   }
 
-  /** Copies the simplex state into `into` (allocated when absent) and returns it. */
-  save(into?: CoverLpState): CoverLpState {
-    const s = this.s;
-    if (!into) {
-      return {
-        Binv: s.Binv.slice(),
-        basis: s.basis.slice(),
-        pos: s.pos.slice(),
-        xB: s.xB.slice(),
-        atUpper: s.atUpper.slice(),
-        d: s.d.slice(),
-        beta: s.beta.slice(),
-        lo: s.lo.slice(),
-        up: s.up.slice(),
-      };
-    }
-    into.Binv.set(s.Binv);
-    into.basis.set(s.basis);
-    into.pos.set(s.pos);
-    into.xB.set(s.xB);
-    into.atUpper.set(s.atUpper);
-    into.d.set(s.d);
-    into.beta.set(s.beta);
-    into.lo.set(s.lo);
-    into.up.set(s.up);
-    return into;
-  }
-
-  /** Restores a state saved by {@link save} from this LP. */
-  restore(from: CoverLpState): void {
-    this.save.call({ s: from } as unknown as CoverLp, this.s);
-  }
-
   private value(j: number): number {
     const s = this.s;
     if (s.pos[j]! >= 0) return s.xB[s.pos[j]!]!;
     if (j >= this.n) return 0;
     return s.atUpper[j] ? s.up[j]! : s.lo[j]!;
-  }
-
-  /** xB -= Δ · B⁻¹ a_j for column j moving by Δ while nonbasic. */
-  private shift(j: number, delta: number): void {
-    const { Binv, xB } = this.s;
-    const M = this.M;
-    const l = this.cols[j]!;
-    for (let i = 0; i < M; i++) {
-      const row = i * M;
-      let a = this.hasCard ? Binv[row + this.card]! : 0;
-      for (let k = 0; k < l.length; k++) a -= Binv[row + l[k]!]!;
-      if (a !== 0) xB[i]! -= delta * a;
-    }
-  }
-
-  /** Sets the bounds of column c (0 ≤ lo ≤ up ≤ 1). Tightening keeps the basis dual feasible. */
-  setBounds(c: number, lo: 0 | 1, up: 0 | 1): void {
-    const s = this.s;
-    if (s.lo[c] === lo && s.up[c] === up) return;
-    if (s.pos[c]! >= 0) {
-      s.lo[c] = lo;
-      s.up[c] = up;
-      return;
-    }
-    const before = this.value(c);
-    s.lo[c] = lo;
-    s.up[c] = up;
-    // A nonbasic column sits at the bound its reduced cost asks for; a fixed one at its value.
-    if (lo === up) s.atUpper[c] = 0;
-    else s.atUpper[c] = s.d[c]! < 0 ? 1 : 0;
-    const after = this.value(c);
-    if (after !== before) this.shift(c, after - before);
   }
 
   /**
