@@ -122,6 +122,63 @@ export function setNodeDominance(d: number): void {
   NODE_DOMINANCE = d;
 }
 
+/** Binary max-heap of (score, column): higher score first, lower column among equal scores. */
+class ScoreHeap {
+  private readonly score: Float64Array;
+  private readonly col: Int32Array;
+  size = 0;
+  constructor(capacity: number) {
+    this.score = new Float64Array(capacity);
+    this.col = new Int32Array(capacity);
+  }
+  private before(i: number, j: number): boolean {
+    const a = this.score[i]!;
+    const b = this.score[j]!;
+    return a > b || (a === b && this.col[i]! < this.col[j]!);
+  }
+  private swap(i: number, j: number): void {
+    const s = this.score[i]!;
+    this.score[i] = this.score[j]!;
+    this.score[j] = s;
+    const c = this.col[i]!;
+    this.col[i] = this.col[j]!;
+    this.col[j] = c;
+  }
+  topScore(): number {
+    return this.score[0]!;
+  }
+  topCol(): number {
+    return this.col[0]!;
+  }
+  push(score: number, col: number): void {
+    let i = this.size++;
+    this.score[i] = score;
+    this.col[i] = col;
+    while (i > 0) {
+      const parent = (i - 1) >> 1;
+      if (!this.before(i, parent)) break;
+      this.swap(i, parent);
+      i = parent;
+    }
+  }
+  pop(): void {
+    const last = --this.size;
+    if (last === 0) return;
+    this.score[0] = this.score[last]!;
+    this.col[0] = this.col[last]!;
+    for (let i = 0; ; ) {
+      const l = 2 * i + 1;
+      const r = l + 1;
+      let m = i;
+      if (l < last && this.before(l, m)) m = l;
+      if (r < last && this.before(r, m)) m = r;
+      if (m === i) break;
+      this.swap(i, m);
+      i = m;
+    }
+  }
+}
+
 class BranchAndBound {
   readonly WR: number;
   readonly WC: number;
@@ -191,7 +248,8 @@ class BranchAndBound {
     for (let r = 0; r < this.R; r++) rowsA[r >>> 5]! |= 1 << (r & 31);
     const colsA = new Uint32Array(this.WC);
     for (let c = 0; c < this.cols.length; c++) colsA[c >>> 5]! |= 1 << (c & 31);
-    if (this.card < 0) this.greedy(rowsA, colsA);
+    // A root-only search takes its incumbent from the LP's rounding.
+    if (this.card < 0 && !this.rootOnly) this.greedy(rowsA, colsA);
     const u = new Float64Array(this.R + 1);
     for (let r = 0; r < this.R; r++) u[r] = Infinity;
     // Start the budget multiplier where the combined products-then-literals weight would put it.
@@ -291,16 +349,23 @@ class BranchAndBound {
     let remaining = 0;
     for (let r = 0; r < this.R; r++) if (!coveredRow[r]) remaining++;
     const chosen: number[] = [];
+    // The column of highest score (lowest index among equals), from a heap of scores that can only fall:
+    // an entry whose stored score is still its score is the maximum; a stale one goes back with its score.
+    const heap = new ScoreHeap(C);
+    for (let c = 0; c < C; c++) if (left[c]! > 0) heap.push(left[c]! / this.w[c]!, c);
     while (remaining > 0) {
       let bestC = -1;
-      let bestScore = -1;
-      for (let c = 0; c < C; c++) {
+      while (heap.size > 0) {
+        const c = heap.topCol();
+        const stored = heap.topScore();
+        heap.pop();
         if (left[c] === 0) continue;
         const score = left[c]! / this.w[c]!;
-        if (score > bestScore) {
-          bestScore = score;
+        if (score === stored) {
           bestC = c;
+          break;
         }
+        heap.push(score, c);
       }
       if (bestC < 0) return;
       chosen.push(bestC);

@@ -483,7 +483,7 @@ function lexicographicCover(prob: CoveringProblem, model: CostModel, deadline: n
     return { chosen: s0.chosen, weight: s0.weight, lowerBound: s0.weight, exact: true };
   }
   // The root's rounded cover, when there is one, starts both searches.
-  const first = s0.chosen.length > 0 ? s0.chosen : undefined;
+  const first = Number.isFinite(s0.weight) ? s0.chosen : undefined;
   const s1 = solveCover({ colRows, weight: lits.map(() => 1), rowCount, deadline, rowCols: rc, incumbent: first });
   const P = s1.chosen.length;
   let start = swapForFewerLiterals(s1.chosen, colRows, lits, rowCount, rc);

@@ -112,14 +112,16 @@ export async function milpMinimum(spec: FunctionSpec): Promise<{ products: numbe
   for (const cols of rows.values()) for (const c of cols) used.add(c);
   const cols = [...used];
   if (rows.size === 0) return { products: 0, literals: 0 };
-  const obj = cols.map((i) => `${1000 + popcount(imps[i]!.cube.mask)} y${i}`).join(" + ");
+  // Products first: a product outweighs the most literals any cover can hold (n per term, at most 2^n terms per output).
+  const W = spec.inputs.length * 2 ** spec.inputs.length * Math.max(1, spec.outputs.length) + 1;
+  const obj = cols.map((i) => `${W + popcount(imps[i]!.cube.mask)} y${i}`).join(" + ");
   let k = 0;
   const cons = [...rows.values()].map((cs) => ` r${k++}: ${cs.map((i) => `y${i}`).join(" + ")} >= 1`);
   const lp = `Minimize\n obj: ${obj}\nSubject To\n${cons.join("\n")}\nBinary\n ${cols.map((i) => `y${i}`).join(" ")}\nEnd\n`;
   const res = highs.solve(lp, { output_flag: false });
   if (res.Status !== "Optimal") throw new Error(`MILP status ${res.Status}`);
   const v = Math.round(res.ObjectiveValue);
-  return { products: Math.floor(v / 1000), literals: v % 1000 };
+  return { products: Math.floor(v / W), literals: v % W };
 }
 
 /**

@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { minterm, popcount } from "../../lib/logic";
 import { minimize } from "../../lib/minimize";
+import { randomCase } from "../../lib/bench/cases";
 import { isPrimeFor, milpMinimum, milpModelMinimum, randomSpec, valueAt } from "./helpers";
 
 function coverMatches(spec: ReturnType<typeof randomSpec>, r: ReturnType<typeof minimize>): boolean {
@@ -108,4 +109,27 @@ describe("random functions against brute force and the highs MILP", () => {
       if (r.exact) expect(r.cost).toBe(ref);
     });
   }
+});
+
+describe("10- and 12-input functions of the bench", () => {
+  // Seeds 2 and 9 close at the root LP over the combined weight; seed 5 needs a deep literal search.
+  for (const seed of [2, 5, 9]) {
+    it(`random 10 #${seed}: minimum products, then literals, against the test's own MILP`, async () => {
+      const { spec } = randomCase(10, seed);
+      const r = minimize(spec);
+      // Reference: every implicant enumerated by the test and an exact MILP (highs), products weighted above all literals.
+      const ref = await milpMinimum(spec);
+      expect(coverMatches(spec, r)).toBe(true);
+      expect(r.exact).toBe(true);
+      expect([r.outputs[0]!.products, r.outputs[0]!.literals]).toEqual([ref.products, ref.literals]);
+    }, 120_000);
+  }
+
+  it("a core too big for the root LP, cut short by the time limit, still gives a cover of the function", () => {
+    const { spec } = randomCase(12, 1);
+    const r = minimize(spec, { timeLimitMs: 1500 });
+    // Reference: the definition of a sum of products, evaluated by the test at every minterm.
+    expect(coverMatches(spec, r)).toBe(true);
+    expect(r.lowerBound).toBeLessThanOrEqual(r.cost);
+  }, 60_000);
 });
