@@ -80,16 +80,27 @@ export function solveCover(p: CoverProblem): CoverSolution {
   for (let r = 0; r < R; r++) if (!covered[r]) coreRows.push(r);
   if (coreRows.length === 0) return { chosen, weight: base, lowerBound: base, exact: true, nodes: 0 };
   const rowMap = new Int32Array(R).fill(-1);
-  coreRows.forEach((r, i) => (rowMap[r] = i));
+  for (let i = 0; i < coreRows.length; i++) rowMap[coreRows[i]!] = i;
+  // Core columns with their core rows, in one pass.
   const coreCols: number[] = [];
+  const coreColRows: Int32Array[] = [];
+  const buf = new Int32Array(coreRows.length);
   for (let c = 0; c < C; c++) {
     if (taken[c]) continue;
-    if (p.colRows[c]!.some((r) => rowMap[r]! >= 0)) coreCols.push(c);
+    const rs = p.colRows[c]!;
+    let k = 0;
+    for (let i = 0; i < rs.length; i++) {
+      const m = rowMap[rs[i]!]!;
+      if (m >= 0) buf[k++] = m;
+    }
+    if (k === 0) continue;
+    coreCols.push(c);
+    coreColRows.push(buf.slice(0, k));
   }
   const cells = coreRows.length * coreCols.length;
   const bb = new BranchAndBound(
     coreRows.length,
-    coreCols.map((c) => Int32Array.from(p.colRows[c]!.filter((r) => rowMap[r]! >= 0).map((r) => rowMap[r]!))),
+    coreColRows,
     coreCols.map((c) => p.weight[c]!),
     p.deadline,
     cells > (p.maxCoreCells ?? 3e8),
@@ -198,6 +209,9 @@ class BranchAndBound {
   private gBuf = new Float64Array(0);
   aborted = false;
   nodes = 0;
+  /** Scratch lists of columns and rows for the reductions. */
+  private readonly bufC: Int32Array;
+  private readonly bufR: Int32Array;
   /** Best bound proven at the root of the search (kept for a search cut short). */
   rootBound = -Infinity;
   /** The proven bound (Lagrangian at the LP duals) of the last LP that ran to the end. */
@@ -216,18 +230,38 @@ class BranchAndBound {
     this.WC = (C + 31) >>> 5;
     this.colBits = new Uint32Array(sparseOnly ? 0 : C * this.WR);
     this.rowBits = new Uint32Array(sparseOnly ? 0 : R * this.WC);
-    const lists: number[][] = Array.from({ length: R }, () => []);
+    // Rows → columns by counting (ascending columns per row), bitsets both ways unless too big.
+    const deg = new Int32Array(R);
+    let nnz = 0;
     for (let c = 0; c < C; c++) {
-      for (const r of cols[c]!) {
+      const l = cols[c]!;
+      nnz += l.length;
+      for (let i = 0; i < l.length; i++) {
+        const r = l[i]!;
+        deg[r]!++;
         if (!sparseOnly) {
           this.colBits[c * this.WR + (r >>> 5)]! |= 1 << (r & 31);
           this.rowBits[r * this.WC + (c >>> 5)]! |= 1 << (c & 31);
         }
-        lists[r]!.push(c);
       }
     }
-    this.rowColsS = lists.map((l) => Int32Array.from(l));
-    this.nnz = cols.reduce((a, l) => a + l.length, 0);
+    const flat = new Int32Array(nnz);
+    this.rowColsS = new Array<Int32Array>(R);
+    for (let r = 0, at = 0; r < R; r++) {
+      this.rowColsS[r] = flat.subarray(at, at + deg[r]!);
+      at += deg[r]!;
+      deg[r] = 0;
+    }
+    for (let c = 0; c < C; c++) {
+      const l = cols[c]!;
+      for (let i = 0; i < l.length; i++) {
+        const r = l[i]!;
+        this.rowColsS[r]![deg[r]!++] = c;
+      }
+    }
+    this.bufC = new Int32Array(C);
+    this.bufR = new Int32Array(R);
+    this.nnz = nnz;
   }
 
   /** Offers a known cover of the core as incumbent. */
@@ -284,6 +318,28 @@ class BranchAndBound {
       }
     }
     return out;
+  }
+
+  /** The live columns of row r into `out`; returns how many. */
+  private colsOfRowInto(r: number, colsA: Uint32Array, out: Int32Array): number {
+    const l = this.rowColsS[r]!;
+    let n = 0;
+    for (let i = 0; i < l.length; i++) {
+      const c = l[i]!;
+      if ((colsA[c >>> 5]! >>> (c & 31)) & 1) out[n++] = c;
+    }
+    return n;
+  }
+
+  /** The live rows of column c into `out`; returns how many. */
+  private rowsOfColInto(c: number, rowsA: Uint32Array, out: Int32Array): number {
+    const l = this.cols[c]!;
+    let n = 0;
+    for (let i = 0; i < l.length; i++) {
+      const r = l[i]!;
+      if ((rowsA[r >>> 5]! >>> (r & 31)) & 1) out[n++] = r;
+    }
+    return n;
   }
 
   private colsOfRow(r: number, colsA: Uint32Array, out: number[]): void {
@@ -401,33 +457,39 @@ class BranchAndBound {
    */
   private reduce(rowsA: Uint32Array, colsA: Uint32Array, picked: number[], dominance = 3): number {
     let added = 0;
-    const tmp: number[] = [];
-    const tmp2: number[] = [];
     const WR = this.WR;
     const WC = this.WC;
-    const colLive = (c: number) => ((colsA[c >>> 5]! >>> (c & 31)) & 1) === 1;
-    const rowLive = (r: number) => ((rowsA[r >>> 5]! >>> (r & 31)) & 1) === 1;
+    const bufC = this.bufC;
+    const bufR = this.bufR;
     for (let changed = true; changed; ) {
       changed = false;
       if (Date.now() > this.deadline) {
         this.aborted = true;
         return added;
       }
-      // Essentials.
+      // Essentials: a live row with one live column (counted up to two).
       for (let k = 0; k < WR; k++) {
         let x = rowsA[k]!;
         while (x !== 0) {
           const b = x & -x;
           x ^= b;
           const r = k * 32 + 31 - Math.clz32(b);
-          if (!rowLive(r)) continue;
-          this.colsOfRow(r, colsA, tmp);
-          if (tmp.length === 0) return -1;
-          if (tmp.length === 1) {
-            const c = tmp[0]!;
-            picked.push(c);
-            added += this.w[c]!;
-            this.take(c, rowsA, colsA);
+          if (!((rowsA[r >>> 5]! >>> (r & 31)) & 1)) continue;
+          const l = this.rowColsS[r]!;
+          let n = 0;
+          let only = -1;
+          for (let i = 0; i < l.length && n < 2; i++) {
+            const c = l[i]!;
+            if ((colsA[c >>> 5]! >>> (c & 31)) & 1) {
+              n++;
+              only = c;
+            }
+          }
+          if (n === 0) return -1;
+          if (n === 1) {
+            picked.push(only);
+            added += this.w[only]!;
+            this.take(only, rowsA, colsA);
             x &= rowsA[k]!;
             changed = true;
           }
@@ -440,25 +502,26 @@ class BranchAndBound {
           const b = x & -x;
           x ^= b;
           const c1 = k * 32 + 31 - Math.clz32(b);
-          this.rowsOfCol(c1, rowsA, tmp2);
-          if (tmp2.length === 0) {
+          const nr = this.rowsOfColInto(c1, rowsA, bufR);
+          if (nr === 0) {
             colsA[k]! &= ~b;
             changed = true;
             continue;
           }
-          this.colsOfRow(tmp2[0]!, colsA, tmp);
-          for (const c2 of tmp) {
+          const nc = this.colsOfRowInto(bufR[0]!, colsA, bufC);
+          for (let q = 0; q < nc; q++) {
+            const c2 = bufC[q]!;
             if (c2 === c1 || this.w[c2]! > this.w[c1]!) continue;
             let subset = true;
-            for (let i = 1; i < tmp2.length; i++) {
-              const r = tmp2[i]!;
+            for (let i = 1; i < nr; i++) {
+              const r = bufR[i]!;
               if (!((this.rowBits[r * WC + (c2 >>> 5)]! >>> (c2 & 31)) & 1)) {
                 subset = false;
                 break;
               }
             }
             if (!subset) continue;
-            if (this.w[c2] === this.w[c1] && c2 > c1 && this.colCount(c2, rowsA) === tmp2.length) continue;
+            if (this.w[c2] === this.w[c1] && c2 > c1 && this.colCount(c2, rowsA) === nr) continue;
             colsA[k]! &= ~b;
             changed = true;
             break;
@@ -472,29 +535,29 @@ class BranchAndBound {
           const b = x & -x;
           x ^= b;
           const r1 = k * 32 + 31 - Math.clz32(b);
-          if (!rowLive(r1)) continue;
-          this.colsOfRow(r1, colsA, tmp);
-          if (tmp.length === 0) return -1;
+          if (!((rowsA[r1 >>> 5]! >>> (r1 & 31)) & 1)) continue;
+          const nc = this.colsOfRowInto(r1, colsA, bufC);
+          if (nc === 0) return -1;
           // Rows sharing r1's first column are the only candidates.
-          this.rowsOfCol(tmp[0]!, rowsA, tmp2);
-          for (const r2 of tmp2) {
+          const nr = this.rowsOfColInto(bufC[0]!, rowsA, bufR);
+          for (let q = 0; q < nr; q++) {
+            const r2 = bufR[q]!;
             if (r2 === r1) continue;
             let subset = true;
-            for (let i = 1; i < tmp.length; i++) {
-              const c = tmp[i]!;
+            for (let i = 1; i < nc; i++) {
+              const c = bufC[i]!;
               if (!((this.colBits[c * WR + (r2 >>> 5)]! >>> (r2 & 31)) & 1)) {
                 subset = false;
                 break;
               }
             }
             if (!subset) continue;
-            if (r2 < r1 && this.rowDegree(r2, colsA) === tmp.length) continue;
+            if (r2 < r1 && this.rowDegree(r2, colsA) === nc) continue;
             rowsA[r2 >>> 5]! &= ~(1 << (r2 & 31));
             changed = true;
           }
         }
       }
-      void colLive;
     }
     return added;
   }
