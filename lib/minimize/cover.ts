@@ -856,7 +856,10 @@ class BranchAndBound {
     const need = rowsA.slice();
     const isNeeded = (r: number) => ((need[r >>> 5]! >>> (r & 31)) & 1) === 1;
     const chosen: number[] = [];
-    const order = liveCols.slice().sort((a, b) => rc[a]! - rc[b]!);
+    // Only the columns of negative reduced cost are taken in order: sort just those (stable, as the full sort was).
+    const order: number[] = [];
+    for (let i = 0; i < liveCols.length; i++) if (rc[liveCols[i]!]! < 0) order.push(liveCols[i]!);
+    order.sort((a, b) => rc[a]! - rc[b]!);
     const takeCol = (c: number) => {
       chosen.push(c);
       const l = this.cols[c]!;
@@ -927,7 +930,8 @@ class BranchAndBound {
   /** LP rounding: the support of the LP solution, largest values first, then the cheapest per new row. */
   private lpRounding(rowsA: Uint32Array, colsA: Uint32Array, x: Float64Array, liveCols: number[], cost: number, here: number[]): void {
     const key = new Float64Array(this.cols.length);
-    for (const c of liveCols) key[c] = -x[c]! - 1e-9;
+    // The support first (a negative key is taken in order); columns at 0 wait for the cheapest-per-new-row step.
+    for (const c of liveCols) key[c] = x[c]! > 1e-9 ? -x[c]! : 0;
     this.lagHeuristic(rowsA, colsA, key, liveCols, cost, here);
   }
 
