@@ -60,7 +60,7 @@ async function main(): Promise<void> {
   console.log(header);
   console.log("-".repeat(header.length));
   // Warm-up, untimed: both routes get their code compiled (JIT, WebAssembly) before the first timed case,
-  // on functions of the bench's kinds that are not timed (other seeds, the structured ones up to 12 inputs).
+  // on random functions of other seeds (not timed) and the structured cases up to 12 inputs (timed later as well).
   // With three functions only, the first timed cases ran up to ten times slower than later in the same run.
   const warm = [
     ...Array.from({ length: 8 }, (_, i) => randomCase(8, 1000 + i)),
