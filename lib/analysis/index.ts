@@ -146,7 +146,8 @@ export function analyse(netlist: Netlist, family: Family, options: AnalysisOptio
     status: l > fanOut + 1e-9 ? "over" : Math.abs(l - fanOut) < 1e-9 ? "at-limit" : "ok",
     driver: driverName.get(net) ?? "?",
   }));
-  const maxLoad = Math.max(0, ...loads.map((l) => l.load));
+  // A loop, not a spread: a netlist may hold more nets than a call may take arguments.
+  const maxLoad = loads.reduce((m, l) => (l.load > m ? l.load : m), 0);
   for (const l of loads) if (l.status === "over") warnings.push(`net ${l.net} carries ${l.load} unit loads, over the fan-out of ${fanOut}`);
 
   // ---- depth and critical path ----
@@ -171,7 +172,7 @@ export function analyse(netlist: Netlist, family: Family, options: AnalysisOptio
     arrival.set(g.output, at + (hasDelay ? gateDelay(g) : 1));
     via.set(g.output, g);
   }
-  const depth = Math.max(0, ...netlist.outputs.map((o) => level.get(o.net) ?? 0));
+  const depth = netlist.outputs.reduce((m, o) => Math.max(m, level.get(o.net) ?? 0), 0);
   let endNet: string | undefined;
   for (const o of netlist.outputs) if (endNet === undefined || (arrival.get(o.net) ?? 0) > (arrival.get(endNet) ?? 0)) endNet = o.net;
   const pathGates: string[] = [];

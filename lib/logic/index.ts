@@ -110,10 +110,6 @@ export function tableGet(t: TruthTable, m: number): boolean {
   return ((t[m >>> 5]! >>> (m & 31)) & 1) === 1;
 }
 
-export function tableSet(t: TruthTable, m: number): void {
-  t[m >>> 5]! |= 1 << (m & 31);
-}
-
 /**
  * Minterms of a cube among the 32 of one table word: the low five variables
  * (bits 0..4 of the minterm index) pick positions inside the word.
@@ -129,18 +125,19 @@ export function tableAddCube(t: TruthTable, c: Cube, n: number): void {
   const full = fullMask(n);
   if (c.mask === full) {
     // A minterm: one bit.
-    t[c.value >>> 5]! |= 1 << (c.value & 31);
+    const m = (c.value & full) >>> 0;
+    t[m >>> 5]! |= 1 << (m & 31);
     return;
   }
   let pattern = n >= 5 ? 0xffffffff : (2 ** (2 ** n) - 1) >>> 0;
-  // A value bit outside the mask acts as a fixed 1, as in (value | subset of the free bits).
-  const fixed = c.mask | c.value;
+  // Only the mask's positions are literals (a value bit elsewhere means nothing, as in cubeContains).
+  const value = (c.value & c.mask) >>> 0;
   for (let i = 0; i < 5 && i < n; i++) {
-    if (!((fixed >>> i) & 1)) continue;
-    pattern &= (c.value >>> i) & 1 ? LOW_VARIABLE_WORDS[i]! : ~LOW_VARIABLE_WORDS[i]!;
+    if (!((c.mask >>> i) & 1)) continue;
+    pattern &= (value >>> i) & 1 ? LOW_VARIABLE_WORDS[i]! : ~LOW_VARIABLE_WORDS[i]!;
   }
   const free = ((full & ~c.mask) >>> 5) >>> 0;
-  const base = c.value >>> 5;
+  const base = value >>> 5;
   // Enumerate subsets of the free word-index bits.
   let sub = 0;
   for (;;) {

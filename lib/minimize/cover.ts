@@ -35,8 +35,6 @@ export interface CoverSolution {
   /** Proven lower bound on the minimum weight. */
   lowerBound: number;
   exact: boolean;
-  /** Branch-and-bound nodes searched (0 when the essentials alone cover). */
-  nodes: number;
 }
 
 /** Rows → columns, flattened: the columns of row r are cols[start[r] .. start[r + 1]), ascending. */
@@ -78,7 +76,7 @@ export function solveCover(p: CoverProblem): CoverSolution {
   }
   const coreRows: number[] = [];
   for (let r = 0; r < R; r++) if (!covered[r]) coreRows.push(r);
-  if (coreRows.length === 0) return { chosen, weight: base, lowerBound: base, exact: true, nodes: 0 };
+  if (coreRows.length === 0) return { chosen, weight: base, lowerBound: base, exact: true };
   const rowMap = new Int32Array(R).fill(-1);
   for (let i = 0; i < coreRows.length; i++) rowMap[coreRows[i]!] = i;
   // Core columns with their core rows, in one pass.
@@ -114,7 +112,7 @@ export function solveCover(p: CoverProblem): CoverSolution {
   }
   const res = bb.run();
   for (const c of res.chosen) chosen.push(coreCols[c]!);
-  return { chosen, weight: base + res.weight, lowerBound: base + res.lowerBound, exact: res.exact, nodes: bb.nodes };
+  return { chosen, weight: base + res.weight, lowerBound: base + res.lowerBound, exact: res.exact };
 }
 
 /** Dominance tests at inner nodes: bit 0 columns, bit 1 rows (the root always runs both). */
@@ -214,8 +212,6 @@ class BranchAndBound {
   private readonly bufR: Int32Array;
   /** Best bound proven at the root of the search (kept for a search cut short). */
   rootBound = -Infinity;
-  /** The proven bound (Lagrangian at the LP duals) of the last LP that ran to the end. */
-  private lpLb = -Infinity;
 
   constructor(
     readonly R: number,
@@ -351,14 +347,6 @@ class BranchAndBound {
     }
   }
 
-  private rowsOfCol(c: number, rowsA: Uint32Array, out: number[]): void {
-    out.length = 0;
-    const l = this.cols[c]!;
-    for (let i = 0; i < l.length; i++) {
-      const r = l[i]!;
-      if ((rowsA[r >>> 5]! >>> (r & 31)) & 1) out.push(r);
-    }
-  }
 
   private rowDegree(r: number, colsA: Uint32Array): number {
     const l = this.rowColsS[r]!;
@@ -975,7 +963,7 @@ class BranchAndBound {
     // In the literal phase the root solves its LP first: when the LP's rounding meets the LP bound,
     // the root's subgradient steps would only confirm it.
     let rootLp: { lb: number; rc: Float64Array; liveCols: number[]; x: Float64Array } | null = null;
-    if (depth === 0 && K >= 0) {
+    if (depth === 0 && K >= 0 && depth <= TUNING.lpDepth) {
       const res = this.lpBound(rowsA, this.liveColumns(colsA), K, -Infinity);
       if (res === "infeasible") return;
       if (res) {

@@ -1,8 +1,10 @@
 /**
  * Exact multi-output two-level minimization with don't-cares.
  *
- * Route: multi-output primes by Quine–McCluskey (./primes), then an exact
- * cover of the (output, ON-minterm) pairs (./cover), where a term shared by
+ * Route: multi-output primes (./primes: from compact cube covers by the
+ * recursive prime rule when that is cheap, else by Quine–McCluskey tables or
+ * a dense ternary table), then an exact cover of the (output, ON-minterm)
+ * pairs (./cover), where a term shared by
  * several outputs is paid once. Beyond the exact route's limits (inputs above
  * TRUTH_TABLE_MAX_INPUTS, more than `maxPrimes` primes, a cyclic core too big
  * or a search not finished in time) the expand / irredundant / reduce loop
@@ -479,7 +481,9 @@ function lexicographicCover(prob: CoveringProblem, model: CostModel, deadline: n
   // lexicographically minimum as well, provided no cover with fewer products can make up the product
   // weight in literals (PRODUCT_WEIGHT ≥ most literals × products).
   const s0 = solveCover({ colRows, weight, rowCount, deadline, rootOnly: true, rowCols: rc });
-  if (s0.exact && PRODUCT_WEIGHT >= Math.max(1, ...lits) * s0.chosen.length) {
+  let mostLits = 1;
+  for (let c = 0; c < lits.length; c++) if (lits[c]! > mostLits) mostLits = lits[c]!;
+  if (s0.exact && PRODUCT_WEIGHT >= mostLits * s0.chosen.length) {
     return { chosen: s0.chosen, weight: s0.weight, lowerBound: s0.weight, exact: true };
   }
   // The root's rounded cover, when there is one, starts both searches.
@@ -779,6 +783,9 @@ export function minimize(spec: FunctionSpec, options: MinimizeOptions = {}): Min
     throw new LimitError("MAX_INPUTS", MAX_INPUTS, `the design has ${n} inputs`, "Split the design into blocks of at most 30 inputs.");
   }
   const deadline = t0 + timeLimitMs;
+  // Value bits outside a cube's mask are no literals (lib/logic's cube definition); drop them once here.
+  const clean = (cs: Cube[]): Cube[] => (cs.some((c) => (c.value & ~c.mask) !== 0) ? cs.map((c) => ({ value: (c.value & c.mask) >>> 0, mask: c.mask })) : cs);
+  spec = { ...spec, outputs: spec.outputs.map((o) => ({ ...o, on: clean(o.on), dc: clean(o.dc) })) };
   const targets = buildTargets(spec, form);
   let solved: Solved | null = null;
   const exactPossible = !options.heuristic && n <= TRUTH_TABLE_MAX_INPUTS && targets.length > 0;

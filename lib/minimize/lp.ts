@@ -2,10 +2,10 @@
  * LP relaxation of a set cover with an optional column budget, by a dense
  * bounded dual simplex:
  *
- *   min Σ w_c x_c  s.t.  Σ_{c ∋ r} x_c ≥ 1 for every row r,  Σ x_c ≤ K,  lo_c ≤ x_c ≤ up_c,
+ *   min Σ w_c x_c  s.t.  Σ_{c ∋ r} x_c ≥ 1 for every row r,  Σ x_c ≤ K,  0 ≤ x_c ≤ 1.
  *
- * with 0 ≤ lo_c ≤ up_c ≤ 1. Starting from x = lo every reduced cost is
- * w_c ≥ 0, so the slack basis is dual feasible and no first phase is needed.
+ * Starting from x = 0 every reduced cost is w_c ≥ 0, so the slack basis is
+ * dual feasible and no first phase is needed.
  * The result is only used as Lagrangian multipliers:
  * the caller evaluates the Lagrangian bound at them, which is a proven bound
  * for any u ≥ 0, μ ≥ 0, so rounding in the simplex can cost tightness but
@@ -26,7 +26,7 @@ export interface CoverLpResult {
   iterations: number;
 }
 
-/** The simplex state: basis inverse, basis, values, reduced costs, edge weights, bounds. */
+/** The simplex state: basis inverse, basis, values, reduced costs, edge weights. */
 interface CoverLpState {
   Binv: Float64Array;
   basis: Int32Array;
@@ -35,14 +35,12 @@ interface CoverLpState {
   atUpper: Uint8Array;
   d: Float64Array;
   beta: Float64Array;
-  lo: Uint8Array;
-  up: Uint8Array;
 }
 
 /**
- * The covering LP with variable bounds (columns fixed at 0 or 1 sit at their
- * bound and never enter the basis). Rows: -a_r·x + t_r = -1 (t_r ≥ 0) and Σx + t = K; the slacks t are
- * variables n .. n+M-1, columns 0 .. n-1 have bounds lo_c, up_c ∈ {0, 1}.
+ * The covering LP with a dense basis inverse. Rows: -a_r·x + t_r = -1
+ * (t_r ≥ 0) and Σx + t = K; the slacks t are variables n .. n+M-1, the
+ * columns 0 .. n-1 lie in [0, 1] (a nonbasic column sits at 0 or at 1).
  */
 export class CoverLp {
   readonly n: number;
@@ -101,8 +99,6 @@ export class CoverLp {
       atUpper: new Uint8Array(this.NV),
       d,
       beta: new Float64Array(M).fill(1),
-      lo: new Uint8Array(n),
-      up: new Uint8Array(n).fill(1),
     };
     this.alpha = new Float64Array(this.NV);
     this.colq = new Float64Array(M);
@@ -123,7 +119,7 @@ export class CoverLp {
     const s = this.s;
     if (s.pos[j]! >= 0) return s.xB[s.pos[j]!]!;
     if (j >= this.n) return 0;
-    return s.atUpper[j] ? s.up[j]! : s.lo[j]!;
+    return s.atUpper[j]!;
   }
 
   /**
@@ -133,7 +129,7 @@ export class CoverLp {
    */
   solve(deadline = Infinity, maxIters = 50 * (this.M + 1)): "optimal" | "infeasible" | "stopped" {
     const s = this.s;
-    const { Binv, basis, pos, xB, atUpper, d, beta, lo, up } = s;
+    const { Binv, basis, pos, xB, atUpper, d, beta } = s;
     const { n, M, alpha, colq, rowp, nzIdx, cols, rowStart, rowCols, rowNz, seen, touched, rowCount } = this;
     const hasCard = this.hasCard;
     const card = this.card;
@@ -148,9 +144,8 @@ export class CoverLp {
       for (let i = 0; i < M; i++) {
         const v = xB[i]!;
         const b = basis[i]!;
-        const l0 = b < n ? lo[b]! : 0;
-        if (l0 - v > tolP) {
-          const e = l0 - v;
+        if (-v > tolP) {
+          const e = -v;
           const score = (e * e) / beta[i]!;
           if (score > worst) {
             worst = score;
@@ -158,7 +153,7 @@ export class CoverLp {
             below = true;
           }
         } else if (b < n) {
-          const e = v - up[b]!;
+          const e = v - 1;
           if (e > tolP) {
             const score = (e * e) / beta[i]!;
             if (score > worst) {
@@ -212,7 +207,7 @@ export class CoverLp {
       let bestAbs = 0;
       for (let t = 0; t < nt; t++) {
         const j = touched[t]!;
-        if (pos[j]! >= 0 || (j < n && lo[j] === up[j])) continue;
+        if (pos[j]! >= 0) continue;
         const a = alpha[j]!;
         const atUp = atUpper[j] === 1;
         // Below lower: the row rises when a variable at lower with a < 0 grows or one at upper with a > 0 shrinks.
@@ -226,7 +221,7 @@ export class CoverLp {
           q = j;
         }
       }
-      if (q < 0) return this.certifiedInfeasible(p, below) ? "infeasible" : "stopped";
+      if (q < 0) return this.certifiedInfeasible(p) ? "infeasible" : "stopped";
       // Entering column B⁻¹ a_q.
       if (q < n) {
         const l = cols[q]!;
@@ -244,14 +239,14 @@ export class CoverLp {
       const thetaD = d[q]! / apq;
       for (let t = 0; t < nt; t++) {
         const j = touched[t]!;
-        if (pos[j]! < 0 && (j >= n || lo[j] !== up[j])) d[j]! -= thetaD * alpha[j]!;
+        if (pos[j]! < 0) d[j]! -= thetaD * alpha[j]!;
       }
       const leave = basis[p]!;
       d[q] = 0;
       d[leave] = -thetaD;
-      const target = below ? (leave < n ? lo[leave]! : 0) : up[leave]!;
+      const target = below ? 0 : 1;
       const thetaP = (xB[p]! - target) / apq;
-      const xq = q < n ? (atUpper[q] ? up[q]! : lo[q]!) : 0;
+      const xq = q < n ? atUpper[q]! : 0;
       for (let i = 0; i < M; i++) xB[i]! -= thetaP * colq[i]!;
       xB[p] = xq + thetaP;
       atUpper[leave] = below ? 0 : 1;
@@ -296,31 +291,39 @@ export class CoverLp {
   }
 
   /**
-   * Whether basic row p, out of its bounds with no nonbasic variable able to
-   * bring it back, proves the LP infeasible: its tableau row is recomputed
-   * from B⁻¹, and every move the ratio test ignored as too small (|α| below
-   * the pivot tolerance, over the variable's whole range: 1 for a column, C
-   * for a row surplus) must fall short of the violation by a clear margin.
+   * Whether row p of B⁻¹ proves the LP infeasible (a Farkas certificate):
+   * with y that row, every point satisfies Σ_j (yᵀA_j)·x_j + Σ_i y_i·t_i = yᵀb.
+   * Over the box every feasible point lies in (columns in [0, 1], a row's
+   * surplus in [0, its columns − 1], the budget's in [0, K]) the left side's
+   * range is computed from the problem's own data, not from the basis; when
+   * yᵀb lies outside it by more than a rounding margin, no point exists. Any
+   * y makes a valid certificate, so errors in B⁻¹ can only lose one.
    */
-  private certifiedInfeasible(p: number, below: boolean): boolean {
-    const { Binv, basis, pos, xB, atUpper, lo, up } = this.s;
-    const { n, M, NV, cols } = this;
-    const b = basis[p]!;
-    const violation = below ? (b < n ? lo[b]! : 0) - xB[p]! : xB[p]! - up[b]!;
-    let reach = 0;
-    for (let j = 0; j < NV; j++) {
-      if (pos[j]! >= 0) continue;
-      let a: number;
-      if (j < n) {
-        if (lo[j] === up[j]) continue;
-        a = this.hasCard ? Binv[p * M + this.card]! : 0;
-        const l = cols[j]!;
-        for (let k = 0; k < l.length; k++) a -= Binv[p * M + l[k]!]!;
-      } else a = Binv[p * M + (j - n)]!;
-      const helps = below ? (atUpper[j] ? a > 0 : a < 0) : atUpper[j] ? a < 0 : a > 0;
-      if (helps) reach += Math.abs(a) * (j < n ? 1 : n);
+  private certifiedInfeasible(p: number): boolean {
+    const { Binv } = this.s;
+    const { n, M, cols, rowCount, rowStart } = this;
+    const y = (k: number) => Binv[p * M + k]!;
+    const yCard = this.hasCard ? y(this.card) : 0;
+    let rhs = this.hasCard ? yCard * this.K : 0;
+    for (let r = 0; r < rowCount; r++) rhs -= y(r);
+    let lo = 0;
+    let hi = 0;
+    let scale = Math.abs(rhs);
+    const add = (a: number, range: number) => {
+      if (a > 0) hi += a * range;
+      else lo += a * range;
+      scale += Math.abs(a) * range;
+    };
+    for (let j = 0; j < n; j++) {
+      let a = yCard;
+      const l = cols[j]!;
+      for (let k = 0; k < l.length; k++) a -= y(l[k]!);
+      add(a, 1);
     }
-    return violation > reach + 1e-6;
+    for (let r = 0; r < rowCount; r++) add(y(r), Math.max(0, rowStart[r + 1]! - rowStart[r]! - 1));
+    if (this.hasCard) add(yCard, this.K);
+    const margin = 1e-7 * (1 + scale);
+    return rhs > hi + margin || rhs < lo - margin;
   }
 
   /** Row duals u_r ≥ 0 from the slacks' reduced costs. */

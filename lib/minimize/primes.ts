@@ -1,5 +1,8 @@
 /**
- * Prime implicants by the Quine–McCluskey method, multi-output.
+ * Multi-output prime implicants, by three routes with the same result: from
+ * compact cube covers by the recursive prime rule ({@link coverTaggedPrimes}),
+ * by a dense table over all 3^n cubes ({@link denseTaggedPrimes}), and by the
+ * Quine–McCluskey method ({@link taggedPrimes}), described here:
  *
  * Every implicant carries a tag: the set of outputs (bit j = output j) in
  * whose ON ∪ DC it lies. Level k holds the implicants with k absent literals,

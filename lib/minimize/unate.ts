@@ -79,18 +79,25 @@ export function complement(F: readonly Cube[], space: number): Cube[] {
   const rest = (space & ~bit) >>> 0;
   const c1 = complement(cofactorLiteral(F, bit, true), rest);
   const c0 = complement(cofactorLiteral(F, bit, false), rest);
-  // A cube in both halves needs no literal of the split variable.
-  const key = (c: Cube) => c.mask * 1073741824 + c.value;
-  const in0 = new Set(c0.map(key));
-  const both = new Set<number>();
+  // A cube in both halves needs no literal of the split variable. Cubes are keyed by mask, then value:
+  // one number of both would pass 2^53 for masks of 23 bits and more, and distinct cubes would collide.
+  const in0 = new Map<number, Set<number>>();
+  for (const c of c0) {
+    let vs = in0.get(c.mask);
+    if (!vs) in0.set(c.mask, (vs = new Set()));
+    vs.add(c.value);
+  }
+  const both = new Map<number, Set<number>>();
   const out: Cube[] = [];
   for (const c of c1) {
-    if (in0.has(key(c))) {
-      both.add(key(c));
+    if (in0.get(c.mask)?.has(c.value)) {
+      let vs = both.get(c.mask);
+      if (!vs) both.set(c.mask, (vs = new Set()));
+      vs.add(c.value);
       out.push(c);
     } else out.push({ value: (c.value | bit) >>> 0, mask: (c.mask | bit) >>> 0 });
   }
-  for (const c of c0) if (!both.has(key(c))) out.push({ value: c.value, mask: (c.mask | bit) >>> 0 });
+  for (const c of c0) if (!both.get(c.mask)?.has(c.value)) out.push({ value: c.value, mask: (c.mask | bit) >>> 0 });
   return out.length > 64 ? out : removeContained(out);
 }
 
@@ -265,19 +272,11 @@ export function primesOfCover(F: readonly Cube[], space: number, cap = Infinity,
 }
 
 /**
- * Merges a disjoint cube list along each variable in turn (pairs equal but
- * for that variable become one cube). The union is unchanged; lists of
- * minterms of functions with large cubes shrink by orders of magnitude.
+ * Merges a disjoint cube list, given as its values and masks (both consumed),
+ * along each variable in turn (pairs equal but for that variable become one
+ * cube). The union is unchanged; lists of minterms of functions with large
+ * cubes shrink by orders of magnitude.
  */
-export function mergeAlongVariables(F: readonly Cube[], n: number): Cube[] {
-  return mergeLists(
-    F.map((c) => c.value),
-    F.map((c) => c.mask),
-    n,
-  );
-}
-
-/** {@link mergeAlongVariables} on a cube list given as its values and masks (both consumed). */
 export function mergeLists(values: number[], masks: number[], n: number): Cube[] {
   // An open-addressing table of the cubes with the positive literal of the variable at hand (index + 1;
   // 0 empty), hashed on mask and value: a partner with the negative literal absorbs them.

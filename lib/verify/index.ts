@@ -204,7 +204,6 @@ function sumTermsAsOffProducts(cubes: readonly Cube[]): Cube[] {
 /** Checks two-level covers (one per output, in the spec's order) against the specification. */
 export function verifyCovers(spec: FunctionSpec, covers: readonly TwoLevelCover[], options: VerifyOptions = {}): Verdict {
   const n = spec.inputs.length;
-  const full = fullMask(n);
   return verifyImplementation(
     spec,
     {
@@ -217,7 +216,6 @@ export function verifyCovers(spec: FunctionSpec, covers: readonly TwoLevelCover[
         });
       },
       encode(logic, vars) {
-        void full;
         return covers.map((cv) =>
           cv.form === "sop"
             ? sopFormula(cv.cubes, n, vars)

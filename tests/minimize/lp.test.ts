@@ -20,7 +20,7 @@ async function highsCover(rowCount: number, cols: Int32Array[], w: number[], K: 
   lines.push("Bounds", ...w.map((_, c) => ` 0 <= y${c} <= 1`));
   if (!relaxed) lines.push("General", " " + w.map((_, c) => `y${c}`).join(" "));
   lines.push("End");
-  const res = highs.solve(lines.join("\n"), { output_flag: false });
+  const res = highs.solve(lines.join("\n"), { output_flag: false, mip_rel_gap: 0 });
   if (res.Status === "Infeasible") return null;
   if (res.Status !== "Optimal") throw new Error(`highs status ${res.Status}`);
   return res.ObjectiveValue;
