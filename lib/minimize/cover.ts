@@ -37,6 +37,20 @@ export interface CoverSolution {
   exact: boolean;
 }
 
+/** The indices of the set bits of a bitset, ascending. */
+function members(words: Uint32Array): number[] {
+  const out: number[] = [];
+  for (let k = 0; k < words.length; k++) {
+    let x = words[k]!;
+    while (x !== 0) {
+      const b = x & -x;
+      x ^= b;
+      out.push(k * 32 + 31 - Math.clz32(b));
+    }
+  }
+  return out;
+}
+
 /** Rows → columns, flattened: the columns of row r are cols[start[r] .. start[r + 1]), ascending. */
 export function rowColumns(colRows: Int32Array[], rowCount: number): { start: Int32Array; cols: Int32Array } {
   const start = new Int32Array(rowCount + 1);
@@ -303,19 +317,6 @@ class BranchAndBound {
     };
   }
 
-  private liveColumns(colsA: Uint32Array): number[] {
-    const out: number[] = [];
-    for (let k = 0; k < this.WC; k++) {
-      let x = colsA[k]!;
-      while (x !== 0) {
-        const b = x & -x;
-        x ^= b;
-        out.push(k * 32 + 31 - Math.clz32(b));
-      }
-    }
-    return out;
-  }
-
   /** The live columns of row r into `out`; returns how many. */
   private colsOfRowInto(r: number, colsA: Uint32Array, out: Int32Array): number {
     const l = this.rowColsS[r]!;
@@ -338,6 +339,7 @@ class BranchAndBound {
     return n;
   }
 
+  /** {@link colsOfRowInto} into an array, for the callers that keep or sort the list (a direct loop: this is hot in the bounds). */
   private colsOfRow(r: number, colsA: Uint32Array, out: number[]): void {
     out.length = 0;
     const l = this.rowColsS[r]!;
@@ -346,7 +348,6 @@ class BranchAndBound {
       if ((colsA[c >>> 5]! >>> (c & 31)) & 1) out.push(c);
     }
   }
-
 
   private rowDegree(r: number, colsA: Uint32Array): number {
     const l = this.rowColsS[r]!;
@@ -552,18 +553,9 @@ class BranchAndBound {
 
   /** Independent-row bound and the live row with the fewest columns (the branching row). */
   private bound(rowsA: Uint32Array, colsA: Uint32Array): { lb: number; branchRow: number; independent: number } {
-    const rows: number[] = [];
+    const rows = members(rowsA);
     const deg: number[] = [];
-    for (let k = 0; k < this.WR; k++) {
-      let x = rowsA[k]!;
-      while (x !== 0) {
-        const b = x & -x;
-        x ^= b;
-        const r = k * 32 + 31 - Math.clz32(b);
-        rows.push(r);
-        deg[r] = this.rowDegree(r, colsA);
-      }
-    }
+    for (const r of rows) deg[r] = this.rowDegree(r, colsA);
     if (rows.length === 0) return { lb: 0, branchRow: -1, independent: 0 };
     rows.sort((a, b) => deg[a]! - deg[b]!);
     const blocked = new Uint8Array(this.R);
@@ -603,24 +595,8 @@ class BranchAndBound {
     /** When given, the primal heuristic runs on improving multipliers and the target follows the incumbent. */
     heur?: { cost: number; here: number[] },
   ): { lb: number; rc: Float64Array; liveCols: number[] } {
-    const liveRows: number[] = [];
-    for (let k = 0; k < this.WR; k++) {
-      let x = rowsA[k]!;
-      while (x !== 0) {
-        const b = x & -x;
-        x ^= b;
-        liveRows.push(k * 32 + 31 - Math.clz32(b));
-      }
-    }
-    const liveCols: number[] = [];
-    for (let k = 0; k < this.WC; k++) {
-      let x = colsA[k]!;
-      while (x !== 0) {
-        const b = x & -x;
-        x ^= b;
-        liveCols.push(k * 32 + 31 - Math.clz32(b));
-      }
-    }
+    const liveRows = members(rowsA);
+    const liveCols = members(colsA);
     // Live rows of the live columns, flattened (CSR) so the inner loop allocates nothing.
     if (this.csr.length < this.nnz) this.csr = new Int32Array(this.nnz);
     const csr = this.csr;
@@ -721,18 +697,9 @@ class BranchAndBound {
    * duals searched up to six times longer in trials.
    */
   private lpBound(rowsA: Uint32Array, liveCols: number[], K: number, beat: number, maxRows = TUNING.lpMaxRows): { lb: number; rc: Float64Array; liveCols: number[]; x: Float64Array } | "infeasible" | null {
-    const liveRows: number[] = [];
+    const liveRows = members(rowsA);
     const local = new Int32Array(this.R).fill(-1);
-    for (let k = 0; k < this.WR; k++) {
-      let x = rowsA[k]!;
-      while (x !== 0) {
-        const b = x & -x;
-        x ^= b;
-        const r = k * 32 + 31 - Math.clz32(b);
-        local[r] = liveRows.length;
-        liveRows.push(r);
-      }
-    }
+    for (let i = 0; i < liveRows.length; i++) local[liveRows[i]!] = i;
     // The dense inverse costs rows² per pivot: past a few hundred rows the LP costs more than it saves.
     if (liveRows.length > maxRows) return null;
     const cols: Int32Array[] = [];
@@ -949,7 +916,7 @@ class BranchAndBound {
     let lpFix: { lb: number; rc: Float64Array } | null = null;
     if (this.rootOnly) {
       // Root only: the LP relaxation and its rounding, no subgradient steps; the search stops unless they close the gap.
-      const res = this.lpBound(rowsA, this.liveColumns(colsA), K, -Infinity, TUNING.rootOnlyMaxRows);
+      const res = this.lpBound(rowsA, members(colsA), K, -Infinity, TUNING.rootOnlyMaxRows);
       if (res && res !== "infeasible") {
         this.lpRounding(rowsA, colsA, res.x, res.liveCols, cost, here);
         if (cost + Math.ceil(res.lb - 1e-6) >= this.best) {
@@ -964,7 +931,7 @@ class BranchAndBound {
     // the root's subgradient steps would only confirm it.
     let rootLp: { lb: number; rc: Float64Array; liveCols: number[]; x: Float64Array } | null = null;
     if (depth === 0 && K >= 0 && depth <= TUNING.lpDepth) {
-      const res = this.lpBound(rowsA, this.liveColumns(colsA), K, -Infinity);
+      const res = this.lpBound(rowsA, members(colsA), K, -Infinity);
       if (res === "infeasible") return;
       if (res) {
         this.lpRounding(rowsA, colsA, res.x, res.liveCols, cost, here);

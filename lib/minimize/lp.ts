@@ -26,17 +26,6 @@ export interface CoverLpResult {
   iterations: number;
 }
 
-/** The simplex state: basis inverse, basis, values, reduced costs, edge weights. */
-interface CoverLpState {
-  Binv: Float64Array;
-  basis: Int32Array;
-  pos: Int32Array;
-  xB: Float64Array;
-  atUpper: Uint8Array;
-  d: Float64Array;
-  beta: Float64Array;
-}
-
 /**
  * The covering LP with a dense basis inverse. Rows: -a_r·x + t_r = -1
  * (t_r ≥ 0) and Σx + t = K; the slacks t are variables n .. n+M-1, the
@@ -48,7 +37,15 @@ export class CoverLp {
   private readonly hasCard: boolean;
   private readonly card: number;
   private readonly NV: number;
-  private s: CoverLpState;
+  /** The simplex state: basis inverse (by rows), basis, each variable's basis row (-1 nonbasic), basic values,
+   * nonbasic columns at 1, reduced costs, dual steepest-edge weights. */
+  private readonly Binv: Float64Array;
+  private readonly basis: Int32Array;
+  private readonly pos: Int32Array;
+  private readonly xB: Float64Array;
+  private readonly atUpper: Uint8Array;
+  private readonly d: Float64Array;
+  private readonly beta: Float64Array;
   private readonly alpha: Float64Array;
   private readonly colq: Float64Array;
   private readonly rowp: Float64Array;
@@ -91,15 +88,13 @@ export class CoverLp {
       seed = (Math.imul(seed, 1664525) + 1013904223) >>> 0;
       d[c] = w[c]! + 1e-7 * (1 + seed / 4294967296);
     }
-    this.s = {
-      Binv,
-      basis,
-      pos,
-      xB,
-      atUpper: new Uint8Array(this.NV),
-      d,
-      beta: new Float64Array(M).fill(1),
-    };
+    this.Binv = Binv;
+    this.basis = basis;
+    this.pos = pos;
+    this.xB = xB;
+    this.atUpper = new Uint8Array(this.NV);
+    this.d = d;
+    this.beta = new Float64Array(M).fill(1);
     this.alpha = new Float64Array(this.NV);
     this.colq = new Float64Array(M);
     this.rowp = new Float64Array(M);
@@ -116,10 +111,9 @@ export class CoverLp {
   }
 
   private value(j: number): number {
-    const s = this.s;
-    if (s.pos[j]! >= 0) return s.xB[s.pos[j]!]!;
+    if (this.pos[j]! >= 0) return this.xB[this.pos[j]!]!;
     if (j >= this.n) return 0;
-    return s.atUpper[j]!;
+    return this.atUpper[j]!;
   }
 
   /**
@@ -128,8 +122,7 @@ export class CoverLp {
    * {@link certifiedInfeasible}).
    */
   solve(deadline = Infinity, maxIters = 50 * (this.M + 1)): "optimal" | "infeasible" | "stopped" {
-    const s = this.s;
-    const { Binv, basis, pos, xB, atUpper, d, beta } = s;
+    const { Binv, basis, pos, xB, atUpper, d, beta } = this;
     const { n, M, alpha, colq, rowp, nzIdx, cols, rowStart, rowCols, rowNz, seen, touched, rowCount } = this;
     const hasCard = this.hasCard;
     const card = this.card;
@@ -300,7 +293,7 @@ export class CoverLp {
    * y makes a valid certificate, so errors in B⁻¹ can only lose one.
    */
   private certifiedInfeasible(p: number): boolean {
-    const { Binv } = this.s;
+    const { Binv } = this;
     const { n, M, cols, rowCount, rowStart } = this;
     const y = (k: number) => Binv[p * M + k]!;
     const yCard = this.hasCard ? y(this.card) : 0;
@@ -328,14 +321,14 @@ export class CoverLp {
 
   /** Row duals u_r ≥ 0 from the slacks' reduced costs. */
   duals(u: Float64Array = new Float64Array(this.rowCount)): Float64Array {
-    const { pos, d } = this.s;
+    const { pos, d } = this;
     for (let i = 0; i < this.rowCount; i++) u[i] = pos[this.n + i]! >= 0 ? 0 : Math.max(0, d[this.n + i]!);
     return u;
   }
 
   /** Budget dual μ ≥ 0 (0 without a budget). */
   budgetDual(): number {
-    const { pos, d } = this.s;
+    const { pos, d } = this;
     return this.hasCard && pos[this.n + this.card]! < 0 ? Math.max(0, d[this.n + this.card]!) : 0;
   }
 
