@@ -7,9 +7,18 @@
  * node is a greedy set of independent rows (no live column covers two of
  * them), each charged its cheapest live column: any cover needs distinct
  * columns for them, so the bound is proven.
+ *
+ * Stronger bounds come from Lagrangian relaxation (subgradient steps) and,
+ * under a column budget and at root-only searches, from the LP relaxation
+ * solved by dual simplex. At such a root the LP is tightened by rounds of
+ * Chvátal–Gomory cuts (lp.ts), which hold for every cover of the root's
+ * problem and so enter the LP of every node below; an LP dive (columns fixed
+ * at 1 one step at a time) looks for an incumbent. A later search on the
+ * same problem may take the cuts over when its root reductions leave the
+ * same columns, which the covers' weights decide only through their order.
  */
 
-import { coverLpDuals } from "./lp";
+import { CoverLp, type LpCut } from "./lp";
 
 export interface CoverProblem {
   /** rows[c] = row indices covered by column c. */
@@ -25,12 +34,29 @@ export interface CoverProblem {
   rowCols?: { start: Int32Array; cols: Int32Array };
   /** Stop after the root's reductions and LP: `exact` only when they prove the incumbent optimal. */
   rootOnly?: boolean;
+  /**
+   * Cuts from an earlier search on the same columns and rows (its
+   * {@link CoverSolution.cuts}); used only when this search's root reductions
+   * leave exactly the columns live and taken that the cuts were found at.
+   */
+  cuts?: CutPool;
   /** Core size (rows × columns) above which the exact search is not attempted; default 3e8 (about 80 MB of bitsets). */
   maxCoreCells?: number;
 }
 
+/** Valid inequalities over the problem's columns, with the root reductions they assume. */
+export interface CutPool {
+  cuts: LpCut[];
+  /** Columns live at the root after its reductions, ascending. */
+  live: number[];
+  /** Columns taken by then (the sparse essentials and the root's), ascending. */
+  taken: number[];
+}
+
 export interface CoverSolution {
   chosen: number[];
+  /** The cuts the search found at its root, for a later search on the same problem. */
+  cuts?: CutPool;
   weight: number;
   /** Proven lower bound on the minimum weight. */
   lowerBound: number;
@@ -119,14 +145,36 @@ export function solveCover(p: CoverProblem): CoverSolution {
   );
   if (p.maxColumns !== undefined) bb.card = p.maxColumns - chosen.length;
   bb.rootOnly = p.rootOnly === true;
+  const coreIndex = new Map(coreCols.map((c, i) => [c, i]));
+  if (p.cuts) {
+    // To core indices; a column outside the core means another problem, and the cuts are not used.
+    const inCore = (cs: ArrayLike<number>) => Array.prototype.every.call(cs, (c: number) => coreIndex.has(c));
+    const taken = new Set(chosen);
+    const rootTaken = p.cuts.taken.filter((c) => !taken.has(c));
+    if (inCore(p.cuts.live) && inCore(rootTaken) && p.cuts.cuts.every((cut) => inCore(cut.cols))) {
+      const live = new Uint32Array((coreCols.length + 31) >>> 5);
+      for (const c of p.cuts.live) live[coreIndex.get(c)! >>> 5]! |= 1 << (coreIndex.get(c)! & 31);
+      bb.cutsIn = {
+        cuts: p.cuts.cuts.map((cut) => ({ cols: Int32Array.from(cut.cols, (c) => coreIndex.get(c)!), val: cut.val, rhs: cut.rhs })),
+        live,
+        taken: rootTaken.map((c) => coreIndex.get(c)!).sort((a, b) => a - b),
+      };
+    }
+  }
   if (p.incumbent) {
-    const coreIndex = new Map(coreCols.map((c, i) => [c, i]));
     const mapped = p.incumbent.filter((c) => coreIndex.has(c)).map((c) => coreIndex.get(c)!);
     bb.offer(mapped);
   }
   const res = bb.run();
+  const cuts: CutPool | undefined = bb.cuts.length
+    ? {
+        cuts: bb.cuts.map((cut) => ({ cols: Int32Array.from(cut.cols, (c) => coreCols[c]!), val: cut.val, rhs: cut.rhs })),
+        live: members(bb.rootLive).map((c) => coreCols[c]!),
+        taken: chosen.concat(bb.rootTaken.map((c) => coreCols[c]!)).sort((a, b) => a - b),
+      }
+    : undefined;
   for (const c of res.chosen) chosen.push(coreCols[c]!);
-  return { chosen, weight: base + res.weight, lowerBound: base + res.lowerBound, exact: res.exact };
+  return { chosen, weight: base + res.weight, lowerBound: base + res.lowerBound, exact: res.exact, cuts };
 }
 
 /** Dominance tests at inner nodes: bit 0 columns, bit 1 rows (the root always runs both). */
@@ -139,8 +187,11 @@ let NODE_DOMINANCE = 1;
  * Lagrangian primal heuristic runs (every `heurEvery` steps). In the
  * literal phase (a column budget), nodes down to depth `lpDepth` also solve
  * the LP relaxation by dual simplex when at most `lpMaxRows` rows are live.
+ * The LP roots add up to `cutRounds` (root-only: `rootCutRounds`) rounds of
+ * at most `cutsPerRound` cuts, and dive at most `diveSteps` steps, fixing at
+ * once every column at `diveFixAbove` or more.
  */
-export const TUNING = { rootOnlyMaxRows: 260, lpMaxRows: 400, lpDepth: Infinity, rootIters: 600, nodeIters: 100, stall: 15, nodeLambda: 2, heurDepth: 0, heurEvery: 25, ascent: 2, rootAscent: 1, ascentMid: 0.25 };
+export const TUNING = { diveSteps: 60, diveFixAbove: 0.9, rootCutRounds: 5, cutRounds: 5, cutsPerRound: 20, rootOnlyMaxRows: 400, lpMaxRows: 400, lpDepth: Infinity, rootIters: 600, nodeIters: 100, stall: 15, nodeLambda: 2, heurDepth: 0, heurEvery: 25, ascent: 2, rootAscent: 1, ascentMid: 0.25 };
 export function setNodeDominance(d: number): void {
   NODE_DOMINANCE = d;
 }
@@ -202,6 +253,28 @@ class ScoreHeap {
   }
 }
 
+/** Cuts over core columns with the root they were found at (live columns as a bitset, taken columns ascending). */
+interface CorePool {
+  cuts: LpCut[];
+  live: Uint32Array;
+  taken: number[];
+}
+
+function sameBits(a: Uint32Array, b: Uint32Array): boolean {
+  if (a.length !== b.length) return false;
+  for (let k = 0; k < a.length; k++) if (a[k] !== b[k]) return false;
+  return true;
+}
+
+/** A node's LP: its bound and reduced costs (over core columns), the solution, and the solved LP (over `liveCols`). */
+interface LpNode {
+  lb: number;
+  rc: Float64Array;
+  liveCols: number[];
+  x: Float64Array;
+  lp: CoverLp;
+}
+
 class BranchAndBound {
   readonly WR: number;
   readonly WC: number;
@@ -224,6 +297,13 @@ class BranchAndBound {
   /** Scratch lists of columns and rows for the reductions. */
   private readonly bufC: Int32Array;
   private readonly bufR: Int32Array;
+  /** Cuts found at the root, over core columns: valid for every cover the search considers. */
+  readonly cuts: LpCut[] = [];
+  /** The root's live columns and taken columns after its reductions (what the cuts assume). */
+  rootLive = new Uint32Array(0);
+  rootTaken: number[] = [];
+  /** Cuts of an earlier search over the same core, with the root they hold at. */
+  cutsIn: CorePool | null = null;
   /** Best bound proven at the root of the search (kept for a search cut short). */
   rootBound = -Infinity;
 
@@ -688,15 +768,32 @@ class BranchAndBound {
 
   /**
    * Lagrangian bound at the duals of the LP relaxation (dense dual simplex on
-   * the live rows and columns, budget K ≥ 0 or none), relative to the node's
-   * cost. The bound is evaluated from the multipliers, so it is proven
+   * the live rows and columns, budget K ≥ 0 or none, and the search's cuts
+   * with taken columns at 1 and dropped ones at 0), relative to the node's
+   * cost. With `cutRounds`, new cuts are added round by round while the bound
+   * rises and stays below the incumbent; they join the search's cuts, so this
+   * is for the root only. The bound is evaluated from the multipliers, so it is proven
    * whatever the simplex's rounding. Returns "infeasible" when the simplex
    * certifies that no fractional cover fits the budget, null when it could
    * not run to the end or the bound does not beat `beat`. The subgradient's
    * multipliers stay as they are: children started from the LP's vertex
    * duals searched up to six times longer in trials.
    */
-  private lpBound(rowsA: Uint32Array, liveCols: number[], K: number, beat: number, maxRows = TUNING.lpMaxRows): { lb: number; rc: Float64Array; liveCols: number[]; x: Float64Array } | "infeasible" | null {
+  private lpBound(
+    rowsA: Uint32Array,
+    liveCols: number[],
+    K: number,
+    beat: number,
+    maxRows = TUNING.lpMaxRows,
+    /** The columns taken on the way to this node (at 1 in the cuts). */
+    here: number[] = [],
+    /** Rounds of Chvátal–Gomory cuts to add (only where the cuts hold for the whole search: the root). */
+    cutRounds = 0,
+    /** The node's cost (the cut rounds stop when the bound meets the incumbent). */
+    cost = 0,
+    /** When given, the LP solutions (before each cut round and the last) are rounded for an incumbent. */
+    colsA?: Uint32Array,
+  ): LpNode | "infeasible" | null {
     const liveRows = members(rowsA);
     const local = new Int32Array(this.R).fill(-1);
     for (let i = 0; i < liveRows.length; i++) local[liveRows[i]!] = i;
@@ -711,24 +808,98 @@ class BranchAndBound {
       cols.push(Int32Array.from(rs));
       w.push(this.w[c]!);
     }
-    const res = coverLpDuals(liveRows.length, cols, w, K, this.deadline);
-    if (res.status === "infeasible") return "infeasible";
-    if (res.status !== "optimal") return null;
-    const mu = K >= 0 ? res.mu : 0;
-    let L = -mu * Math.max(0, K);
-    for (let i = 0; i < liveRows.length; i++) L += res.u[i]!;
-    const rc = new Float64Array(this.cols.length);
-    for (let i = 0; i < liveCols.length; i++) {
-      let s = w[i]! + mu;
-      const l = cols[i]!;
-      for (let q = 0; q < l.length; q++) s -= res.u[l[q]!]!;
-      rc[liveCols[i]!] = s;
-      if (s < 0) L += s;
+    // The cuts at this node: taken columns at 1, columns no longer live at 0.
+    const lpCuts: LpCut[] = [];
+    if (this.cuts.length) {
+      const colLocal = new Int32Array(this.cols.length).fill(-1);
+      for (let i = 0; i < liveCols.length; i++) colLocal[liveCols[i]!] = i;
+      const taken = new Uint8Array(this.cols.length);
+      for (const c of here) taken[c] = 1;
+      for (const cut of this.cuts) {
+        let rhs = cut.rhs;
+        let most = 0;
+        let least = 0;
+        const idx: number[] = [];
+        const val: number[] = [];
+        for (let k = 0; k < cut.cols.length; k++) {
+          const c = cut.cols[k]!;
+          const v = cut.val[k]!;
+          if (colLocal[c]! >= 0) {
+            idx.push(colLocal[c]!);
+            val.push(v);
+            if (v > 0) most += v;
+            else least += v;
+          } else if (taken[c]) rhs -= v;
+        }
+        if (least > rhs) return "infeasible";
+        if (most <= rhs) continue;
+        lpCuts.push({ cols: Int32Array.from(idx), val: Int32Array.from(val), rhs });
+      }
     }
+    // Room for the cut rounds' rows and a dive's first fixings, so that adding them allocates nothing.
+    let lp = new CoverLp(liveRows.length, cols, w, K, lpCuts, cutRounds > 0 ? cutRounds * TUNING.cutsPerRound + 16 : 0);
+    let status = lp.solve(this.deadline, 50 * (liveRows.length + lpCuts.length + 1));
+    // With `colsA`, every LP solution met is rounded for an incumbent (once: the LP grows in place, its rows and pivots tell its solutions apart).
+    let rounded = "";
+    const roundAt = (at: CoverLp) => {
+      const key = `${at.M}:${at.iterations}`;
+      if (rounded === key) return;
+      rounded = key;
+      const xl = at.primal();
+      const xs = new Float64Array(this.cols.length);
+      for (let i = 0; i < liveCols.length; i++) xs[liveCols[i]!] = xl[i]!;
+      this.lpRounding(rowsA, colsA!, xs, liveCols, cost, here);
+    };
+    let lastObj = cutRounds > 0 && status === "optimal" ? lp.objective() : 0;
+    for (let round = 0; round < cutRounds && status === "optimal"; round++) {
+      if (colsA) roundAt(lp);
+      // The weights are integers: a bound that rounds up to the incumbent needs no more cuts.
+      if (cost + Math.ceil(lastObj - 1e-6) >= this.best) break;
+      const fresh = lp.gomoryCuts(TUNING.cutsPerRound);
+      if (fresh.length === 0) break;
+      for (const f of fresh) {
+        lpCuts.push(f);
+        this.cuts.push({ cols: Int32Array.from(f.cols, (i) => liveCols[i]!), val: f.val, rhs: f.rhs });
+      }
+      lp = lp.withCuts(fresh);
+      status = lp.solve(this.deadline, 50 * (liveRows.length + lpCuts.length + 1));
+      if (status !== "optimal") break;
+      const obj = lp.objective();
+      if (obj < lastObj + 1e-3) break;
+      lastObj = obj;
+    }
+    if (status === "infeasible") return "infeasible";
+    if (status !== "optimal") return null;
+    if (colsA) roundAt(lp);
+    const u = lp.duals();
+    const lam = lp.cutDuals();
+    const mu = K >= 0 ? lp.budgetDual() : 0;
+    let L = -mu * Math.max(0, K);
+    for (let i = 0; i < liveRows.length; i++) L += u[i]!;
+    const rc = new Float64Array(this.cols.length);
+    const s = new Float64Array(liveCols.length);
+    for (let i = 0; i < liveCols.length; i++) {
+      let v = w[i]! + mu;
+      const l = cols[i]!;
+      for (let q = 0; q < l.length; q++) v -= u[l[q]!]!;
+      s[i] = v;
+    }
+    for (let g = 0; g < lpCuts.length; g++) {
+      const lg = lam[g]!;
+      if (lg === 0) continue;
+      const cut = lpCuts[g]!;
+      L -= lg * cut.rhs;
+      for (let k = 0; k < cut.cols.length; k++) s[cut.cols[k]!]! += lg * cut.val[k]!;
+    }
+    for (let i = 0; i < liveCols.length; i++) {
+      rc[liveCols[i]!] = s[i]!;
+      if (s[i]! < 0) L += s[i]!;
+    }
+    const xl = lp.primal();
     const x = new Float64Array(this.cols.length);
-    for (let i = 0; i < liveCols.length; i++) x[liveCols[i]!] = res.x[i]!;
+    for (let i = 0; i < liveCols.length; i++) x[liveCols[i]!] = xl[i]!;
     if (!(L > beat)) return null;
-    return { lb: L, rc, liveCols, x };
+    return { lb: L, rc, liveCols, x, lp };
   }
 
   /**
@@ -882,6 +1053,41 @@ class BranchAndBound {
     }
   }
 
+  /**
+   * LP diving for an incumbent: columns at or near 1 (else the largest
+   * fractional one) are fixed at 1 by single-column rows added to the solved
+   * LP, which goes on by dual simplex from its basis; after each step the
+   * solution is rounded. Stops when the LP turns integral, infeasible, or
+   * its bound reaches the incumbent. The fixing rows hold only for the dive.
+   */
+  private dive(node: LpNode, rowsA: Uint32Array, colsA: Uint32Array, cost: number, here: number[]): void {
+    let lp = node.lp;
+    const n = node.liveCols.length;
+    const fixed = new Uint8Array(n);
+    for (let step = 0; step < TUNING.diveSteps; step++) {
+      const x = lp.primal();
+      const fix: number[] = [];
+      let top = -1;
+      for (let i = 0; i < n; i++) {
+        if (fixed[i]) continue;
+        const v = x[i]!;
+        if (v > 1 - 1e-9 || v < 1e-9) continue;
+        if (v >= TUNING.diveFixAbove) fix.push(i);
+        if (top < 0 || v > x[top]!) top = i;
+      }
+      if (top < 0) break; // integral
+      if (fix.length === 0) fix.push(top);
+      for (const i of fix) fixed[i] = 1;
+      lp = lp.withCuts(fix.map((i) => ({ cols: Int32Array.of(i), val: Int32Array.of(-1), rhs: -1 })));
+      if (lp.solve(this.deadline) !== "optimal") return;
+      const xl = lp.primal();
+      const xs = new Float64Array(this.cols.length);
+      for (let i = 0; i < n; i++) xs[node.liveCols[i]!] = xl[i]!;
+      this.lpRounding(rowsA, colsA, xs, node.liveCols, cost, here);
+      if (cost + Math.ceil(lp.objective() - 1e-6) >= this.best) return;
+    }
+  }
+
   /** LP rounding: the support of the LP solution, largest values first, then the cheapest per new row. */
   private lpRounding(rowsA: Uint32Array, colsA: Uint32Array, x: Float64Array, liveCols: number[], cost: number, here: number[]): void {
     const key = new Float64Array(this.cols.length);
@@ -901,6 +1107,15 @@ class BranchAndBound {
     if (add < 0) return;
     cost += add;
     const here = chosen.concat(picked);
+    if (depth === 0) {
+      this.rootLive = colsA.slice();
+      this.rootTaken = here.slice().sort((a, b) => a - b);
+      // Cuts found by an earlier search hold here when its root left the same columns live and taken.
+      const pool = this.cutsIn;
+      if (pool && sameBits(pool.live, this.rootLive) && pool.taken.length === here.length && pool.taken.every((c, i) => c === this.rootTaken[i])) {
+        for (const cut of pool.cuts) this.cuts.push(cut);
+      }
+    }
     const K = this.card < 0 ? -1 : this.card - here.length;
     if (this.card >= 0 && K < 0) return;
     const { lb, branchRow, independent } = this.bound(rowsA, colsA);
@@ -916,25 +1131,23 @@ class BranchAndBound {
     let lpFix: { lb: number; rc: Float64Array } | null = null;
     if (this.rootOnly) {
       // Root only: the LP relaxation and its rounding, no subgradient steps; the search stops unless they close the gap.
-      const res = this.lpBound(rowsA, members(colsA), K, -Infinity, TUNING.rootOnlyMaxRows);
+      const res = this.lpBound(rowsA, members(colsA), K, -Infinity, TUNING.rootOnlyMaxRows, here, TUNING.rootCutRounds, cost, colsA);
       if (res && res !== "infeasible") {
-        this.lpRounding(rowsA, colsA, res.x, res.liveCols, cost, here);
-        if (cost + Math.ceil(res.lb - 1e-6) >= this.best) {
-          this.rootBound = Math.max(this.rootBound, cost + Math.ceil(res.lb - 1e-6));
-          return;
-        }
+        if (cost + Math.ceil(res.lb - 1e-6) < this.best) this.dive(res, rowsA, colsA, cost, here);
+        this.rootBound = Math.max(this.rootBound, cost + lb, cost + Math.ceil(res.lb - 1e-6));
+        if (cost + Math.ceil(res.lb - 1e-6) >= this.best) return;
       }
       this.aborted = true;
       return;
     }
     // In the literal phase the root solves its LP first: when the LP's rounding meets the LP bound,
     // the root's subgradient steps would only confirm it.
-    let rootLp: { lb: number; rc: Float64Array; liveCols: number[]; x: Float64Array } | null = null;
+    let rootLp: LpNode | null = null;
     if (depth === 0 && K >= 0 && depth <= TUNING.lpDepth) {
-      const res = this.lpBound(rowsA, members(colsA), K, -Infinity);
+      const res = this.lpBound(rowsA, members(colsA), K, -Infinity, TUNING.lpMaxRows, here, TUNING.cutRounds, cost, colsA);
       if (res === "infeasible") return;
       if (res) {
-        this.lpRounding(rowsA, colsA, res.x, res.liveCols, cost, here);
+        if (cost + Math.ceil(res.lb - 1e-6) < this.best) this.dive(res, rowsA, colsA, cost, here);
         if (cost + Math.ceil(res.lb - 1e-6) >= this.best) {
           this.rootBound = Math.max(this.rootBound, cost + Math.ceil(res.lb - 1e-6));
           return;
@@ -951,7 +1164,7 @@ class BranchAndBound {
     else if (depth <= TUNING.lpDepth && K >= 0) {
       // Subgradient steps stall short of the LP optimum; the simplex duals close that gap
       // (at every node: both covering phases of the eleven random 10-input bench cases took 0.7× the time of root only).
-      const res = this.lpBound(rowsA, lag.liveCols, K, lag.lb);
+      const res = this.lpBound(rowsA, lag.liveCols, K, lag.lb, TUNING.lpMaxRows, here);
       // No fractional cover fits the budget: neither does a cover.
       if (res === "infeasible") return;
       if (res) {

@@ -488,14 +488,20 @@ function lexicographicCover(prob: CoveringProblem, model: CostModel, deadline: n
   }
   // The root's rounded cover, when there is one, starts both searches.
   const first = Number.isFinite(s0.weight) ? s0.chosen : undefined;
-  const s1 = solveCover({ colRows, weight: lits.map(() => 1), rowCount, deadline, rowCols: rc, incumbent: first });
+  // The root's bound proves the fewest products when no cover of one product less reaches it
+  // (each of its products weighs at most PRODUCT_WEIGHT + mostLits): the product search is then not needed.
+  const proven = first !== undefined && s0.lowerBound > (first.length - 1) * (PRODUCT_WEIGHT + mostLits);
+  const s1 = proven
+    ? { chosen: first, exact: true, lowerBound: first.length }
+    : solveCover({ colRows, weight: lits.map(() => 1), rowCount, deadline, rowCols: rc, incumbent: first });
   const P = s1.chosen.length;
   let start = swapForFewerLiterals(s1.chosen, colRows, lits, rowCount, rc);
   if (first && first.length <= P) {
     const litsOf = (cs: number[]) => cs.reduce((a, c) => a + lits[c]!, 0);
     if (litsOf(first) < litsOf(start)) start = first;
   }
-  const s2 = solveCover({ colRows, weight: lits, rowCount, deadline, incumbent: start, maxColumns: P, rowCols: rc });
+  // The root's cuts hold for the literal search too: its root reductions, the same under the literal weights, are checked.
+  const s2 = solveCover({ colRows, weight: lits, rowCount, deadline, incumbent: start, maxColumns: P, rowCols: rc, cuts: s0.cuts });
   const chosen = s2.chosen.length === P || !s1.exact ? s2.chosen : s1.chosen;
   const w = chosen.reduce((a, c) => a + weight[c]!, 0);
   // Bound in the combined scale: at least the proven product count, each with at least one literal... kept simple:

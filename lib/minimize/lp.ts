@@ -12,6 +12,13 @@
  * never soundness.
  */
 
+/** A valid inequality Σ val_k · x_{cols_k} ≤ rhs with integer coefficients (a Chvátal–Gomory cut). */
+export interface LpCut {
+  cols: Int32Array;
+  val: Int32Array;
+  rhs: number;
+}
+
 export interface CoverLpResult {
   /** Row multipliers u_r ≥ 0 (one per row of the problem). */
   u: Float64Array;
@@ -28,16 +35,27 @@ export interface CoverLpResult {
 
 /**
  * The covering LP with a dense basis inverse. Rows: -a_r·x + t_r = -1
- * (t_r ≥ 0) and Σx + t = K; the slacks t are variables n .. n+M-1, the
- * columns 0 .. n-1 lie in [0, 1] (a nonbasic column sits at 0 or at 1).
+ * (t_r ≥ 0), Σx + t = K, and cut rows g·x + t_g = rhs_g; the slacks t are
+ * variables n .. n+M-1, the columns 0 .. n-1 lie in [0, 1] (a nonbasic
+ * column sits at 0 or at 1). Every row has integer coefficients and an
+ * integer right-hand side, so every slack of an integer point is an integer.
  */
 export class CoverLp {
   readonly n: number;
-  readonly M: number;
+  /** Rows now (covering rows, the budget, cuts); grows as cuts are added. */
+  M: number;
+  /** Room for rows: the stride of B⁻¹'s rows and the length of the per-row arrays. */
+  private readonly S: number;
   private readonly hasCard: boolean;
   private readonly card: number;
-  private readonly NV: number;
-  /** The simplex state: basis inverse (by rows), basis, each variable's basis row (-1 nonbasic), basic values,
+  /** Index of the first cut row. */
+  private readonly cutBase: number;
+  private readonly cutList: LpCut[];
+  /** Columns → cut rows (CSR): the cut rows of column j are colCutRow[colCutStart[j] ..), coefficients colCutVal. */
+  private colCutStart = new Int32Array(0);
+  private colCutRow = new Int32Array(0);
+  private colCutVal = new Int32Array(0);
+  /** The simplex state: basis inverse (by rows, stride S), basis, each variable's basis row (-1 nonbasic), basic values,
    * nonbasic columns at 1, reduced costs, dual steepest-edge weights. */
   private readonly Binv: Float64Array;
   private readonly basis: Int32Array;
@@ -64,24 +82,34 @@ export class CoverLp {
     readonly cols: Int32Array[],
     readonly w: ArrayLike<number>,
     readonly K = -1,
+    cuts: readonly LpCut[] = [],
+    /** Room for this many more rows (cuts added later by {@link withCuts} without a new allocation). */
+    spare = 0,
   ) {
+    // A copy: the caller's list may grow.
+    this.cutList = cuts.slice();
     const n = cols.length;
     this.n = n;
     this.hasCard = K >= 0;
-    const M = rowCount + (this.hasCard ? 1 : 0);
+    this.cutBase = rowCount + (this.hasCard ? 1 : 0);
+    const M = this.cutBase + cuts.length;
     this.M = M;
+    const S = M + Math.max(0, spare);
+    this.S = S;
     this.card = rowCount;
-    this.NV = n + M;
-    const Binv = new Float64Array(M * M);
-    for (let i = 0; i < M; i++) Binv[i * M + i] = 1;
-    const basis = new Int32Array(M);
+    this.indexCuts();
+    const NV = n + S;
+    const Binv = new Float64Array(S * S);
+    for (let i = 0; i < M; i++) Binv[i * S + i] = 1;
+    const basis = new Int32Array(S);
     for (let i = 0; i < M; i++) basis[i] = n + i;
-    const pos = new Int32Array(this.NV).fill(-1);
+    const pos = new Int32Array(NV).fill(-1);
     for (let i = 0; i < M; i++) pos[n + i] = i;
-    const xB = new Float64Array(M);
+    const xB = new Float64Array(S);
     for (let i = 0; i < rowCount; i++) xB[i] = -1;
     if (this.hasCard) xB[this.card] = K;
-    const d = new Float64Array(this.NV);
+    cuts.forEach((cut, g) => (xB[this.cutBase + g] = cut.rhs));
+    const d = new Float64Array(NV);
     // A tiny spread of the costs breaks the heavy dual degeneracy of covering LPs.
     let seed = 0x9e3779b9;
     for (let c = 0; c < n; c++) {
@@ -92,22 +120,48 @@ export class CoverLp {
     this.basis = basis;
     this.pos = pos;
     this.xB = xB;
-    this.atUpper = new Uint8Array(this.NV);
+    this.atUpper = new Uint8Array(NV);
     this.d = d;
-    this.beta = new Float64Array(M).fill(1);
-    this.alpha = new Float64Array(this.NV);
-    this.colq = new Float64Array(M);
-    this.rowp = new Float64Array(M);
-    this.nzIdx = new Int32Array(M);
+    this.beta = new Float64Array(S).fill(1);
+    this.alpha = new Float64Array(NV);
+    this.colq = new Float64Array(S);
+    this.rowp = new Float64Array(S);
+    this.nzIdx = new Int32Array(S);
     this.rowStart = new Int32Array(rowCount + 1);
     for (const l of cols) for (let k = 0; k < l.length; k++) this.rowStart[l[k]! + 1]!++;
     for (let r = 0; r < rowCount; r++) this.rowStart[r + 1]! += this.rowStart[r]!;
     this.rowCols = new Int32Array(this.rowStart[rowCount]!);
     const fill = this.rowStart.slice(0, rowCount);
     for (let c = 0; c < n; c++) for (const r of cols[c]!) this.rowCols[fill[r]!++] = c;
-    this.rowNz = new Int32Array(M);
+    this.rowNz = new Int32Array(S);
     this.seen = new Int32Array(n);
-    this.touched = new Int32Array(this.NV);
+    this.touched = new Int32Array(NV);
+  }
+
+  /** The cut rows, in row order. */
+  get cuts(): readonly LpCut[] {
+    return this.cutList;
+  }
+
+  /** Columns → cut rows, from the cut list. */
+  private indexCuts(): void {
+    const n = this.n;
+    const start = new Int32Array(n + 1);
+    for (const cut of this.cutList) for (let k = 0; k < cut.cols.length; k++) start[cut.cols[k]! + 1]!++;
+    for (let j = 0; j < n; j++) start[j + 1]! += start[j]!;
+    const row = new Int32Array(start[n]!);
+    const val = new Int32Array(start[n]!);
+    const at = start.slice(0, n);
+    this.cutList.forEach((cut, g) => {
+      for (let k = 0; k < cut.cols.length; k++) {
+        const j = cut.cols[k]!;
+        row[at[j]!] = this.cutBase + g;
+        val[at[j]!++] = cut.val[k]!;
+      }
+    });
+    this.colCutStart = start;
+    this.colCutRow = row;
+    this.colCutVal = val;
   }
 
   private value(j: number): number {
@@ -123,7 +177,7 @@ export class CoverLp {
    */
   solve(deadline = Infinity, maxIters = 50 * (this.M + 1)): "optimal" | "infeasible" | "stopped" {
     const { Binv, basis, pos, xB, atUpper, d, beta } = this;
-    const { n, M, alpha, colq, rowp, nzIdx, cols, rowStart, rowCols, rowNz, seen, touched, rowCount } = this;
+    const { n, M, S, alpha, colq, rowp, nzIdx, cols, rowStart, rowCols, rowNz, seen, touched, rowCount, cuts, cutBase, colCutStart, colCutRow, colCutVal } = this;
     const hasCard = this.hasCard;
     const card = this.card;
     const tolP = 1e-9;
@@ -162,7 +216,7 @@ export class CoverLp {
       // (a column's entry is the budget entry less the row entries it covers), and the dual ratio test.
       let nzp = 0;
       for (let k = 0; k < M; k++) {
-        const v = Binv[p * M + k]!;
+        const v = Binv[p * S + k]!;
         rowp[k] = v;
         if (v !== 0) rowNz[nzp++] = k;
       }
@@ -170,16 +224,28 @@ export class CoverLp {
       let nt = 0;
       for (let t = 0; t < nzp; t++) {
         const k = rowNz[t]!;
-        if (k >= rowCount) continue;
         const v = rowp[k]!;
-        for (let e = rowStart[k]!; e < rowStart[k + 1]!; e++) {
-          const j = rowCols[e]!;
-          if (seen[j] !== st) {
-            seen[j] = st;
-            alpha[j] = 0;
-            touched[nt++] = j;
+        if (k < rowCount) {
+          for (let e = rowStart[k]!; e < rowStart[k + 1]!; e++) {
+            const j = rowCols[e]!;
+            if (seen[j] !== st) {
+              seen[j] = st;
+              alpha[j] = 0;
+              touched[nt++] = j;
+            }
+            alpha[j]! -= v;
           }
-          alpha[j]! -= v;
+        } else if (k >= cutBase) {
+          const cut = cuts[k - cutBase]!;
+          for (let e = 0; e < cut.cols.length; e++) {
+            const j = cut.cols[e]!;
+            if (seen[j] !== st) {
+              seen[j] = st;
+              alpha[j] = 0;
+              touched[nt++] = j;
+            }
+            alpha[j]! += v * cut.val[e]!;
+          }
         }
       }
       const base = hasCard ? rowp[card]! : 0;
@@ -218,17 +284,20 @@ export class CoverLp {
       // Entering column B⁻¹ a_q.
       if (q < n) {
         const l = cols[q]!;
+        const c0 = colCutStart[q]!;
+        const c1 = colCutStart[q + 1]!;
         for (let i = 0; i < M; i++) {
-          const row = i * M;
+          const row = i * S;
           let sum = hasCard ? Binv[row + card]! : 0;
           for (let k = 0; k < l.length; k++) sum -= Binv[row + l[k]!]!;
+          for (let e = c0; e < c1; e++) sum += colCutVal[e]! * Binv[row + colCutRow[e]!]!;
           colq[i] = sum;
         }
       } else {
-        for (let i = 0; i < M; i++) colq[i] = Binv[i * M + (q - n)]!;
+        for (let i = 0; i < M; i++) colq[i] = Binv[i * S + (q - n)]!;
       }
       const apq = colq[p]!;
-      if (Math.abs(apq) < tolPiv) return "stopped"; // the row and column disagree numerically
+      if (Math.abs(apq) < tolPiv) return "stopped"; // the row and column disagree numerically // the row and column disagree numerically
       const thetaD = d[q]! / apq;
       for (let t = 0; t < nt; t++) {
         const j = touched[t]!;
@@ -248,33 +317,37 @@ export class CoverLp {
       pos[q] = p;
       pos[leave] = -1;
       // B⁻¹ ← E B⁻¹. The pivot row of B⁻¹ stays sparse for a long time: update over its nonzeros only.
+      // Entries and multipliers that are rounding noise (below 1e-13) are dropped, which keeps B⁻¹ as
+      // sparse as it really is; the bounds and cuts are computed from the problem's data, so this can only cost tightness.
       // The row norms follow exactly: |r_i − f r_p|² = β_i − 2f (r_i·r_p) + f² β_p.
-      const prow = p * M;
+      const prow = p * S;
       const inv = 1 / apq;
       let nz = 0;
       let bp = 0;
       for (let k = 0; k < M; k++) {
         const v = Binv[prow + k]!;
-        if (v !== 0) {
+        if (v > 1e-13 || v < -1e-13) {
           const s2 = v * inv;
           Binv[prow + k] = s2;
           bp += s2 * s2;
           nzIdx[nz++] = k;
-        }
+        } else Binv[prow + k] = 0;
       }
       beta[p] = bp;
       for (let i = 0; i < M; i++) {
         if (i === p) continue;
         const f = colq[i]!;
-        if (f === 0) continue;
-        const row = i * M;
+        if (f < 1e-13 && f > -1e-13) continue;
+        const row = i * S;
         let dot = 0;
         for (let t = 0; t < nz; t++) {
           const k = nzIdx[t]!;
           const pk = Binv[prow + k]!;
           const v = Binv[row + k]!;
           dot += v * pk;
-          Binv[row + k] = v - f * pk;
+          // Entries that cancel to rounding noise are dropped, keeping B⁻¹ as sparse as it really is.
+          const nv = v - f * pk;
+          Binv[row + k] = nv;
         }
         const b = beta[i]! - 2 * f * dot + f * f * bp;
         beta[i] = b > 1e-12 ? b : 1e-12;
@@ -287,18 +360,20 @@ export class CoverLp {
    * Whether row p of B⁻¹ proves the LP infeasible (a Farkas certificate):
    * with y that row, every point satisfies Σ_j (yᵀA_j)·x_j + Σ_i y_i·t_i = yᵀb.
    * Over the box every feasible point lies in (columns in [0, 1], a row's
-   * surplus in [0, its columns − 1], the budget's in [0, K]) the left side's
+   * surplus in [0, its columns − 1], the budget's in [0, K], a cut's in
+   * [0, its rhs less its least value]) the left side's
    * range is computed from the problem's own data, not from the basis; when
    * yᵀb lies outside it by more than a rounding margin, no point exists. Any
    * y makes a valid certificate, so errors in B⁻¹ can only lose one.
    */
   private certifiedInfeasible(p: number): boolean {
     const { Binv } = this;
-    const { n, M, cols, rowCount, rowStart } = this;
-    const y = (k: number) => Binv[p * M + k]!;
+    const { n, cols, rowCount, rowStart } = this;
+    const y = (k: number) => Binv[p * this.S + k]!;
     const yCard = this.hasCard ? y(this.card) : 0;
     let rhs = this.hasCard ? yCard * this.K : 0;
     for (let r = 0; r < rowCount; r++) rhs -= y(r);
+    this.cuts.forEach((cut, g) => (rhs += y(this.cutBase + g) * cut.rhs));
     let lo = 0;
     let hi = 0;
     let scale = Math.abs(rhs);
@@ -311,10 +386,17 @@ export class CoverLp {
       let a = yCard;
       const l = cols[j]!;
       for (let k = 0; k < l.length; k++) a -= y(l[k]!);
+      for (let e = this.colCutStart[j]!; e < this.colCutStart[j + 1]!; e++) a += this.colCutVal[e]! * y(this.colCutRow[e]!);
       add(a, 1);
     }
     for (let r = 0; r < rowCount; r++) add(y(r), Math.max(0, rowStart[r + 1]! - rowStart[r]! - 1));
     if (this.hasCard) add(yCard, this.K);
+    // A cut's slack rhs − g·x lies in [0, rhs − (the least g·x over the box)].
+    this.cuts.forEach((cut, g) => {
+      let least = 0;
+      for (let k = 0; k < cut.val.length; k++) if (cut.val[k]! < 0) least += cut.val[k]!;
+      add(y(this.cutBase + g), Math.max(0, cut.rhs - least));
+    });
     const margin = 1e-7 * (1 + scale);
     return rhs > hi + margin || rhs < lo - margin;
   }
@@ -330,6 +412,176 @@ export class CoverLp {
   budgetDual(): number {
     const { pos, d } = this;
     return this.hasCard && pos[this.n + this.card]! < 0 ? Math.max(0, d[this.n + this.card]!) : 0;
+  }
+
+  /**
+   * The LP with `fresh` cuts appended, warm-started at this basis: each new
+   * row's slack joins the basis (B⁻¹'s new row is −π_B B⁻¹ with a 1 for the
+   * slack), so the reduced costs stay dual feasible and the dual simplex goes
+   * on from here. In place (returning this LP) while its room lasts, else a
+   * copy with more room.
+   */
+  withCuts(fresh: readonly LpCut[]): CoverLp {
+    if (this.M + fresh.length > this.S) {
+      const next = new CoverLp(this.rowCount, this.cols, this.w, this.K, this.cutList, fresh.length + Math.max(16, this.S >> 3));
+      next.copyState(this);
+      return next.withCuts(fresh);
+    }
+    const { n, S, Binv, basis } = this;
+    const M = this.M;
+    const x = this.primal();
+    const coef = new Float64Array(n);
+    fresh.forEach((cut, g) => {
+      const i = M + g;
+      const row = i * S;
+      Binv.fill(0, row, row + S);
+      coef.fill(0);
+      let lhs = 0;
+      for (let k = 0; k < cut.cols.length; k++) {
+        coef[cut.cols[k]!] = cut.val[k]!;
+        lhs += cut.val[k]! * x[cut.cols[k]!]!;
+      }
+      for (let k = 0; k < M; k++) {
+        const j = basis[k]!;
+        if (j >= n || coef[j] === 0) continue;
+        const f = coef[j]!;
+        const src = k * S;
+        for (let q = 0; q < M; q++) Binv[row + q]! -= f * Binv[src + q]!;
+      }
+      Binv[row + i] = 1;
+      let b = 0;
+      for (let q = 0; q <= i; q++) b += Binv[row + q]! ** 2;
+      this.beta[i] = b;
+      basis[i] = n + i;
+      this.pos[n + i] = i;
+      this.xB[i] = cut.rhs - lhs;
+      this.d[n + i] = 0;
+      this.atUpper[n + i] = 0;
+      this.cutList.push(cut);
+    });
+    this.M = M + fresh.length;
+    this.indexCuts();
+    return this;
+  }
+
+  /** Takes over the simplex state of `from`, an LP of the same rows and columns with no more room than this one. */
+  private copyState(from: CoverLp): void {
+    const { n } = this;
+    const M = from.M;
+    for (let i = 0; i < M; i++) this.Binv.set(from.Binv.subarray(i * from.S, i * from.S + M), i * this.S);
+    this.basis.set(from.basis.subarray(0, M));
+    this.xB.set(from.xB.subarray(0, M));
+    this.beta.set(from.beta.subarray(0, M));
+    this.pos.fill(-1);
+    for (let i = 0; i < M; i++) this.pos[from.basis[i]!] = i;
+    this.atUpper.set(from.atUpper.subarray(0, n + M));
+    this.d.set(from.d.subarray(0, n + M));
+    this.iterations = from.iterations;
+  }
+
+  /** Σ w·x at the current basis (the weights as given, without the tie-breaking spread). */
+  objective(): number {
+    let o = 0;
+    for (let c = 0; c < this.n; c++) o += this.w[c]! * this.value(c);
+    return o;
+  }
+
+  /** Cut duals λ_g ≥ 0, one per cut row. */
+  cutDuals(): Float64Array {
+    const { pos, d } = this;
+    const out = new Float64Array(this.cuts.length);
+    for (let g = 0; g < out.length; g++) {
+      const j = this.n + this.cutBase + g;
+      out[g] = pos[j]! >= 0 ? 0 : Math.max(0, d[j]!);
+    }
+    return out;
+  }
+
+  /**
+   * Chvátal–Gomory cuts from the rows of the optimal tableau whose basic
+   * variable is fractional. Each row i is read as e_i(x) ≤ b_i (integer
+   * data); with multipliers λ_i, the fractional parts of B⁻¹'s row rounded
+   * to multiples of 2⁻²⁰, and ν_j = ⌈c_j⌉ − c_j on x_j ≤ 1 for the columns
+   * at 1 (c = λA), the inequality Σ_j ⌊c_j + ν_j⌋ x_j ≤ ⌊λb + Σν⌋ holds for
+   * every integer point: λ ≥ 0 and ν ≥ 0 make any choice valid, and with
+   * dyadic multipliers every sum is exact in floating point, so the cut does
+   * not depend on the simplex's rounding. Returns the cuts the current
+   * point violates by more than `minViolation`, most violated (per unit of
+   * coefficient norm) first, at most `max`.
+   */
+  gomoryCuts(max: number, minViolation = 0.05): LpCut[] {
+    const { n, M, S, Binv, xB, atUpper, pos, rowCount, rowStart, rowCols, cuts, cutBase, hasCard, card, K } = this;
+    const SCALE = 1048576;
+    const x = this.primal();
+    // The rows whose basic value is most fractional first.
+    const cand: number[] = [];
+    for (let p = 0; p < M; p++) {
+      const f = xB[p]! - Math.floor(xB[p]!);
+      if (f >= 0.01 && f <= 0.99) cand.push(p);
+    }
+    const frac = (p: number) => Math.abs(xB[p]! - Math.floor(xB[p]!) - 0.5);
+    cand.sort((a, b) => frac(a) - frac(b));
+    if (cand.length > 4 * max) cand.length = 4 * max;
+    const found: { cut: LpCut; score: number }[] = [];
+    const c = new Float64Array(n);
+    const seenKey = new Set<string>();
+    for (const p of cand) {
+      // c = λA and λb, exactly (dyadic λ, integer data), over the nonzero multipliers only.
+      c.fill(0);
+      let lb = 0;
+      let any = false;
+      for (let i = 0; i < M; i++) {
+        const y = Binv[p * S + i]!;
+        if (y === 0) continue;
+        const l = Math.round((y - Math.floor(y)) * SCALE) / SCALE;
+        if (l >= 1 || l < 1e-6) continue;
+        any = true;
+        if (i < rowCount) {
+          lb -= l;
+          for (let e = rowStart[i]!; e < rowStart[i + 1]!; e++) c[rowCols[e]!]! -= l;
+        } else if (hasCard && i === card) {
+          lb += l * K;
+          for (let j = 0; j < n; j++) c[j]! += l;
+        } else {
+          const cut = cuts[i - cutBase]!;
+          lb += l * cut.rhs;
+          for (let k = 0; k < cut.cols.length; k++) c[cut.cols[k]!]! += l * cut.val[k]!;
+        }
+      }
+      if (!any) continue;
+      let rhs = lb;
+      const idx: number[] = [];
+      const val: number[] = [];
+      for (let j = 0; j < n; j++) {
+        let cj = c[j]!;
+        if (atUpper[j] === 1 && pos[j]! < 0) {
+          const nu = Math.ceil(cj) - cj;
+          rhs += nu;
+          cj += nu;
+        }
+        const pi = Math.floor(cj);
+        if (pi !== 0) {
+          idx.push(j);
+          val.push(pi);
+        }
+      }
+      if (idx.length === 0) continue;
+      const r0 = Math.floor(rhs);
+      let lhs = 0;
+      let norm = 0;
+      for (let k = 0; k < idx.length; k++) {
+        lhs += val[k]! * x[idx[k]!]!;
+        norm += val[k]! * val[k]!;
+      }
+      const viol = lhs - r0;
+      if (!(viol > minViolation)) continue;
+      const key = idx.join(",") + "|" + val.join(",") + "|" + r0;
+      if (seenKey.has(key)) continue;
+      seenKey.add(key);
+      found.push({ cut: { cols: Int32Array.from(idx), val: Int32Array.from(val), rhs: r0 }, score: viol / Math.sqrt(norm) });
+    }
+    found.sort((a, b) => b.score - a.score);
+    return found.slice(0, max).map((f) => f.cut);
   }
 
   /** Primal column values of the current basis. */
