@@ -45,7 +45,7 @@ export class CoverLp {
   /** Rows now (covering rows, the budget, cuts); grows as cuts are added. */
   M: number;
   /** Room for rows: the stride of B⁻¹'s rows and the length of the per-row arrays. */
-  private readonly S: number;
+  private S: number;
   private readonly hasCard: boolean;
   private readonly card: number;
   /** Index of the first cut row. */
@@ -57,23 +57,23 @@ export class CoverLp {
   private colCutVal = new Int32Array(0);
   /** The simplex state: basis inverse (by rows, stride S), basis, each variable's basis row (-1 nonbasic), basic values,
    * nonbasic columns at 1, reduced costs, dual steepest-edge weights. */
-  private readonly Binv: Float64Array;
-  private readonly basis: Int32Array;
-  private readonly pos: Int32Array;
-  private readonly xB: Float64Array;
-  private readonly atUpper: Uint8Array;
-  private readonly d: Float64Array;
-  private readonly beta: Float64Array;
-  private readonly alpha: Float64Array;
-  private readonly colq: Float64Array;
-  private readonly rowp: Float64Array;
-  private readonly nzIdx: Int32Array;
+  private Binv: Float64Array;
+  private basis: Int32Array;
+  private pos: Int32Array;
+  private xB: Float64Array;
+  private atUpper: Uint8Array;
+  private d: Float64Array;
+  private beta: Float64Array;
+  private alpha: Float64Array;
+  private colq: Float64Array;
+  private rowp: Float64Array;
+  private nzIdx: Int32Array;
   /** Rows → columns (CSR), for the tableau row computed over B⁻¹'s nonzeros. */
   private readonly rowStart: Int32Array;
   private readonly rowCols: Int32Array;
-  private readonly rowNz: Int32Array;
+  private rowNz: Int32Array;
   private readonly seen: Int32Array;
-  private readonly touched: Int32Array;
+  private touched: Int32Array;
   private stamp = 0;
   iterations = 0;
 
@@ -418,15 +418,10 @@ export class CoverLp {
    * The LP with `fresh` cuts appended, warm-started at this basis: each new
    * row's slack joins the basis (B⁻¹'s new row is −π_B B⁻¹ with a 1 for the
    * slack), so the reduced costs stay dual feasible and the dual simplex goes
-   * on from here. In place (returning this LP) while its room lasts, else a
-   * copy with more room.
+   * on from here. In place; returns this LP.
    */
   withCuts(fresh: readonly LpCut[]): CoverLp {
-    if (this.M + fresh.length > this.S) {
-      const next = new CoverLp(this.rowCount, this.cols, this.w, this.K, this.cutList, fresh.length + Math.max(16, this.S >> 3));
-      next.copyState(this);
-      return next.withCuts(fresh);
-    }
+    if (this.M + fresh.length > this.S) this.grow(this.M + fresh.length + Math.max(16, this.S >> 3));
     const { n, S, Binv, basis } = this;
     const M = this.M;
     const x = this.primal();
@@ -464,19 +459,33 @@ export class CoverLp {
     return this;
   }
 
-  /** Takes over the simplex state of `from`, an LP of the same rows and columns with no more room than this one. */
-  private copyState(from: CoverLp): void {
-    const { n } = this;
-    const M = from.M;
-    for (let i = 0; i < M; i++) this.Binv.set(from.Binv.subarray(i * from.S, i * from.S + M), i * this.S);
-    this.basis.set(from.basis.subarray(0, M));
-    this.xB.set(from.xB.subarray(0, M));
-    this.beta.set(from.beta.subarray(0, M));
-    this.pos.fill(-1);
-    for (let i = 0; i < M; i++) this.pos[from.basis[i]!] = i;
-    this.atUpper.set(from.atUpper.subarray(0, n + M));
-    this.d.set(from.d.subarray(0, n + M));
-    this.iterations = from.iterations;
+  /** Room for `S2` rows: the per-row arrays and B⁻¹ (at the new stride) are copied into larger ones. */
+  private grow(S2: number): void {
+    const { n, S, M } = this;
+    const Binv = new Float64Array(S2 * S2);
+    for (let i = 0; i < M; i++) Binv.set(this.Binv.subarray(i * S, i * S + M), i * S2);
+    this.Binv = Binv;
+    const more = <T extends Float64Array | Int32Array | Uint8Array>(a: T, len: number): T => {
+      const b = new (a.constructor as { new (len: number): T })(len);
+      b.set(a);
+      return b;
+    };
+    this.basis = more(this.basis, S2);
+    this.xB = more(this.xB, S2);
+    this.beta = more(this.beta, S2);
+    this.colq = new Float64Array(S2);
+    this.rowp = new Float64Array(S2);
+    this.nzIdx = new Int32Array(S2);
+    this.rowNz = new Int32Array(S2);
+    // Variables: the columns, then one slack per row.
+    const pos = new Int32Array(n + S2).fill(-1);
+    pos.set(this.pos.subarray(0, n + S));
+    this.pos = pos;
+    this.atUpper = more(this.atUpper, n + S2);
+    this.d = more(this.d, n + S2);
+    this.alpha = new Float64Array(n + S2);
+    this.touched = new Int32Array(n + S2);
+    this.S = S2;
   }
 
   /** Σ w·x at the current basis (the weights as given, without the tie-breaking spread). */
