@@ -533,7 +533,10 @@ export class CoverLp {
     if (cand.length > 4 * max) cand.length = 4 * max;
     const found: { cut: LpCut; score: number }[] = [];
     const c = new Float64Array(n);
-    const seenKey = new Set<string>();
+    const idx = new Int32Array(n);
+    const val = new Int32Array(n);
+    // Cuts met twice are kept once, told apart by a hash (a collision can only drop a cut).
+    const seenKey = new Set<number>();
     for (const p of cand) {
       // c = λA and λb, exactly (dyadic λ, integer data), over the nonzero multipliers only.
       c.fill(0);
@@ -559,8 +562,10 @@ export class CoverLp {
       }
       if (!any) continue;
       let rhs = lb;
-      const idx: number[] = [];
-      const val: number[] = [];
+      let nnz = 0;
+      let lhs = 0;
+      let norm = 0;
+      let hash = 0x811c9dc5;
       for (let j = 0; j < n; j++) {
         let cj = c[j]!;
         if (atUpper[j] === 1 && pos[j]! < 0) {
@@ -570,24 +575,22 @@ export class CoverLp {
         }
         const pi = Math.floor(cj);
         if (pi !== 0) {
-          idx.push(j);
-          val.push(pi);
+          idx[nnz] = j;
+          val[nnz++] = pi;
+          lhs += pi * x[j]!;
+          norm += pi * pi;
+          hash = Math.imul(hash ^ j, 16777619);
+          hash = Math.imul(hash ^ (pi & 0xffff), 16777619);
         }
       }
-      if (idx.length === 0) continue;
+      if (nnz === 0) continue;
       const r0 = Math.floor(rhs);
-      let lhs = 0;
-      let norm = 0;
-      for (let k = 0; k < idx.length; k++) {
-        lhs += val[k]! * x[idx[k]!]!;
-        norm += val[k]! * val[k]!;
-      }
       const viol = lhs - r0;
       if (!(viol > minViolation)) continue;
-      const key = idx.join(",") + "|" + val.join(",") + "|" + r0;
-      if (seenKey.has(key)) continue;
-      seenKey.add(key);
-      found.push({ cut: { cols: Int32Array.from(idx), val: Int32Array.from(val), rhs: r0 }, score: viol / Math.sqrt(norm) });
+      hash = Math.imul(hash ^ (r0 | 0), 16777619);
+      if (seenKey.has(hash)) continue;
+      seenKey.add(hash);
+      found.push({ cut: { cols: idx.slice(0, nnz), val: val.slice(0, nnz), rhs: r0 }, score: viol / Math.sqrt(norm) });
     }
     found.sort((a, b) => b.score - a.score);
     return found.slice(0, max).map((f) => f.cut);
