@@ -191,7 +191,7 @@ let NODE_DOMINANCE = 1;
  * at most `cutsPerRound` cuts, and dive at most `diveSteps` steps, fixing at
  * once every column at `diveFixAbove` or more.
  */
-export const TUNING = { diveSteps: 60, diveFixAbove: 0.9, rootCutRounds: 5, cutRounds: 5, cutsPerRound: 20, rootOnlyMaxRows: 400, lpMaxRows: 400, lpDepth: Infinity, rootIters: 600, nodeIters: 100, stall: 15, nodeLambda: 2, heurDepth: 0, heurEvery: 25, ascent: 2, rootAscent: 1, ascentMid: 0.25 };
+export const TUNING = { cutStall: 2, diveSteps: 60, diveFixAbove: 0.9, rootCutRounds: 10, cutRounds: 10, cutsPerRound: 20, rootOnlyMaxRows: 400, lpMaxRows: 400, lpDepth: Infinity, rootIters: 600, nodeIters: 100, stall: 15, nodeLambda: 2, heurDepth: 0, heurEvery: 25, ascent: 2, rootAscent: 1, ascentMid: 0.25 };
 export function setNodeDominance(d: number): void {
   NODE_DOMINANCE = d;
 }
@@ -266,13 +266,14 @@ function sameBits(a: Uint32Array, b: Uint32Array): boolean {
   return true;
 }
 
-/** A node's LP: its bound and reduced costs (over core columns), the solution, and the solved LP (over `liveCols`). */
+/** A node's LP: its bound and reduced costs (over core columns), the solution, and at a root the solved LP (over `liveCols`). */
 interface LpNode {
   lb: number;
   rc: Float64Array;
   liveCols: number[];
   x: Float64Array;
-  lp: CoverLp;
+  /** Kept at a root only, for the dive (then released). */
+  lp: CoverLp | null;
 }
 
 class BranchAndBound {
@@ -787,26 +788,39 @@ class BranchAndBound {
     maxRows = TUNING.lpMaxRows,
     /** The columns taken on the way to this node (at 1 in the cuts). */
     here: number[] = [],
-    /** Rounds of Chvátal–Gomory cuts to add (only where the cuts hold for the whole search: the root). */
-    cutRounds = 0,
-    /** The node's cost (the cut rounds stop when the bound meets the incumbent). */
-    cost = 0,
-    /** When given, the LP solutions (before each cut round and the last) are rounded for an incumbent. */
-    colsA?: Uint32Array,
+    /**
+     * At a root: rounds of Chvátal–Gomory cuts to add (they join the search's cuts, so only where they
+     * hold for the whole search), the node's cost (the rounds stop when the bound meets the incumbent),
+     * and its live columns (the LP solutions met are rounded for an incumbent). The LP is then kept in
+     * the result for a dive; the caller releases it.
+     */
+    root?: { cutRounds: number; cost: number; colsA: Uint32Array },
   ): LpNode | "infeasible" | null {
+    const cutRounds = root?.cutRounds ?? 0;
+    const cost = root?.cost ?? 0;
+    const colsA = root?.colsA;
     const liveRows = members(rowsA);
     const local = new Int32Array(this.R).fill(-1);
     for (let i = 0; i < liveRows.length; i++) local[liveRows[i]!] = i;
     // The dense inverse costs rows² per pivot: past a few hundred rows the LP costs more than it saves.
     if (liveRows.length > maxRows) return null;
-    const cols: Int32Array[] = [];
-    const w: number[] = [];
-    for (const c of liveCols) {
+    // Each live column's live rows (local indices), as views into one flat list.
+    let total = 0;
+    for (const c of liveCols) total += this.cols[c]!.length;
+    const flat = new Int32Array(total);
+    const cols: Int32Array[] = new Array<Int32Array>(liveCols.length);
+    const w: number[] = new Array<number>(liveCols.length);
+    let at = 0;
+    for (let i = 0; i < liveCols.length; i++) {
+      const c = liveCols[i]!;
       const l = this.cols[c]!;
-      const rs: number[] = [];
-      for (let i = 0; i < l.length; i++) if (local[l[i]!]! >= 0) rs.push(local[l[i]!]!);
-      cols.push(Int32Array.from(rs));
-      w.push(this.w[c]!);
+      const from = at;
+      for (let q = 0; q < l.length; q++) {
+        const m = local[l[q]!]!;
+        if (m >= 0) flat[at++] = m;
+      }
+      cols[i] = flat.subarray(from, at);
+      w[i] = this.w[c]!;
     }
     // The cuts at this node: taken columns at 1, columns no longer live at 0.
     const lpCuts: LpCut[] = [];
@@ -836,8 +850,8 @@ class BranchAndBound {
         lpCuts.push({ cols: Int32Array.from(idx), val: Int32Array.from(val), rhs });
       }
     }
-    // Room for the cut rounds' rows and a dive's first fixings, so that adding them allocates nothing.
-    let lp = new CoverLp(liveRows.length, cols, w, K, lpCuts, cutRounds > 0 ? cutRounds * TUNING.cutsPerRound + 16 : 0);
+    // Room for the first cut rounds' rows; the LP grows when more are added.
+    let lp = new CoverLp(liveRows.length, cols, w, K, lpCuts, cutRounds > 0 ? 2 * TUNING.cutsPerRound + 16 : 0);
     let status = lp.solve(this.deadline, 50 * (liveRows.length + lpCuts.length + 1));
     // With `colsA`, every LP solution met is rounded for an incumbent (once: the LP grows in place, its rows and pivots tell its solutions apart).
     let rounded = "";
@@ -851,6 +865,7 @@ class BranchAndBound {
       this.lpRounding(rowsA, colsA!, xs, liveCols, cost, here);
     };
     let lastObj = cutRounds > 0 && status === "optimal" ? lp.objective() : 0;
+    let stalled = 0;
     for (let round = 0; round < cutRounds && status === "optimal"; round++) {
       if (colsA) roundAt(lp);
       // The weights are integers: a bound that rounds up to the incumbent needs no more cuts.
@@ -865,11 +880,13 @@ class BranchAndBound {
       status = lp.solve(this.deadline, 50 * (liveRows.length + lpCuts.length + 1));
       if (status !== "optimal") break;
       const obj = lp.objective();
-      if (obj < lastObj + 1e-3) break;
-      lastObj = obj;
+      if (obj < lastObj + 1e-3 && ++stalled > TUNING.cutStall) break;
+      lastObj = Math.max(lastObj, obj);
     }
-    if (status === "infeasible") return "infeasible";
-    if (status !== "optimal") return null;
+    if (status !== "optimal") {
+      lp.release();
+      return status === "infeasible" ? "infeasible" : null;
+    }
     if (colsA) roundAt(lp);
     const u = lp.duals();
     const lam = lp.cutDuals();
@@ -898,8 +915,9 @@ class BranchAndBound {
     const xl = lp.primal();
     const x = new Float64Array(this.cols.length);
     for (let i = 0; i < liveCols.length; i++) x[liveCols[i]!] = xl[i]!;
+    if (!root || !(L > beat)) lp.release();
     if (!(L > beat)) return null;
-    return { lb: L, rc, liveCols, x, lp };
+    return { lb: L, rc, liveCols, x, lp: root ? lp : null };
   }
 
   /**
@@ -1061,6 +1079,7 @@ class BranchAndBound {
    * its bound reaches the incumbent. The fixing rows hold only for the dive.
    */
   private dive(node: LpNode, rowsA: Uint32Array, colsA: Uint32Array, cost: number, here: number[]): void {
+    if (!node.lp) return;
     let lp = node.lp;
     const n = node.liveCols.length;
     const fixed = new Uint8Array(n);
@@ -1131,9 +1150,10 @@ class BranchAndBound {
     let lpFix: { lb: number; rc: Float64Array } | null = null;
     if (this.rootOnly) {
       // Root only: the LP relaxation and its rounding, no subgradient steps; the search stops unless they close the gap.
-      const res = this.lpBound(rowsA, members(colsA), K, -Infinity, TUNING.rootOnlyMaxRows, here, TUNING.rootCutRounds, cost, colsA);
+      const res = this.lpBound(rowsA, members(colsA), K, -Infinity, TUNING.rootOnlyMaxRows, here, { cutRounds: TUNING.rootCutRounds, cost, colsA });
       if (res && res !== "infeasible") {
         if (cost + Math.ceil(res.lb - 1e-6) < this.best) this.dive(res, rowsA, colsA, cost, here);
+        res.lp?.release();
         this.rootBound = Math.max(this.rootBound, cost + lb, cost + Math.ceil(res.lb - 1e-6));
         if (cost + Math.ceil(res.lb - 1e-6) >= this.best) return;
       }
@@ -1144,10 +1164,11 @@ class BranchAndBound {
     // the root's subgradient steps would only confirm it.
     let rootLp: LpNode | null = null;
     if (depth === 0 && K >= 0 && depth <= TUNING.lpDepth) {
-      const res = this.lpBound(rowsA, members(colsA), K, -Infinity, TUNING.lpMaxRows, here, TUNING.cutRounds, cost, colsA);
+      const res = this.lpBound(rowsA, members(colsA), K, -Infinity, TUNING.lpMaxRows, here, { cutRounds: TUNING.cutRounds, cost, colsA });
       if (res === "infeasible") return;
       if (res) {
         if (cost + Math.ceil(res.lb - 1e-6) < this.best) this.dive(res, rowsA, colsA, cost, here);
+        res.lp?.release();
         if (cost + Math.ceil(res.lb - 1e-6) >= this.best) {
           this.rootBound = Math.max(this.rootBound, cost + Math.ceil(res.lb - 1e-6));
           return;

@@ -34,6 +34,33 @@ export interface CoverLpResult {
 }
 
 /**
+ * Basis inverses handed back by released LPs, for reuse: a B⁻¹ of a few
+ * hundred rows is about a megabyte, and allocating one per node LP kept the
+ * collector busy.
+ */
+const freeBuffers: Float64Array[] = [];
+
+/** A zeroed buffer of `size` entries, from the free list when one fits. */
+function takeBuffer(size: number): Float64Array {
+  let best = -1;
+  for (let k = 0; k < freeBuffers.length; k++) {
+    const len = freeBuffers[k]!.length;
+    if (len >= size && len <= 4 * size && (best < 0 || len < freeBuffers[best]!.length)) best = k;
+  }
+  if (best < 0) return new Float64Array(size);
+  const buf = freeBuffers.splice(best, 1)[0]!.subarray(0, size);
+  buf.fill(0);
+  return buf;
+}
+
+function giveBuffer(buf: Float64Array): void {
+  if (buf.length === 0) return;
+  const whole = new Float64Array(buf.buffer);
+  if (freeBuffers.length >= 4) freeBuffers.shift();
+  freeBuffers.push(whole);
+}
+
+/**
  * The covering LP with a dense basis inverse. Rows: -a_r·x + t_r = -1
  * (t_r ≥ 0), Σx + t = K, and cut rows g·x + t_g = rhs_g; the slacks t are
  * variables n .. n+M-1, the columns 0 .. n-1 lie in [0, 1] (a nonbasic
@@ -99,7 +126,7 @@ export class CoverLp {
     this.card = rowCount;
     this.indexCuts();
     const NV = n + S;
-    const Binv = new Float64Array(S * S);
+    const Binv = takeBuffer(S * S);
     for (let i = 0; i < M; i++) Binv[i * S + i] = 1;
     const basis = new Int32Array(S);
     for (let i = 0; i < M; i++) basis[i] = n + i;
@@ -136,6 +163,13 @@ export class CoverLp {
     this.rowNz = new Int32Array(S);
     this.seen = new Int32Array(n);
     this.touched = new Int32Array(NV);
+  }
+
+  /** Hands the basis inverse back for reuse by a later LP; this LP must not be used after. */
+  release(): void {
+    giveBuffer(this.Binv);
+    this.Binv = new Float64Array(0);
+    this.M = 0;
   }
 
   /** The cut rows, in row order. */
@@ -462,8 +496,9 @@ export class CoverLp {
   /** Room for `S2` rows: the per-row arrays and B⁻¹ (at the new stride) are copied into larger ones. */
   private grow(S2: number): void {
     const { n, S, M } = this;
-    const Binv = new Float64Array(S2 * S2);
+    const Binv = takeBuffer(S2 * S2);
     for (let i = 0; i < M; i++) Binv.set(this.Binv.subarray(i * S, i * S + M), i * S2);
+    giveBuffer(this.Binv);
     this.Binv = Binv;
     const more = <T extends Float64Array | Int32Array | Uint8Array>(a: T, len: number): T => {
       const b = new (a.constructor as { new (len: number): T })(len);
