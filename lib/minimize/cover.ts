@@ -804,23 +804,20 @@ class BranchAndBound {
     for (let i = 0; i < liveRows.length; i++) local[liveRows[i]!] = i;
     // The dense inverse costs rows² per pivot: past a few hundred rows the LP costs more than it saves.
     if (liveRows.length > maxRows) return null;
-    // Each live column's live rows (local indices), as views into one flat list.
-    let total = 0;
-    for (const c of liveCols) total += this.cols[c]!.length;
-    const flat = new Int32Array(total);
-    const cols: Int32Array[] = new Array<Int32Array>(liveCols.length);
-    const w: number[] = new Array<number>(liveCols.length);
-    let at = 0;
-    for (let i = 0; i < liveCols.length; i++) {
-      const c = liveCols[i]!;
+    // Each live column's live rows (local indices). Separate arrays, not views of one list: the simplex
+    // ran up to 1.5× slower on views (measured on the random 10-input cases).
+    const cols: Int32Array[] = [];
+    const w: number[] = [];
+    const scratch = this.bufR;
+    for (const c of liveCols) {
       const l = this.cols[c]!;
-      const from = at;
+      let k = 0;
       for (let q = 0; q < l.length; q++) {
         const m = local[l[q]!]!;
-        if (m >= 0) flat[at++] = m;
+        if (m >= 0) scratch[k++] = m;
       }
-      cols[i] = flat.subarray(from, at);
-      w[i] = this.w[c]!;
+      cols.push(scratch.slice(0, k));
+      w.push(this.w[c]!);
     }
     // The cuts at this node: taken columns at 1, columns no longer live at 0.
     const lpCuts: LpCut[] = [];

@@ -40,7 +40,7 @@ export interface CoverLpResult {
  */
 const freeBuffers: Float64Array[] = [];
 
-/** A zeroed buffer of `size` entries, from the free list when one fits. */
+/** A buffer whose first `size` entries are zero (it may be longer), from the free list when one fits. */
 function takeBuffer(size: number): Float64Array {
   let best = -1;
   for (let k = 0; k < freeBuffers.length; k++) {
@@ -48,16 +48,16 @@ function takeBuffer(size: number): Float64Array {
     if (len >= size && len <= 4 * size && (best < 0 || len < freeBuffers[best]!.length)) best = k;
   }
   if (best < 0) return new Float64Array(size);
-  const buf = freeBuffers.splice(best, 1)[0]!.subarray(0, size);
-  buf.fill(0);
+  // The whole buffer, not a view of its first `size` entries: the simplex ran slower on views.
+  const buf = freeBuffers.splice(best, 1)[0]!;
+  buf.fill(0, 0, size);
   return buf;
 }
 
 function giveBuffer(buf: Float64Array): void {
   if (buf.length === 0) return;
-  const whole = new Float64Array(buf.buffer);
   if (freeBuffers.length >= 4) freeBuffers.shift();
-  freeBuffers.push(whole);
+  freeBuffers.push(buf);
 }
 
 /**
@@ -211,7 +211,7 @@ export class CoverLp {
    */
   solve(deadline = Infinity, maxIters = 50 * (this.M + 1)): "optimal" | "infeasible" | "stopped" {
     const { Binv, basis, pos, xB, atUpper, d, beta } = this;
-    const { n, M, S, alpha, colq, rowp, nzIdx, cols, rowStart, rowCols, rowNz, seen, touched, rowCount, cuts, cutBase, colCutStart, colCutRow, colCutVal } = this;
+    const { n, M, S, alpha, colq, rowp, nzIdx, cols, rowStart, rowCols, rowNz, seen, touched, rowCount, cutBase, colCutStart } = this;
     const hasCard = this.hasCard;
     const card = this.card;
     const tolP = 1e-9;
@@ -269,18 +269,7 @@ export class CoverLp {
             }
             alpha[j]! -= v;
           }
-        } else if (k >= cutBase) {
-          const cut = cuts[k - cutBase]!;
-          for (let e = 0; e < cut.cols.length; e++) {
-            const j = cut.cols[e]!;
-            if (seen[j] !== st) {
-              seen[j] = st;
-              alpha[j] = 0;
-              touched[nt++] = j;
-            }
-            alpha[j]! += v * cut.val[e]!;
-          }
-        }
+        } else if (k >= cutBase) nt = this.cutRowIntoAlpha(k, v, st, nt);
       }
       const base = hasCard ? rowp[card]! : 0;
       if (base !== 0) {
@@ -318,15 +307,13 @@ export class CoverLp {
       // Entering column B⁻¹ a_q.
       if (q < n) {
         const l = cols[q]!;
-        const c0 = colCutStart[q]!;
-        const c1 = colCutStart[q + 1]!;
         for (let i = 0; i < M; i++) {
           const row = i * S;
           let sum = hasCard ? Binv[row + card]! : 0;
           for (let k = 0; k < l.length; k++) sum -= Binv[row + l[k]!]!;
-          for (let e = c0; e < c1; e++) sum += colCutVal[e]! * Binv[row + colCutRow[e]!]!;
           colq[i] = sum;
         }
+        if (colCutStart[q + 1]! > colCutStart[q]!) this.cutEntriesIntoColumn(q);
       } else {
         for (let i = 0; i < M; i++) colq[i] = Binv[i * S + (q - n)]!;
       }
@@ -388,6 +375,38 @@ export class CoverLp {
       }
     }
     return "stopped";
+  }
+
+  /**
+   * Cut row k's part of the tableau row (v = B⁻¹[p, k]), marking the columns it touches; returns the
+   * new count of touched columns. Apart from the simplex loop, which stays lean for the LPs without cuts.
+   */
+  private cutRowIntoAlpha(k: number, v: number, st: number, nt: number): number {
+    const { alpha, seen, touched } = this;
+    const cut = this.cutList[k - this.cutBase]!;
+    for (let e = 0; e < cut.cols.length; e++) {
+      const j = cut.cols[e]!;
+      if (seen[j] !== st) {
+        seen[j] = st;
+        alpha[j] = 0;
+        touched[nt++] = j;
+      }
+      alpha[j]! += v * cut.val[e]!;
+    }
+    return nt;
+  }
+
+  /** Column q's cut entries added into the entering column B⁻¹a_q. */
+  private cutEntriesIntoColumn(q: number): void {
+    const { Binv, S, M, colq, colCutStart, colCutRow, colCutVal } = this;
+    const c0 = colCutStart[q]!;
+    const c1 = colCutStart[q + 1]!;
+    for (let i = 0; i < M; i++) {
+      const row = i * S;
+      let sum = 0;
+      for (let e = c0; e < c1; e++) sum += colCutVal[e]! * Binv[row + colCutRow[e]!]!;
+      colq[i]! += sum;
+    }
   }
 
   /**
