@@ -1075,10 +1075,9 @@ class BranchAndBound {
    * solution is rounded. Stops when the LP turns integral, infeasible, or
    * its bound reaches the incumbent. The fixing rows hold only for the dive.
    */
-  private dive(node: LpNode, rowsA: Uint32Array, colsA: Uint32Array, cost: number, here: number[]): void {
-    if (!node.lp) return;
-    let lp = node.lp;
-    const n = node.liveCols.length;
+  private dive(start: CoverLp, liveCols: number[], rowsA: Uint32Array, colsA: Uint32Array, cost: number, here: number[]): void {
+    let lp = start;
+    const n = liveCols.length;
     const fixed = new Uint8Array(n);
     for (let step = 0; step < TUNING.diveSteps; step++) {
       const x = lp.primal();
@@ -1098,8 +1097,8 @@ class BranchAndBound {
       if (lp.solve(this.deadline) !== "optimal") return;
       const xl = lp.primal();
       const xs = new Float64Array(this.cols.length);
-      for (let i = 0; i < n; i++) xs[node.liveCols[i]!] = xl[i]!;
-      this.lpRounding(rowsA, colsA, xs, node.liveCols, cost, here);
+      for (let i = 0; i < n; i++) xs[liveCols[i]!] = xl[i]!;
+      this.lpRounding(rowsA, colsA, xs, liveCols, cost, here);
       if (cost + Math.ceil(lp.objective() - 1e-6) >= this.best) return;
     }
   }
@@ -1149,7 +1148,7 @@ class BranchAndBound {
       // Root only: the LP relaxation and its rounding, no subgradient steps; the search stops unless they close the gap.
       const res = this.lpBound(rowsA, members(colsA), K, -Infinity, TUNING.rootOnlyMaxRows, here, { cutRounds: TUNING.rootCutRounds, cost, colsA });
       if (res && res !== "infeasible") {
-        if (cost + Math.ceil(res.lb - 1e-6) < this.best) this.dive(res, rowsA, colsA, cost, here);
+        if (res.lp && cost + Math.ceil(res.lb - 1e-6) < this.best) this.dive(res.lp, res.liveCols, rowsA, colsA, cost, here);
         res.lp?.release();
         this.rootBound = Math.max(this.rootBound, cost + lb, cost + Math.ceil(res.lb - 1e-6));
         if (cost + Math.ceil(res.lb - 1e-6) >= this.best) return;
@@ -1164,7 +1163,7 @@ class BranchAndBound {
       const res = this.lpBound(rowsA, members(colsA), K, -Infinity, TUNING.lpMaxRows, here, { cutRounds: TUNING.cutRounds, cost, colsA });
       if (res === "infeasible") return;
       if (res) {
-        if (cost + Math.ceil(res.lb - 1e-6) < this.best) this.dive(res, rowsA, colsA, cost, here);
+        if (res.lp && cost + Math.ceil(res.lb - 1e-6) < this.best) this.dive(res.lp, res.liveCols, rowsA, colsA, cost, here);
         res.lp?.release();
         if (cost + Math.ceil(res.lb - 1e-6) >= this.best) {
           this.rootBound = Math.max(this.rootBound, cost + Math.ceil(res.lb - 1e-6));
