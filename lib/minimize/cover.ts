@@ -36,17 +36,23 @@ export interface CoverProblem {
   rootOnly?: boolean;
   /**
    * Cuts from an earlier search on the same columns and rows (its
-   * {@link CoverSolution.cuts}); used only when this search's root reductions
-   * leave exactly the columns live and taken that the cuts were found at.
+   * {@link CoverSolution.cuts}); used only when they were found under no
+   * budget or one no tighter than this search's, and this search's root
+   * reductions leave exactly the columns live and taken that they were found at.
    */
   cuts?: CutPool;
   /** Core size (rows × columns) above which the exact search is not attempted; default 3e8 (about 80 MB of bitsets). */
   maxCoreCells?: number;
 }
 
-/** Valid inequalities over the problem's columns, with the root reductions they assume. */
+/** Valid inequalities over the problem's columns, with the problem and root reductions they assume. */
 export interface CutPool {
   cuts: LpCut[];
+  /** The column budget they were found under (the cuts may use it), or -1 for none. */
+  budget: number;
+  /** The problem's rows and columns, as a check that a later search is on the same problem. */
+  rowCount: number;
+  columns: number;
   /** Columns live at the root after its reductions, ascending. */
   live: number[];
   /** Columns taken by then (the sparse essentials and the root's), ascending. */
@@ -146,7 +152,11 @@ export function solveCover(p: CoverProblem): CoverSolution {
   if (p.maxColumns !== undefined) bb.card = p.maxColumns - chosen.length;
   bb.rootOnly = p.rootOnly === true;
   const coreIndex = new Map(coreCols.map((c, i) => [c, i]));
-  if (p.cuts) {
+  // Cuts found under a budget hold only under that budget or a tighter one.
+  const budget = p.maxColumns ?? -1;
+  const poolFits = (pool: CutPool) =>
+    pool.rowCount === p.rowCount && pool.columns === C && (pool.budget < 0 || (budget >= 0 && budget <= pool.budget));
+  if (p.cuts && poolFits(p.cuts)) {
     // To core indices; a column outside the core means another problem, and the cuts are not used.
     const inCore = (cs: ArrayLike<number>) => Array.prototype.every.call(cs, (c: number) => coreIndex.has(c));
     const taken = new Set(chosen);
@@ -169,6 +179,9 @@ export function solveCover(p: CoverProblem): CoverSolution {
   const cuts: CutPool | undefined = bb.cuts.length
     ? {
         cuts: bb.cuts.map((cut) => ({ cols: Int32Array.from(cut.cols, (c) => coreCols[c]!), val: cut.val, rhs: cut.rhs })),
+        budget,
+        rowCount: R,
+        columns: C,
         live: members(bb.rootLive).map((c) => coreCols[c]!),
         taken: chosen.concat(bb.rootTaken.map((c) => coreCols[c]!)).sort((a, b) => a - b),
       }
@@ -188,8 +201,10 @@ let NODE_DOMINANCE = 1;
  * literal phase (a column budget), nodes down to depth `lpDepth` also solve
  * the LP relaxation by dual simplex when at most `lpMaxRows` rows are live.
  * The LP roots add up to `cutRounds` (root-only: `rootCutRounds`) rounds of
- * at most `cutsPerRound` cuts, and dive at most `diveSteps` steps, fixing at
- * once every column at `diveFixAbove` or more.
+ * at most `cutsPerRound` cuts, stopping at round `cutStall` + 1 without gain,
+ * and dive at most `diveSteps` steps, fixing at once every column at
+ * `diveFixAbove` or more. LPs of `rowGenMin` rows or more start on the
+ * fraction `rowGenStart` of them and add the others as they are needed.
  */
 export const TUNING = { rowGenMin: 60, rowGenStart: 0.5, cutStall: 2, diveSteps: 60, diveFixAbove: 0.9, rootCutRounds: 10, cutRounds: 10, cutsPerRound: 20, rootOnlyMaxRows: 400, lpMaxRows: 400, lpDepth: Infinity, rootIters: 600, nodeIters: 100, stall: 15, nodeLambda: 2, heurDepth: 0, heurEvery: 25, ascent: 2, rootAscent: 1, ascentMid: 0.25 };
 export function setNodeDominance(d: number): void {
@@ -274,8 +289,8 @@ interface LpNode {
   x: Float64Array;
   /** Kept at a root only, for the dive (then released). */
   lp: CoverLp | null;
-  /** Solves an LP of this node's rows (the LP above after changes), adding the rows it leaves under 1. */
-  solveAll: (lp: CoverLp) => "optimal" | "infeasible" | "stopped";
+  /** Solves an LP of this node's rows (the LP above after changes), adding the rows it leaves under 1; a dive passes track = false. */
+  solveAll: (lp: CoverLp, track?: boolean) => "optimal" | "infeasible" | "stopped";
 }
 
 class BranchAndBound {
@@ -899,7 +914,7 @@ class BranchAndBound {
     // Room for the first cut rounds' rows; the LP grows when more are added.
     let lp = new CoverLp(lpRows, lpCols, w, K, lpCuts, cutRounds > 0 || rowGen ? 2 * TUNING.cutsPerRound + 16 : 0);
     /** Solves, adding the rows left under 1 until none is. */
-    const solveAll = (at: CoverLp): "optimal" | "infeasible" | "stopped" => {
+    const solveAll = (at: CoverLp, track = true): "optimal" | "infeasible" | "stopped" => {
       let st = at.solve(this.deadline, maxIters());
       while (st === "optimal" && rowGen) {
         const xl = at.primal();
@@ -915,7 +930,8 @@ class BranchAndBound {
         const add = short.slice(0, Math.max(8, Math.ceil(short.length / 2))).map(({ r }) => {
           inLp[r] = 1;
           const cut: LpCut = { cols: rowColsF.slice(rowStartF[r]!, rowStartF[r + 1]!), val: new Int32Array(rowStartF[r + 1]! - rowStartF[r]!).fill(-1), rhs: -1 };
-          if (at === lp) lpCuts.push(cut);
+          // The node's own LP keeps lpCuts in step with its cut rows (their duals enter the bound); a dive's does not.
+          if (track) lpCuts.push(cut);
           return cut;
         });
         at.withCuts(add);
@@ -963,7 +979,12 @@ class BranchAndBound {
     const lam = lp.cutDuals();
     const mu = K >= 0 ? lp.budgetDual() : 0;
     let L = -mu * Math.max(0, K);
-    for (let i = 0; i < lpRows; i++) L += u[i]!;
+    // The absolute size of L's terms, for a margin against rounding in these sums (weights reach 2^21 and more).
+    let mag = Math.abs(L);
+    for (let i = 0; i < lpRows; i++) {
+      L += u[i]!;
+      mag += u[i]!;
+    }
     const rc = new Float64Array(this.cols.length);
     const s = new Float64Array(liveCols.length);
     for (let i = 0; i < liveCols.length; i++) {
@@ -977,12 +998,19 @@ class BranchAndBound {
       if (lg === 0) continue;
       const cut = lpCuts[g]!;
       L -= lg * cut.rhs;
+      mag += Math.abs(lg * cut.rhs);
       for (let k = 0; k < cut.cols.length; k++) s[cut.cols[k]!]! += lg * cut.val[k]!;
     }
     for (let i = 0; i < liveCols.length; i++) {
       rc[liveCols[i]!] = s[i]!;
-      if (s[i]! < 0) L += s[i]!;
+      if (s[i]! < 0) {
+        L += s[i]!;
+        mag -= s[i]!;
+      }
     }
+    // Float sums of n terms err by at most about n·2^-53 of their absolute size (measured: 3e-7 at
+    // L ≈ 3e8); 1e-11 of it, far above that and far below 1, keeps the bound proven before its ceiling is taken.
+    L -= 1e-11 * mag + 1e-9;
     const xl = lp.primal();
     const x = new Float64Array(this.cols.length);
     for (let i = 0; i < liveCols.length; i++) x[liveCols[i]!] = xl[i]!;
@@ -1168,7 +1196,7 @@ class BranchAndBound {
       if (fix.length === 0) fix.push(top);
       for (const i of fix) fixed[i] = 1;
       lp = lp.withCuts(fix.map((i) => ({ cols: Int32Array.of(i), val: Int32Array.of(-1), rhs: -1 })));
-      if (solveAll(lp) !== "optimal") return;
+      if (solveAll(lp, false) !== "optimal") return;
       const xl = lp.primal();
       const xs = new Float64Array(this.cols.length);
       for (let i = 0; i < n; i++) xs[liveCols[i]!] = xl[i]!;
@@ -1224,6 +1252,7 @@ class BranchAndBound {
       if (res && res !== "infeasible") {
         if (res.lp && cost + Math.ceil(res.lb - 1e-6) < this.best) this.dive(res.lp, res.liveCols, res.solveAll, rowsA, colsA, cost, here);
         res.lp?.release();
+        res.lp = null;
         this.rootBound = Math.max(this.rootBound, cost + lb, cost + Math.ceil(res.lb - 1e-6));
         if (cost + Math.ceil(res.lb - 1e-6) >= this.best) return;
       }
@@ -1239,6 +1268,7 @@ class BranchAndBound {
       if (res) {
         if (res.lp && cost + Math.ceil(res.lb - 1e-6) < this.best) this.dive(res.lp, res.liveCols, res.solveAll, rowsA, colsA, cost, here);
         res.lp?.release();
+        res.lp = null;
         if (cost + Math.ceil(res.lb - 1e-6) >= this.best) {
           this.rootBound = Math.max(this.rootBound, cost + Math.ceil(res.lb - 1e-6));
           return;

@@ -4,15 +4,17 @@
  *
  *   min Σ w_c x_c  s.t.  Σ_{c ∋ r} x_c ≥ 1 for every row r,  Σ x_c ≤ K,  0 ≤ x_c ≤ 1.
  *
- * Starting from x = 0 every reduced cost is w_c ≥ 0, so the slack basis is
- * dual feasible and no first phase is needed.
- * The result is only used as Lagrangian multipliers:
- * the caller evaluates the Lagrangian bound at them, which is a proven bound
- * for any u ≥ 0, μ ≥ 0, so rounding in the simplex can cost tightness but
- * never soundness.
+ * plus rows Σ val·x ≤ rhs with integer data (cuts, and covering rows added
+ * later by the caller). Starting from x = 0 every reduced cost is w_c ≥ 0, so
+ * the slack basis is dual feasible and no first phase is needed.
+ * The duals are only used as Lagrangian multipliers: the caller evaluates the
+ * Lagrangian bound at them, which is a proven bound for any multipliers ≥ 0,
+ * so rounding in the simplex can cost tightness but never soundness. The same
+ * holds for the cuts built from the tableau ({@link CoverLp.gomoryCuts}) and
+ * for the infeasibility certificate, both computed from the problem's data.
  */
 
-/** A valid inequality Σ val_k · x_{cols_k} ≤ rhs with integer coefficients (a Chvátal–Gomory cut). */
+/** A row Σ val_k · x_{cols_k} ≤ rhs with integer coefficients: a Chvátal–Gomory cut, a covering row added later, or a dive's fixing row. */
 export interface LpCut {
   cols: Int32Array;
   val: Int32Array;
@@ -59,6 +61,9 @@ function giveBuffer(buf: Float64Array): void {
   if (freeBuffers.length >= 4) freeBuffers.shift();
   freeBuffers.push(buf);
 }
+
+/** Largest magnitude of a cut's coefficients and right-hand side (see {@link CoverLp.gomoryCuts}). */
+const CUT_LIMIT = 2 ** 20;
 
 /**
  * The covering LP with a dense basis inverse. Rows: -a_r·x + t_r = -1
@@ -318,7 +323,7 @@ export class CoverLp {
         for (let i = 0; i < M; i++) colq[i] = Binv[i * S + (q - n)]!;
       }
       const apq = colq[p]!;
-      if (Math.abs(apq) < tolPiv) return "stopped"; // the row and column disagree numerically // the row and column disagree numerically
+      if (Math.abs(apq) < tolPiv) return "stopped"; // the row and column disagree numerically
       const thetaD = d[q]! / apq;
       for (let t = 0; t < nt; t++) {
         const j = touched[t]!;
@@ -366,9 +371,7 @@ export class CoverLp {
           const pk = Binv[prow + k]!;
           const v = Binv[row + k]!;
           dot += v * pk;
-          // Entries that cancel to rounding noise are dropped, keeping B⁻¹ as sparse as it really is.
-          const nv = v - f * pk;
-          Binv[row + k] = nv;
+          Binv[row + k] = v - f * pk;
         }
         const b = beta[i]! - 2 * f * dot + f * f * bp;
         beta[i] = b > 1e-12 ? b : 1e-12;
@@ -469,7 +472,8 @@ export class CoverLp {
 
   /**
    * The LP with `fresh` cuts appended, warm-started at this basis: each new
-   * row's slack joins the basis (B⁻¹'s new row is −π_B B⁻¹ with a 1 for the
+   * row's slack joins the basis (B⁻¹'s new row is −g_B B⁻¹, g_B the cut's
+   * coefficients of the basic variables, with a 1 for the
    * slack), so the reduced costs stay dual feasible and the dual simplex goes
    * on from here. In place; returns this LP.
    */
@@ -567,8 +571,9 @@ export class CoverLp {
    * to multiples of 2⁻²⁰, and ν_j = ⌈c_j⌉ − c_j on x_j ≤ 1 for the columns
    * at 1 (c = λA), the inequality Σ_j ⌊c_j + ν_j⌋ x_j ≤ ⌊λb + Σν⌋ holds for
    * every integer point: λ ≥ 0 and ν ≥ 0 make any choice valid, and with
-   * dyadic multipliers every sum is exact in floating point, so the cut does
-   * not depend on the simplex's rounding. Returns the cuts the current
+   * dyadic multipliers every sum is exact in floating point (the rows'
+   * numbers stay below 2^20 in magnitude: cuts with larger ones are dropped),
+   * so the cut does not depend on the simplex's rounding. Returns the cuts the current
    * point violates by more than `minViolation`, most violated (per unit of
    * coefficient norm) first, at most `max`.
    */
@@ -620,6 +625,7 @@ export class CoverLp {
       let lhs = 0;
       let norm = 0;
       let hash = 0x811c9dc5;
+      let big = false;
       for (let j = 0; j < n; j++) {
         let cj = c[j]!;
         if (atUpper[j] === 1 && pos[j]! < 0) {
@@ -628,6 +634,7 @@ export class CoverLp {
           cj += nu;
         }
         const pi = Math.floor(cj);
+        if (pi > CUT_LIMIT || pi < -CUT_LIMIT) big = true;
         if (pi !== 0) {
           idx[nnz] = j;
           val[nnz++] = pi;
@@ -638,7 +645,10 @@ export class CoverLp {
         }
       }
       if (nnz === 0) continue;
+      // Sums are exact while |c|·2^20 stays below 2^53, and coefficients must fit Int32: cuts with large
+      // numbers (they grow over many rounds, and make the LP ill-conditioned) are dropped.
       const r0 = Math.floor(rhs);
+      if (big || r0 > CUT_LIMIT || r0 < -CUT_LIMIT) continue;
       const viol = lhs - r0;
       if (!(viol > minViolation)) continue;
       hash = Math.imul(hash ^ (r0 | 0), 16777619);

@@ -234,9 +234,19 @@ describe("Chvátal–Gomory cuts of the covering LP", () => {
     expect(trusted.weight).toBe(Infinity);
     // The same cut with a root that does not match (a live column moved to the taken list) is not used.
     const moved = pool.live[0]!;
-    const mismatched = { cuts: [bogus], live: pool.live.slice(1), taken: [...pool.taken, moved].sort((a, b) => a - b) };
+    const mismatched = { ...pool, cuts: [bogus], live: pool.live.slice(1), taken: [...pool.taken, moved].sort((a, b) => a - b) };
     const ignored = solve(mismatched);
     expect(ignored.exact).toBe(true);
     expect(ignored.weight).toBe(ref.literals);
+    // Cuts found under a budget may rest on it: a search with no budget or a looser one does not use them.
+    const budgeted = { ...pool, cuts: [bogus], budget: ref.products - 1 };
+    expect(solve(budgeted).weight).toBe(ref.literals);
+    const unbudgeted = solveCover({ colRows: prob.colRows, weight: lits, rowCount: prob.rowCount, deadline: Infinity, cuts: budgeted });
+    expect(unbudgeted.exact).toBe(true);
+    // Without a budget the fewest literals can only be fewer than with one: a cover of at most ref.literals
+    // literals shows that the bogus cut (which admits no cover) was not used.
+    expect(unbudgeted.weight).toBeLessThanOrEqual(ref.literals);
+    // A pool of another problem (one row less) is not used either.
+    expect(solve({ ...pool, cuts: [bogus], rowCount: pool.rowCount - 1 }).weight).toBe(ref.literals);
   });
 });
