@@ -817,10 +817,10 @@ class BranchAndBound {
     const cost = root?.cost ?? 0;
     const colsA = root?.colsA;
     const liveRows = members(rowsA);
-    const local = new Int32Array(this.R).fill(-1);
-    for (let i = 0; i < liveRows.length; i++) local[liveRows[i]!] = i;
     // The dense inverse costs rows² per pivot: past a few hundred rows the LP costs more than it saves.
     if (liveRows.length > maxRows) return null;
+    const local = new Int32Array(this.R).fill(-1);
+    for (let i = 0; i < liveRows.length; i++) local[liveRows[i]!] = i;
     // Each live column's live rows (local indices). Separate arrays, not views of one list: the simplex
     // ran up to 1.5× slower on views (measured on the random 10-input cases).
     const cols: Int32Array[] = [];
@@ -866,23 +866,22 @@ class BranchAndBound {
     }
     // Row generation: the LP starts on part of the rows (a greedy set of independent rows, fewest
     // columns first, filled up to half the rows in that order); a row the solution leaves under 1 is
-    // added as a row Σ x ≤ ... (−Σ x ≤ −1) and the dual simplex goes on. The LP then ends optimal for
-    // all rows, over fewer of them: its pivots cost rows², and random 10-input roots took a third to
-    // a half of the time.
+    // added as the row −Σ x ≤ −1 and the dual simplex goes on. The LP then ends optimal for all rows,
+    // over fewer of them: its pivots cost rows², and random 10-input roots took a third to a half of the time.
     const RL = liveRows.length;
     const rowGen = RL >= TUNING.rowGenMin;
-    const rowStartF = new Int32Array(RL + 1);
-    for (const l of cols) for (let q = 0; q < l.length; q++) rowStartF[l[q]! + 1]!++;
-    for (let r = 0; r < RL; r++) rowStartF[r + 1]! += rowStartF[r]!;
-    const rowColsF = new Int32Array(rowStartF[RL]!);
-    {
-      const fill = rowStartF.slice(0, RL);
-      for (let i = 0; i < cols.length; i++) for (const r of cols[i]!) rowColsF[fill[r]!++] = i;
-    }
-    const inLp = new Uint8Array(RL);
+    // Rows → live columns (positions in liveCols) and whether each row is in the LP; for row generation only.
+    const rowStartF = new Int32Array(rowGen ? RL + 1 : 0);
+    let rowColsF = new Int32Array(0);
+    const inLp = new Uint8Array(rowGen ? RL : 0);
     let lpCols = cols;
     let lpRows = RL;
     if (rowGen) {
+      for (const l of cols) for (let q = 0; q < l.length; q++) rowStartF[l[q]! + 1]!++;
+      for (let r = 0; r < RL; r++) rowStartF[r + 1]! += rowStartF[r]!;
+      rowColsF = new Int32Array(rowStartF[RL]!);
+      const fill = rowStartF.slice(0, RL);
+      for (let i = 0; i < cols.length; i++) for (const r of cols[i]!) rowColsF[fill[r]!++] = i;
       const order = Array.from({ length: RL }, (_, r) => r).sort((a, b) => rowStartF[a + 1]! - rowStartF[a]! - (rowStartF[b + 1]! - rowStartF[b]!) || a - b);
       const usedCol = new Uint8Array(cols.length);
       const r0: number[] = [];
@@ -909,10 +908,10 @@ class BranchAndBound {
         return scratch.slice(0, k);
       });
       lpRows = r0.length;
-    } else inLp.fill(1);
+    }
     const maxIters = () => 50 * (RL + lpCuts.length + 1);
     // Room for the first cut rounds' rows; the LP grows when more are added.
-    let lp = new CoverLp(lpRows, lpCols, w, K, lpCuts, cutRounds > 0 || rowGen ? 2 * TUNING.cutsPerRound + 16 : 0);
+    const lp = new CoverLp(lpRows, lpCols, w, K, lpCuts, cutRounds > 0 || rowGen ? 2 * TUNING.cutsPerRound + 16 : 0);
     /** Solves, adding the rows left under 1 until none is. */
     const solveAll = (at: CoverLp, track = true): "optimal" | "infeasible" | "stopped" => {
       let st = at.solve(this.deadline, maxIters());
@@ -963,7 +962,7 @@ class BranchAndBound {
         lpCuts.push(f);
         this.cuts.push({ cols: Int32Array.from(f.cols, (i) => liveCols[i]!), val: f.val, rhs: f.rhs });
       }
-      lp = lp.withCuts(fresh);
+      lp.withCuts(fresh);
       status = solveAll(lp);
       if (status !== "optimal") break;
       const obj = lp.objective();
@@ -1178,7 +1177,7 @@ class BranchAndBound {
    * its bound reaches the incumbent. The fixing rows hold only for the dive.
    */
   private dive(start: CoverLp, liveCols: number[], solveAll: LpNode["solveAll"], rowsA: Uint32Array, colsA: Uint32Array, cost: number, here: number[]): void {
-    let lp = start;
+    const lp = start;
     const n = liveCols.length;
     const fixed = new Uint8Array(n);
     for (let step = 0; step < TUNING.diveSteps; step++) {
@@ -1195,7 +1194,7 @@ class BranchAndBound {
       if (top < 0) break; // integral
       if (fix.length === 0) fix.push(top);
       for (const i of fix) fixed[i] = 1;
-      lp = lp.withCuts(fix.map((i) => ({ cols: Int32Array.of(i), val: Int32Array.of(-1), rhs: -1 })));
+      lp.withCuts(fix.map((i) => ({ cols: Int32Array.of(i), val: Int32Array.of(-1), rhs: -1 })));
       if (solveAll(lp, false) !== "optimal") return;
       const xl = lp.primal();
       const xs = new Float64Array(this.cols.length);

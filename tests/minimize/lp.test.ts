@@ -31,16 +31,25 @@ async function highsCover(rowCount: number, cols: Int32Array[], w: number[], K: 
   return res.ObjectiveValue;
 }
 
-/** A random set-cover instance in which every row has at least one column. */
-function randomInstance(seed: number): { rowCount: number; cols: Int32Array[]; w: number[] } {
+/**
+ * A random set-cover instance: `rows` and `cols` are [least, how many more at most], each column covers
+ * `size` = [least, how many more] random rows, every row joins `perRow` random columns, weights 1..maxWeight.
+ */
+function coverInstance(
+  seed: number,
+  shape: { rows: [number, number]; cols: [number, number]; size: [number, number]; perRow: number; maxWeight: number },
+): { rowCount: number; cols: Int32Array[]; w: number[] } {
   const r = rng(seed);
-  const rowCount = 8 + Math.floor(r() * 30);
-  const C = 10 + Math.floor(r() * 40);
+  const rowCount = shape.rows[0] + Math.floor(r() * shape.rows[1]);
+  const C = shape.cols[0] + Math.floor(r() * shape.cols[1]);
   const sets: Set<number>[] = Array.from({ length: C }, () => new Set<number>());
-  for (const s of sets) for (let k = 1 + Math.floor(r() * 6); k > 0; k--) s.add(Math.floor(r() * rowCount));
-  for (let row = 0; row < rowCount; row++) sets[Math.floor(r() * C)]!.add(row);
-  return { rowCount, cols: sets.map((s) => Int32Array.from(s)), w: sets.map(() => 1 + Math.floor(r() * 7)) };
+  for (const s of sets) for (let k = shape.size[0] + Math.floor(r() * shape.size[1]); k > 0; k--) s.add(Math.floor(r() * rowCount));
+  for (let row = 0; row < rowCount; row++) for (let t = 0; t < shape.perRow; t++) sets[Math.floor(r() * C)]!.add(row);
+  return { rowCount, cols: sets.map((s) => Int32Array.from(s)), w: sets.map(() => 1 + Math.floor(r() * shape.maxWeight)) };
 }
+
+/** 8-37 rows, 10-49 columns of 1-6 rows, weights 1-7; every row has at least one column. */
+const randomInstance = (seed: number) => coverInstance(seed, { rows: [8, 30], cols: [10, 40], size: [1, 6], perRow: 1, maxWeight: 7 });
 
 describe("LP relaxation of the covering problem", () => {
   it("its Lagrangian bound never exceeds the integer optimum, and reaches the LP optimum", async () => {
@@ -92,18 +101,7 @@ describe("LP relaxation of the covering problem", () => {
  * Small instances whose covers can all be listed: 10-20 rows, 10-15 columns of 2-5 rows, every row in two
  * random columns at least, weights 1-3 (fractional LP optima are common at this density).
  */
-function smallInstance(seed: number): { rowCount: number; cols: Int32Array[]; w: number[] } {
-  const r = rng(seed);
-  const rowCount = 10 + Math.floor(r() * 11);
-  const C = 10 + Math.floor(r() * 6);
-  const sets: Set<number>[] = Array.from({ length: C }, () => new Set<number>());
-  for (const s of sets) for (let k = 2 + Math.floor(r() * 4); k > 0; k--) s.add(Math.floor(r() * rowCount));
-  for (let row = 0; row < rowCount; row++) {
-    sets[Math.floor(r() * C)]!.add(row);
-    sets[Math.floor(r() * C)]!.add(row);
-  }
-  return { rowCount, cols: sets.map((s) => Int32Array.from(s)), w: sets.map(() => 1 + Math.floor(r() * 3)) };
-}
+const smallInstance = (seed: number) => coverInstance(seed, { rows: [10, 11], cols: [10, 6], size: [2, 4], perRow: 2, maxWeight: 3 });
 
 /** Every cover (as a column bitmask) with at most K columns (K < 0: any), by enumeration of all column subsets. */
 function allCovers(rowCount: number, cols: Int32Array[], K: number): number[] {
