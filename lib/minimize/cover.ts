@@ -151,28 +151,31 @@ export function solveCover(p: CoverProblem): CoverSolution {
   );
   if (p.maxColumns !== undefined) bb.card = p.maxColumns - chosen.length;
   bb.rootOnly = p.rootOnly === true;
-  const coreIndex = new Map(coreCols.map((c, i) => [c, i]));
+  // Each column's core index, -1 outside the core.
+  const coreIndex = new Int32Array(C).fill(-1);
+  for (let i = 0; i < coreCols.length; i++) coreIndex[coreCols[i]!] = i;
+  const inCoreCol = (c: number) => c >= 0 && c < C && coreIndex[c]! >= 0;
   // Cuts found under a budget hold only under that budget or a tighter one.
   const budget = p.maxColumns ?? -1;
   const poolFits = (pool: CutPool) =>
     pool.rowCount === p.rowCount && pool.columns === C && (pool.budget < 0 || (budget >= 0 && budget <= pool.budget));
   if (p.cuts && poolFits(p.cuts)) {
     // To core indices; a column outside the core means another problem, and the cuts are not used.
-    const inCore = (cs: ArrayLike<number>) => Array.prototype.every.call(cs, (c: number) => coreIndex.has(c));
+    const inCore = (cs: ArrayLike<number>) => Array.prototype.every.call(cs, inCoreCol);
     const taken = new Set(chosen);
     const rootTaken = p.cuts.taken.filter((c) => !taken.has(c));
     if (inCore(p.cuts.live) && inCore(rootTaken) && p.cuts.cuts.every((cut) => inCore(cut.cols))) {
       const live = new Uint32Array((coreCols.length + 31) >>> 5);
-      for (const c of p.cuts.live) live[coreIndex.get(c)! >>> 5]! |= 1 << (coreIndex.get(c)! & 31);
+      for (const c of p.cuts.live) live[coreIndex[c]! >>> 5]! |= 1 << (coreIndex[c]! & 31);
       bb.cutsIn = {
-        cuts: p.cuts.cuts.map((cut) => ({ cols: Int32Array.from(cut.cols, (c) => coreIndex.get(c)!), val: cut.val, rhs: cut.rhs })),
+        cuts: p.cuts.cuts.map((cut) => ({ cols: Int32Array.from(cut.cols, (c) => coreIndex[c]!), val: cut.val, rhs: cut.rhs })),
         live,
-        taken: rootTaken.map((c) => coreIndex.get(c)!).sort((a, b) => a - b),
+        taken: rootTaken.map((c) => coreIndex[c]!).sort((a, b) => a - b),
       };
     }
   }
   if (p.incumbent) {
-    const mapped = p.incumbent.filter((c) => coreIndex.has(c)).map((c) => coreIndex.get(c)!);
+    const mapped = p.incumbent.filter(inCoreCol).map((c) => coreIndex[c]!);
     bb.offer(mapped);
   }
   const res = bb.run();
@@ -882,7 +885,16 @@ class BranchAndBound {
       rowColsF = new Int32Array(rowStartF[RL]!);
       const fill = rowStartF.slice(0, RL);
       for (let i = 0; i < cols.length; i++) for (const r of cols[i]!) rowColsF[fill[r]!++] = i;
-      const order = Array.from({ length: RL }, (_, r) => r).sort((a, b) => rowStartF[a + 1]! - rowStartF[a]! - (rowStartF[b + 1]! - rowStartF[b]!) || a - b);
+      // Rows by their count of columns, then by index (a counting sort).
+      const order = new Int32Array(RL);
+      {
+        let most = 0;
+        for (let r = 0; r < RL; r++) most = Math.max(most, rowStartF[r + 1]! - rowStartF[r]!);
+        const at = new Int32Array(most + 2);
+        for (let r = 0; r < RL; r++) at[rowStartF[r + 1]! - rowStartF[r]! + 1]!++;
+        for (let k = 0; k <= most; k++) at[k + 1]! += at[k]!;
+        for (let r = 0; r < RL; r++) order[at[rowStartF[r + 1]! - rowStartF[r]!]!++] = r;
+      }
       const usedCol = new Uint8Array(cols.length);
       const r0: number[] = [];
       for (const r of order) {

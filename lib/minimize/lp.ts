@@ -312,12 +312,10 @@ export class CoverLp {
       // Entering column B⁻¹ a_q.
       if (q < n) {
         const l = cols[q]!;
-        for (let i = 0; i < M; i++) {
-          const row = i * S;
-          let sum = hasCard ? Binv[row + card]! : 0;
-          for (let k = 0; k < l.length; k++) sum -= Binv[row + l[k]!]!;
-          colq[i] = sum;
-        }
+        // Column by column (the same sums in the same order): each pass is one constant stride through B⁻¹.
+        if (hasCard) for (let i = 0, at = card; i < M; i++, at += S) colq[i] = Binv[at]!;
+        else colq.fill(0, 0, M);
+        for (let k = 0; k < l.length; k++) for (let i = 0, at = l[k]!; i < M; i++, at += S) colq[i]! -= Binv[at]!;
         if (colCutStart[q + 1]! > colCutStart[q]!) this.cutEntriesIntoColumn(q);
       } else {
         for (let i = 0; i < M; i++) colq[i] = Binv[i * S + (q - n)]!;
@@ -479,24 +477,30 @@ export class CoverLp {
    */
   withCuts(fresh: readonly LpCut[]): CoverLp {
     if (this.M + fresh.length > this.S) this.grow(this.M + fresh.length + Math.max(16, this.S >> 3));
-    const { n, S, Binv, basis } = this;
+    const { n, S, Binv, pos } = this;
     const M = this.M;
     const x = this.primal();
-    const coef = new Float64Array(n);
+    // The basis rows of the cut's basic columns, in basis order, with their coefficients.
+    const basicRow: number[] = [];
+    const basicCoef = new Float64Array(M);
     fresh.forEach((cut, g) => {
       const i = M + g;
       const row = i * S;
       Binv.fill(0, row, row + S);
-      coef.fill(0);
       let lhs = 0;
+      basicRow.length = 0;
       for (let k = 0; k < cut.cols.length; k++) {
-        coef[cut.cols[k]!] = cut.val[k]!;
-        lhs += cut.val[k]! * x[cut.cols[k]!]!;
+        const j = cut.cols[k]!;
+        lhs += cut.val[k]! * x[j]!;
+        const at = pos[j]!;
+        if (at >= 0 && cut.val[k] !== 0) {
+          basicRow.push(at);
+          basicCoef[at] = cut.val[k]!;
+        }
       }
-      for (let k = 0; k < M; k++) {
-        const j = basis[k]!;
-        if (j >= n || coef[j] === 0) continue;
-        const f = coef[j]!;
+      basicRow.sort((a, b) => a - b);
+      for (const k of basicRow) {
+        const f = basicCoef[k]!;
         const src = k * S;
         for (let q = 0; q < M; q++) Binv[row + q]! -= f * Binv[src + q]!;
       }
@@ -504,7 +508,7 @@ export class CoverLp {
       let b = 0;
       for (let q = 0; q <= i; q++) b += Binv[row + q]! ** 2;
       this.beta[i] = b;
-      basis[i] = n + i;
+      this.basis[i] = n + i;
       this.pos[n + i] = i;
       this.xB[i] = cut.rhs - lhs;
       this.d[n + i] = 0;
