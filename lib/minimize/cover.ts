@@ -826,17 +826,23 @@ class BranchAndBound {
     for (let i = 0; i < liveRows.length; i++) local[liveRows[i]!] = i;
     // Each live column's live rows (local indices). Separate arrays, not views of one list: the simplex
     // ran up to 1.5× slower on views (measured on the random 10-input cases).
-    const cols: Int32Array[] = [];
+    // First as one list (column i's rows at cRows[cStart[i]] ..), split into arrays for the LP below.
+    const NL = liveCols.length;
+    const cStart = new Int32Array(NL + 1);
+    let cells = 0;
+    for (const c of liveCols) cells += this.cols[c]!.length;
+    const cRows = new Int32Array(cells);
     const w: number[] = [];
     const scratch = this.bufR;
-    for (const c of liveCols) {
+    cells = 0;
+    for (let i = 0; i < NL; i++) {
+      const c = liveCols[i]!;
       const l = this.cols[c]!;
-      let k = 0;
       for (let q = 0; q < l.length; q++) {
         const m = local[l[q]!]!;
-        if (m >= 0) scratch[k++] = m;
+        if (m >= 0) cRows[cells++] = m;
       }
-      cols.push(scratch.slice(0, k));
+      cStart[i + 1] = cells;
       w.push(this.w[c]!);
     }
     // The cuts at this node: taken columns at 1, columns no longer live at 0.
@@ -877,14 +883,17 @@ class BranchAndBound {
     const rowStartF = new Int32Array(rowGen ? RL + 1 : 0);
     let rowColsF = new Int32Array(0);
     const inLp = new Uint8Array(rowGen ? RL : 0);
-    let lpCols = cols;
+    let lpCols: Int32Array[];
     let lpRows = RL;
-    if (rowGen) {
-      for (const l of cols) for (let q = 0; q < l.length; q++) rowStartF[l[q]! + 1]!++;
+    if (!rowGen) {
+      lpCols = [];
+      for (let i = 0; i < NL; i++) lpCols.push(cRows.slice(cStart[i]!, cStart[i + 1]!));
+    } else {
+      for (let e = 0; e < cells; e++) rowStartF[cRows[e]! + 1]!++;
       for (let r = 0; r < RL; r++) rowStartF[r + 1]! += rowStartF[r]!;
       rowColsF = new Int32Array(rowStartF[RL]!);
       const fill = rowStartF.slice(0, RL);
-      for (let i = 0; i < cols.length; i++) for (const r of cols[i]!) rowColsF[fill[r]!++] = i;
+      for (let i = 0; i < NL; i++) for (let e = cStart[i]!; e < cStart[i + 1]!; e++) rowColsF[fill[cRows[e]!]!++] = i;
       // Rows by their count of columns, then by index (a counting sort).
       const order = new Int32Array(RL);
       {
@@ -895,7 +904,7 @@ class BranchAndBound {
         for (let k = 0; k <= most; k++) at[k + 1]! += at[k]!;
         for (let r = 0; r < RL; r++) order[at[rowStartF[r + 1]! - rowStartF[r]!]!++] = r;
       }
-      const usedCol = new Uint8Array(cols.length);
+      const usedCol = new Uint8Array(NL);
       const r0: number[] = [];
       for (const r of order) {
         let free = true;
@@ -914,16 +923,17 @@ class BranchAndBound {
       }
       const at = new Int32Array(RL).fill(-1);
       r0.forEach((r, i) => (at[r] = i));
-      lpCols = cols.map((l) => {
+      lpCols = [];
+      for (let i = 0; i < NL; i++) {
         let k = 0;
-        for (let q = 0; q < l.length; q++) if (at[l[q]!]! >= 0) scratch[k++] = at[l[q]!]!;
-        return scratch.slice(0, k);
-      });
+        for (let e = cStart[i]!; e < cStart[i + 1]!; e++) if (at[cRows[e]!]! >= 0) scratch[k++] = at[cRows[e]!]!;
+        lpCols.push(scratch.slice(0, k));
+      }
       lpRows = r0.length;
     }
     const maxIters = () => 50 * (RL + lpCuts.length + 1);
-    // Room for the first cut rounds' rows; the LP grows when more are added.
-    const lp = new CoverLp(lpRows, lpCols, w, K, lpCuts, cutRounds > 0 || rowGen ? 2 * TUNING.cutsPerRound + 16 : 0);
+    // Room for the rows row generation may add and the first cut rounds' rows; the LP grows when more are added.
+    const lp = new CoverLp(lpRows, lpCols, w, K, lpCuts, (cutRounds > 0 || rowGen ? 2 * TUNING.cutsPerRound + 16 : 0) + (RL - lpRows));
     /** Solves, adding the rows left under 1 until none is. */
     const solveAll = (at: CoverLp, track = true): "optimal" | "infeasible" | "stopped" => {
       let st = at.solve(this.deadline, maxIters());

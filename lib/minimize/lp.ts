@@ -42,8 +42,8 @@ export interface CoverLpResult {
  */
 const freeBuffers: Float64Array[] = [];
 
-/** A buffer whose first `size` entries are zero (it may be longer), from the free list when one fits. */
-function takeBuffer(size: number): Float64Array {
+/** A buffer of at least `size` entries whose first `zero` are zero, from the free list when one fits. */
+function takeBuffer(size: number, zero = size): Float64Array {
   let best = -1;
   for (let k = 0; k < freeBuffers.length; k++) {
     const len = freeBuffers[k]!.length;
@@ -52,7 +52,7 @@ function takeBuffer(size: number): Float64Array {
   if (best < 0) return new Float64Array(size);
   // The whole buffer, not a view of its first `size` entries: the simplex ran slower on views.
   const buf = freeBuffers.splice(best, 1)[0]!;
-  buf.fill(0, 0, size);
+  buf.fill(0, 0, zero);
   return buf;
 }
 
@@ -131,7 +131,8 @@ export class CoverLp {
     this.card = rowCount;
     this.indexCuts();
     const NV = n + S;
-    const Binv = takeBuffer(S * S);
+    // Only the rows in use are cleared: a row added later is written whole (see withCuts).
+    const Binv = takeBuffer(S * S, M * S);
     for (let i = 0; i < M; i++) Binv[i * S + i] = 1;
     const basis = new Int32Array(S);
     for (let i = 0; i < M; i++) basis[i] = n + i;
