@@ -120,9 +120,10 @@ export const DENSE_MAX_INPUTS = 13;
 /**
  * The same multi-output primes as {@link taggedPrimes}, from a table over all
  * 3^n cubes in ternary order (digit 0 / 1 a literal, 2 absent): a cube's tag
- * is the intersection of its two halves along its lowest absent variable, and
- * a half whose tag equals the whole's is not prime. No maps and no merging
- * lists, so it is much faster for dense functions of few inputs.
+ * (the outputs it may serve) is the intersection of its two halves along any
+ * absent variable, and a half whose tag equals the whole's is not prime. No
+ * maps and no merging lists, so it is much faster for dense functions of few
+ * inputs. The primes come in ternary order.
  * `mintermTags[m]` is minterm m's tag; at most `maxPrimes` primes.
  */
 export function denseTaggedPrimes(
@@ -132,6 +133,93 @@ export function denseTaggedPrimes(
 ): TaggedPrime[] {
   if (n > DENSE_MAX_INPUTS) throw new RangeError(`dense prime table: ${n} inputs, at most ${DENSE_MAX_INPUTS}`);
   if (n === 0) return mintermTags[0] ? [{ value: 0, mask: 0, tag: mintermTags[0] }] : [];
+  // Two ways over the same table, with the same primes in the same order. Visiting only the implicants
+  // pays when they are few: at up to 55 % of the minterms in some output's ON or DC set it took half the
+  // time of the scan at 10 to 13 inputs and 50 %, about the same at 60 %, and up to 2.5 times longer above.
+  let care = 0;
+  for (let m = 0; m < mintermTags.length; m++) if (mintermTags[m] !== 0) care++;
+  return care <= 0.55 * mintermTags.length ? queueTaggedPrimes(n, mintermTags, limits) : scanTaggedPrimes(n, mintermTags, limits);
+}
+
+/** The worklist: only the implicants, level by level, each cube's partners found in the table. */
+function queueTaggedPrimes(n: number, mintermTags: Uint32Array, limits: { maxPrimes: number; deadline: number }): TaggedPrime[] {
+  const N = 3 ** n;
+  const pow = new Int32Array(n + 1);
+  pow[0] = 1;
+  for (let i = 0; i < n; i++) pow[i + 1] = pow[i]! * 3;
+  // The narrowest tags that hold every output.
+  let any = 0;
+  for (let m = 0; m < mintermTags.length; m++) any |= mintermTags[m]!;
+  any >>>= 0;
+  const tag = any < 256 ? new Uint8Array(N) : any < 65536 ? new Uint16Array(N) : new Uint32Array(N);
+  const notPrime = new Uint8Array(N);
+  // The implicants found, level by level (a queue: every cube of k absent variables comes before every cube of
+  // k + 1), each with its ternary index, its literal values and its absent variables. Only implicants are
+  // visited, not all 3^n cubes: a table lookup finds a cube's partner along each variable.
+  let cap = 1024;
+  let qT = new Int32Array(cap);
+  let qV = new Int32Array(cap);
+  let qF = new Int32Array(cap);
+  let tail = 0;
+  const push = (T: number, v: number, f: number) => {
+    if (tail === cap) {
+      cap *= 2;
+      const grow = (a: Int32Array) => {
+        const b = new Int32Array(cap);
+        b.set(a);
+        return b;
+      };
+      qT = grow(qT);
+      qV = grow(qV);
+      qF = grow(qF);
+    }
+    qT[tail] = T;
+    qV[tail] = v;
+    qF[tail++] = f;
+  };
+  for (let m = 0; m < mintermTags.length; m++) {
+    const t = mintermTags[m]!;
+    if (t === 0) continue;
+    let T = 0;
+    for (let x = m; x !== 0; x &= x - 1) T += pow[31 - Math.clz32(x & -x)]!;
+    tag[T] = t;
+    push(T, m, 0);
+  }
+  // A cube and its partner along a variable it holds at 0 make the cube without that variable; its tag is the
+  // intersection of theirs (the outputs both may serve), and a half whose tag equals the whole's is not prime.
+  for (let head = 0; head < tail; head++) {
+    if ((head & 4095) === 4095 && Date.now() > limits.deadline) throw new ExactLimit("timeLimitMs", head);
+    const T = qT[head]!;
+    const t = tag[T]!;
+    const v = qV[head]!;
+    const f = qF[head]!;
+    for (let zeros = ~(v | f) & ((1 << n) - 1); zeros !== 0; zeros &= zeros - 1) {
+      const i = 31 - Math.clz32(zeros & -zeros);
+      const P = T + pow[i]!;
+      const t2 = tag[P]!;
+      if (t2 === 0) continue;
+      const mt = t & t2;
+      if (mt === 0) continue;
+      if (mt === t) notPrime[T] = 1;
+      if (mt === t2) notPrime[P] = 1;
+      const W = P + pow[i]!;
+      if (tag[W] === 0) {
+        tag[W] = mt;
+        push(W, v, f | (1 << i));
+      }
+    }
+  }
+  // The primes in ternary order, the order of a scan over the table.
+  const order: number[] = [];
+  for (let k = 0; k < tail; k++) if (notPrime[qT[k]!] === 0) order.push(k);
+  if (order.length > limits.maxPrimes) throw new ExactLimit("maxPrimes", limits.maxPrimes + 1);
+  order.sort((a, b) => qT[a]! - qT[b]!);
+  const full = fullMask(n);
+  return order.map((k) => ({ value: qV[k]! >>> 0, mask: (full & ~qF[k]!) >>> 0, tag: tag[qT[k]!]! }));
+}
+
+/** The table scan: every cube in ternary order, its tag from its two halves along its lowest absent variable. */
+function scanTaggedPrimes(n: number, mintermTags: Uint32Array, limits: { maxPrimes: number; deadline: number }): TaggedPrime[] {
   const N = 3 ** n;
   const pow = new Int32Array(n + 1);
   pow[0] = 1;

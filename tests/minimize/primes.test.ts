@@ -83,21 +83,35 @@ describe("recursive prime generation", () => {
 });
 
 describe("dense multi-output prime table", () => {
-  for (const [n, k, seed] of [
-    [5, 3, 81],
-    [6, 2, 82],
-    [6, 3, 83],
-    [7, 1, 84],
+  // Both of its ways: a scan of the whole table above 55 % of the minterms in some care set, a worklist of
+  // the implicants at or below (the last cases, and random ones of one output at 40 % ON and 10 % DC).
+  for (const [n, k, seed, pOn, pDc] of [
+    [5, 3, 81, 0.45, 0.15],
+    [6, 2, 82, 0.45, 0.15],
+    [6, 3, 83, 0.45, 0.15],
+    [7, 1, 84, 0.45, 0.15],
+    [7, 1, 85, 0.3, 0.1],
+    [8, 1, 86, 0.4, 0.1],
+    [6, 2, 87, 0.2, 0.1],
+    [8, 3, 88, 0.15, 0.05],
   ] as const) {
-    it(`equals brute-force multi-output primes on ${n} inputs, ${k} outputs (seed ${seed})`, () => {
-      const spec = randomSpec(n, k, seed, 0.45, 0.15);
+    it(`equals brute-force multi-output primes on ${n} inputs, ${k} outputs, ${pOn * 100} % ON (seed ${seed}), in ternary order`, () => {
+      const spec = randomSpec(n, k, seed, pOn, pDc);
       // Reference: the test's own enumeration (bruteTaggedPrimes).
       const want = bruteTaggedPrimes(spec);
       const tagOfCube = new Map(bruteImplicants(spec).map((p) => [`${p.cube.value}/${p.cube.mask}`, p.tag]));
       const tagOfMinterm = (m: number) => tagOfCube.get(`${m}/${fullMask(n)}`) ?? 0;
       const limits = { maxPrimes: Infinity, maxImplicants: Infinity, deadline: Infinity };
-      const dense = denseTaggedPrimes(n, Uint32Array.from({ length: 2 ** n }, (_, m) => tagOfMinterm(m)), limits).map((p) => `${cubeToString(p, n)}:${p.tag}`).sort();
+      const got = denseTaggedPrimes(n, Uint32Array.from({ length: 2 ** n }, (_, m) => tagOfMinterm(m)), limits);
+      const dense = got.map((p) => `${cubeToString(p, n)}:${p.tag}`).sort();
       expect(dense).toEqual(want);
+      // Ternary order (digit i: 0 or 1 the literal's value, 2 absent), which the cover search's tie-breaks depend on.
+      const ternary = got.map((p) => {
+        let t = 0;
+        for (let i = n - 1; i >= 0; i--) t = 3 * t + (((p.mask >>> i) & 1) === 0 ? 2 : (p.value >>> i) & 1);
+        return t;
+      });
+      for (let i = 1; i < ternary.length; i++) expect(ternary[i]!).toBeGreaterThan(ternary[i - 1]!);
       const minterms = Array.from({ length: 2 ** n }, (_, m) => m);
       const tables = taggedPrimes(n, minterms, tagOfMinterm, limits).map((p) => `${cubeToString(p, n)}:${p.tag}`).sort();
       expect(tables).toEqual(want);
