@@ -318,6 +318,13 @@ class BranchAndBound {
   /** Scratch lists of columns and rows for the reductions. */
   private readonly bufC: Int32Array;
   private readonly bufR: Int32Array;
+  /**
+   * For {@link reduce}: rows whose columns and columns whose rows changed since their last test (essential,
+   * row dominance, column dominance). Sets only shrink, so a test that found nothing finds nothing again until then.
+   */
+  private readonly dirtyEss: Uint8Array;
+  private readonly dirtyRow: Uint8Array;
+  private readonly dirtyCol: Uint8Array;
   /** Cuts found at the root, over core columns: valid for every cover the search considers. */
   readonly cuts: LpCut[] = [];
   /** The root's live columns and taken columns after its reductions (what the cuts assume). */
@@ -372,6 +379,9 @@ class BranchAndBound {
     }
     this.bufC = new Int32Array(C);
     this.bufR = new Int32Array(R);
+    this.dirtyEss = new Uint8Array(R);
+    this.dirtyRow = new Uint8Array(R);
+    this.dirtyCol = new Uint8Array(C);
     this.nnz = nnz;
   }
 
@@ -551,6 +561,19 @@ class BranchAndBound {
     const WC = this.WC;
     const bufC = this.bufC;
     const bufR = this.bufR;
+    const { dirtyEss, dirtyRow, dirtyCol, rowColsS } = this;
+    dirtyEss.fill(1);
+    dirtyRow.fill(1);
+    dirtyCol.fill(1);
+    // A row's columns changed: its essential and dominance tests are due again; likewise a column's rows.
+    const rowChanged = (r: number) => {
+      dirtyEss[r] = 1;
+      dirtyRow[r] = 1;
+    };
+    const colsOfRowChanged = (r: number) => {
+      const l = rowColsS[r]!;
+      for (let i = 0; i < l.length; i++) dirtyCol[l[i]!] = 1;
+    };
     for (let changed = true; changed; ) {
       changed = false;
       if (Date.now() > this.deadline) {
@@ -564,7 +587,8 @@ class BranchAndBound {
           const b = x & -x;
           x ^= b;
           const r = k * 32 + 31 - Math.clz32(b);
-          if (!((rowsA[r >>> 5]! >>> (r & 31)) & 1)) continue;
+          if (!((rowsA[r >>> 5]! >>> (r & 31)) & 1) || dirtyEss[r] === 0) continue;
+          dirtyEss[r] = 0;
           const l = this.rowColsS[r]!;
           let n = 0;
           let only = -1;
@@ -579,6 +603,9 @@ class BranchAndBound {
           if (n === 1) {
             picked.push(only);
             added += this.w[only]!;
+            // The columns of the rows it covers lose rows.
+            const rs = this.cols[only]!;
+            for (let i = 0; i < rs.length; i++) if ((rowsA[rs[i]! >>> 5]! >>> (rs[i]! & 31)) & 1) colsOfRowChanged(rs[i]!);
             this.take(only, rowsA, colsA);
             x &= rowsA[k]!;
             changed = true;
@@ -592,6 +619,8 @@ class BranchAndBound {
           const b = x & -x;
           x ^= b;
           const c1 = k * 32 + 31 - Math.clz32(b);
+          if (dirtyCol[c1] === 0) continue;
+          dirtyCol[c1] = 0;
           const nr = this.rowsOfColInto(c1, rowsA, bufR);
           if (nr === 0) {
             colsA[k]! &= ~b;
@@ -613,6 +642,7 @@ class BranchAndBound {
             if (!subset) continue;
             if (this.w[c2] === this.w[c1] && c2 > c1 && this.colCount(c2, rowsA) === nr) continue;
             colsA[k]! &= ~b;
+            for (let i = 0; i < nr; i++) rowChanged(bufR[i]!);
             changed = true;
             break;
           }
@@ -625,7 +655,8 @@ class BranchAndBound {
           const b = x & -x;
           x ^= b;
           const r1 = k * 32 + 31 - Math.clz32(b);
-          if (!((rowsA[r1 >>> 5]! >>> (r1 & 31)) & 1)) continue;
+          if (!((rowsA[r1 >>> 5]! >>> (r1 & 31)) & 1) || dirtyRow[r1] === 0) continue;
+          dirtyRow[r1] = 0;
           const nc = this.colsOfRowInto(r1, colsA, bufC);
           if (nc === 0) return -1;
           // Rows sharing r1's first column are the only candidates.
@@ -644,6 +675,7 @@ class BranchAndBound {
             if (!subset) continue;
             if (r2 < r1 && this.rowDegree(r2, colsA) === nc) continue;
             rowsA[r2 >>> 5]! &= ~(1 << (r2 & 31));
+            colsOfRowChanged(r2);
             changed = true;
           }
         }
