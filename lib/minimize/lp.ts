@@ -345,11 +345,13 @@ export class CoverLp {
       // Entries and multipliers that are rounding noise (below 1e-13) are dropped, which keeps B⁻¹ as
       // sparse as it really is; the bounds and cuts are computed from the problem's data, so this can only cost tightness.
       // The row norms follow exactly: |r_i − f r_p|² = β_i − 2f (r_i·r_p) + f² β_p.
+      // Row p's nonzeros are rowNz (B⁻¹ has not changed since it was read): the other entries are 0 already.
       const prow = p * S;
       const inv = 1 / apq;
       let nz = 0;
       let bp = 0;
-      for (let k = 0; k < M; k++) {
+      for (let t = 0; t < nzp; t++) {
+        const k = rowNz[t]!;
         const v = Binv[prow + k]!;
         if (v > 1e-13 || v < -1e-13) {
           const s2 = v * inv;
