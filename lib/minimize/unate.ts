@@ -141,10 +141,14 @@ export class WorkBudget {
  */
 export const COST = { cube: 200, pair: 3, product: 50, test: 2, merge: 14 };
 
-/** Thrown by {@link WorkBudget.spend} when the allowance is used up. */
+/** Thrown by {@link WorkBudget.spend} when the allowance is used up; caught by the caller, which takes another route. */
 export class OverBudget extends Error {
   constructor() {
+    // Without a stack trace: it is thrown on every function the recursive rule gives up on, and never shown.
+    const limit = Error.stackTraceLimit;
+    Error.stackTraceLimit = 0;
     super("work budget exhausted");
+    Error.stackTraceLimit = limit;
   }
 }
 
