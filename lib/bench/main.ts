@@ -3,8 +3,8 @@
  * and structured ones, each minimized by minimize() and, when that result is
  * exact, also by the generic route (all primes, then a highs MILP), printing
  * one table row per case and a summary against the targets. Both routes are
- * warmed up first and timed as the fastest of a few runs (see bestOf); both
- * start from the same prime generation.
+ * warmed up first and timed as the fastest of a few runs (see bestOf), in
+ * three rounds on the cases both solve; both start from the same prime generation.
  */
 import { popcount } from "../logic";
 import { columnWeight } from "../minimize/cost";
@@ -37,6 +37,9 @@ const pad = (s: string | number, w: number) => String(s).padStart(w);
  * doubles the times of the JavaScript route, whose heap it shrinks, and
  * barely touches the WebAssembly solver's, so it would favour the generic route.)
  */
+/** Rounds of the two routes' timings on a case both solve (see the loop in main). */
+const ROUNDS = 3;
+
 async function bestOf(run: () => number | Promise<number>): Promise<number> {
   let best = Infinity;
   let spent = 0;
@@ -77,20 +80,28 @@ async function main(): Promise<void> {
   for (const { c, timeLimitMs } of cases) {
     // Timed here with the same clock as the generic route (fractional ms); r.ms is whole ms.
     let r0: MinimizeResult | null = null;
-    const ms = await bestOf(() => {
-      const t0 = performance.now();
-      r0 = minimize(c.spec, { timeLimitMs });
-      return performance.now() - t0;
-    });
+    const ours = () =>
+      bestOf(() => {
+        const t0 = performance.now();
+        r0 = minimize(c.spec, { timeLimitMs });
+        return performance.now() - t0;
+      });
+    let ms = await ours();
     const r = { ...r0!, ms };
     let generic: Row["generic"] = null;
     if (r.exact && r.route === "exact") {
+      // Both routes in turn, ROUNDS times (each time the fastest of a few runs, see bestOf); each route's fastest
+      // over the rounds counts. A slow spell of the shared machine then meets both routes, not only one.
       let g: GenericResult | null = null;
-      await bestOf(async () => {
-        const run = await genericRoute(c.spec);
-        if (!g || run.ms < g.ms) g = run;
-        return run.ms;
-      });
+      for (let round = 0; round < ROUNDS; round++) {
+        if (round > 0) ms = Math.min(ms, await ours());
+        await bestOf(async () => {
+          const run = await genericRoute(c.spec);
+          if (!g || run.ms < g.ms) g = run;
+          return run.ms;
+        });
+      }
+      r.ms = ms;
       const best = g as GenericResult | null;
       generic = { ms: best!.ms, agree: best!.weight === null ? null : best!.weight === coverWeight(r), status: best!.status };
     }
