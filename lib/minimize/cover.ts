@@ -966,11 +966,12 @@ class BranchAndBound {
     const maxIters = () => 50 * (RL + lpCuts.length + 1);
     // Room for the rows row generation may add and the first cut rounds' rows; the LP grows when more are added.
     const lp = new CoverLp(lpRows, lpCols, w, K, lpCuts, (cutRounds > 0 || rowGen ? 2 * TUNING.cutsPerRound + 16 : 0) + (RL - lpRows));
+    const xRowGen = new Float64Array(NL);
     /** Solves, adding the rows left under 1 until none is. */
     const solveAll = (at: CoverLp, track = true): "optimal" | "infeasible" | "stopped" => {
       let st = at.solve(this.deadline, maxIters());
       while (st === "optimal" && rowGen) {
-        const xl = at.primal();
+        const xl = at.primal(xRowGen);
         const short: { r: number; s: number }[] = [];
         for (let r = 0; r < RL; r++) {
           if (inLp[r]) continue;

@@ -328,12 +328,15 @@ function problemFromPrimes(n: number, targets: Target[], model: CostModel, all: 
     rowsPerOutput.push(rowCount - start);
     return f;
   });
-  const colRows: Int32Array[] = [];
   const weight: number[] = [];
   const cols: TaggedPrime[] = [];
-  let buf = new Int32Array(1024);
+  // Every column's rows in one buffer (column i's at ends[i - 1] .. ends[i]), cut into views at the end:
+  // hundreds of small arrays of their own cost more to allocate and collect than the rest of this.
+  let buf = new Int32Array(4096);
+  let len = 0;
+  const ends: number[] = [];
   for (const p of all) {
-    let len = 0;
+    const len0 = len;
     // The cube's minterms a word at a time: `pattern` holds its positions within a word (variables 0..4),
     // the words are those matching it on variables 5 and up.
     const lowFree = ~p.mask & full & 31;
@@ -373,11 +376,13 @@ function problemFromPrimes(n: number, targets: Target[], model: CostModel, all: 
         if (sub === highFree) break;
       }
     }
-    if (len === 0) continue;
+    if (len === len0) continue;
     cols.push(p);
-    colRows.push(buf.slice(0, len));
+    ends.push(len);
     weight.push(columnWeight(model, popcount(p.mask)));
   }
+  const colRows: Int32Array[] = [];
+  for (let i = 0, at = 0; i < ends.length; at = ends[i++]!) colRows.push(buf.subarray(at, ends[i]!));
   return { primes: all, columns: cols, colRows, weight, rowCount, rowsPerOutput };
 }
 

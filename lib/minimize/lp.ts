@@ -87,6 +87,7 @@ export class CoverLp {
   private colCutStart = new Int32Array(0);
   private colCutRow = new Int32Array(0);
   private colCutVal = new Int32Array(0);
+  private cutAt = new Int32Array(0);
   /** The simplex state: basis inverse (by rows, stride S), basis, each variable's basis row (-1 nonbasic), basic values,
    * nonbasic columns at 1, reduced costs, dual steepest-edge weights. */
   private Binv: Float64Array;
@@ -183,15 +184,24 @@ export class CoverLp {
     return this.cutList;
   }
 
-  /** Columns → cut rows, from the cut list. */
+  /** Columns → cut rows, from the cut list (rebuilt as cuts are added, into the same arrays while they fit). */
   private indexCuts(): void {
     const n = this.n;
-    const start = new Int32Array(n + 1);
+    let start = this.colCutStart;
+    if (start.length !== n + 1) start = new Int32Array(n + 1);
+    else start.fill(0);
     for (const cut of this.cutList) for (let k = 0; k < cut.cols.length; k++) start[cut.cols[k]! + 1]!++;
     for (let j = 0; j < n; j++) start[j + 1]! += start[j]!;
-    const row = new Int32Array(start[n]!);
-    const val = new Int32Array(start[n]!);
-    const at = start.slice(0, n);
+    const total = start[n]!;
+    let row = this.colCutRow;
+    let val = this.colCutVal;
+    if (row.length < total) {
+      row = new Int32Array(2 * total);
+      val = new Int32Array(2 * total);
+    }
+    if (this.cutAt.length !== n) this.cutAt = new Int32Array(n);
+    const at = this.cutAt;
+    at.set(start.subarray(0, n));
     this.cutList.forEach((cut, g) => {
       for (let k = 0; k < cut.cols.length; k++) {
         const j = cut.cols[k]!;
@@ -483,9 +493,10 @@ export class CoverLp {
     const { n, S, Binv, pos } = this;
     const M = this.M;
     const x = this.primal();
-    // The basis rows of the cut's basic columns, in basis order, with their coefficients.
+    // The basis rows of the cut's basic columns, in basis order, with their coefficients (in rowp, the
+    // simplex's scratch row, free between solves; only the entries listed in basicRow are read).
     const basicRow: number[] = [];
-    const basicCoef = new Float64Array(M);
+    const basicCoef = this.rowp;
     fresh.forEach((cut, g) => {
       const i = M + g;
       const row = i * S;
