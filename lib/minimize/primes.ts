@@ -209,13 +209,21 @@ function queueTaggedPrimes(n: number, mintermTags: Uint32Array, limits: { maxPri
       }
     }
   }
-  // The primes in ternary order, the order of a scan over the table.
-  const order: number[] = [];
-  for (let k = 0; k < tail; k++) if (notPrime[qT[k]!] === 0) order.push(k);
-  if (order.length > limits.maxPrimes) throw new ExactLimit("maxPrimes", limits.maxPrimes + 1);
-  order.sort((a, b) => qT[a]! - qT[b]!);
+  // The primes in ternary order, the order of a scan over the table: sorted by T · 2^21 + their place in
+  // the queue (both below 3^13 < 2^21, so the keys are exact), a numeric sort without a comparator.
+  let count = 0;
+  for (let k = 0; k < tail; k++) if (notPrime[qT[k]!] === 0) count++;
+  if (count > limits.maxPrimes) throw new ExactLimit("maxPrimes", limits.maxPrimes + 1);
+  const keys = new Float64Array(count);
+  for (let k = 0, at = 0; k < tail; k++) if (notPrime[qT[k]!] === 0) keys[at++] = qT[k]! * 2097152 + k;
+  keys.sort();
   const full = fullMask(n);
-  return order.map((k) => ({ value: qV[k]! >>> 0, mask: (full & ~qF[k]!) >>> 0, tag: tag[qT[k]!]! }));
+  const primes: TaggedPrime[] = new Array(count);
+  for (let i = 0; i < count; i++) {
+    const k = keys[i]! % 2097152;
+    primes[i] = { value: qV[k]! >>> 0, mask: (full & ~qF[k]!) >>> 0, tag: tag[qT[k]!]! };
+  }
+  return primes;
 }
 
 /** The table scan: every cube in ternary order, its tag from its two halves along its lowest absent variable. */
