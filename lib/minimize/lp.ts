@@ -105,6 +105,17 @@ export class CoverLp {
   private readonly rowStart: Int32Array;
   private readonly rowCols: Int32Array;
   private rowNz: Int32Array;
+  /**
+   * For each column k of B⁻¹, a superset of its nonzero rows (bitset, W words a column; bits only ever set
+   * between rebuilds): the entering column B⁻¹a_q is computed over the union of its columns' sets only
+   * (B⁻¹ a_q is 6–13 % nonzero on the random 10-input bench cases). `colNzRows` lists the entering
+   * column's nonzero rows, `pivotRows` is the bitset of the rows a pivot changes, `union` scratch.
+   */
+  private colMask: Uint32Array;
+  private W: number;
+  private union: Uint32Array;
+  private pivotRows: Uint32Array;
+  private colNzRows: Int32Array;
   private readonly seen: Int32Array;
   private touched: Int32Array;
   private stamp = 0;
@@ -135,6 +146,13 @@ export class CoverLp {
     // Only the rows in use are cleared: a row added later is written whole (see withCuts).
     const Binv = takeBuffer(S * S, M * S);
     for (let i = 0; i < M; i++) Binv[i * S + i] = 1;
+    const W = (S + 31) >>> 5;
+    this.W = W;
+    this.colMask = new Uint32Array(S * W);
+    for (let k = 0; k < M; k++) this.colMask[k * W + (k >>> 5)] = 1 << (k & 31);
+    this.union = new Uint32Array(W);
+    this.pivotRows = new Uint32Array(W);
+    this.colNzRows = new Int32Array(S);
     const basis = new Int32Array(S);
     for (let i = 0; i < M; i++) basis[i] = n + i;
     const pos = new Int32Array(NV).fill(-1);
@@ -228,6 +246,7 @@ export class CoverLp {
   solve(deadline = Infinity, maxIters = 50 * (this.M + 1)): "optimal" | "infeasible" | "stopped" {
     const { Binv, basis, pos, xB, atUpper, d, beta } = this;
     const { n, M, S, alpha, colq, rowp, nzIdx, cols, rowStart, rowCols, rowNz, seen, touched, rowCount, cutBase, colCutStart } = this;
+    const { W, colMask, union, pivotRows, colNzRows } = this;
     const hasCard = this.hasCard;
     const card = this.card;
     const tolP = 1e-9;
@@ -320,16 +339,33 @@ export class CoverLp {
         }
       }
       if (q < 0) return this.certifiedInfeasible(p) ? "infeasible" : "stopped";
-      // Entering column B⁻¹ a_q.
+      // Entering column B⁻¹ a_q, over the rows where one of a_q's columns of B⁻¹ may be nonzero (elsewhere
+      // every term is 0, and so is the entry); nc of them end nonzero, listed in colNzRows.
+      colq.fill(0, 0, M);
+      union.fill(0);
+      const c0 = colCutStart[q]!;
+      const c1 = q < n ? colCutStart[q + 1]! : c0;
       if (q < n) {
         const l = cols[q]!;
-        // Column by column (the same sums in the same order): each pass is one constant stride through B⁻¹.
-        if (hasCard) for (let i = 0, at = card; i < M; i++, at += S) colq[i] = Binv[at]!;
-        else colq.fill(0, 0, M);
-        for (let k = 0; k < l.length; k++) for (let i = 0, at = l[k]!; i < M; i++, at += S) colq[i]! -= Binv[at]!;
-        if (colCutStart[q + 1]! > colCutStart[q]!) this.cutEntriesIntoColumn(q);
-      } else {
-        for (let i = 0; i < M; i++) colq[i] = Binv[i * S + (q - n)]!;
+        if (hasCard) for (let w = 0, at = card * W; w < W; w++) union[w]! |= colMask[at + w]!;
+        for (let k = 0; k < l.length; k++) for (let w = 0, at = l[k]! * W; w < W; w++) union[w]! |= colMask[at + w]!;
+        for (let e = c0; e < c1; e++) for (let w = 0, at = this.colCutRow[e]! * W; w < W; w++) union[w]! |= colMask[at + w]!;
+      } else for (let w = 0, at = (q - n) * W; w < W; w++) union[w] = colMask[at + w]!;
+      let nc = 0;
+      for (let w = 0; w < W; w++) {
+        for (let x = union[w]!; x !== 0; x &= x - 1) {
+          const i = (w << 5) | (31 - Math.clz32(x & -x));
+          const row = i * S;
+          let sum: number;
+          if (q < n) {
+            const l = cols[q]!;
+            sum = hasCard ? Binv[row + card]! : 0;
+            for (let k = 0; k < l.length; k++) sum -= Binv[row + l[k]!]!;
+            if (c1 > c0) sum += this.cutEntriesOfRow(row, c0, c1);
+          } else sum = Binv[row + (q - n)]!;
+          colq[i] = sum;
+          if (sum !== 0) colNzRows[nc++] = i;
+        }
       }
       const apq = colq[p]!;
       if (Math.abs(apq) < tolPiv) return "stopped"; // the row and column disagree numerically
@@ -344,7 +380,10 @@ export class CoverLp {
       const target = below ? 0 : 1;
       const thetaP = (xB[p]! - target) / apq;
       const xq = q < n ? atUpper[q]! : 0;
-      for (let i = 0; i < M; i++) xB[i]! -= thetaP * colq[i]!;
+      for (let t = 0; t < nc; t++) {
+        const i = colNzRows[t]!;
+        xB[i]! -= thetaP * colq[i]!;
+      }
       xB[p] = xq + thetaP;
       atUpper[leave] = below ? 0 : 1;
       atUpper[q] = 0;
@@ -371,10 +410,13 @@ export class CoverLp {
         } else Binv[prow + k] = 0;
       }
       beta[p] = bp;
-      for (let i = 0; i < M; i++) {
+      pivotRows.fill(0);
+      for (let t = 0; t < nc; t++) {
+        const i = colNzRows[t]!;
         if (i === p) continue;
         const f = colq[i]!;
         if (f < 1e-13 && f > -1e-13) continue;
+        pivotRows[i >>> 5]! |= 1 << (i & 31);
         const row = i * S;
         let dot = 0;
         for (let t = 0; t < nz; t++) {
@@ -387,6 +429,8 @@ export class CoverLp {
         const b = beta[i]! - 2 * f * dot + f * f * bp;
         beta[i] = b > 1e-12 ? b : 1e-12;
       }
+      // The changed rows are nonzero at most in the pivot row's columns.
+      for (let t = 0; t < nz; t++) for (let w = 0, at = nzIdx[t]! * W; w < W; w++) colMask[at + w]! |= pivotRows[w]!;
     }
     return "stopped";
   }
@@ -410,18 +454,14 @@ export class CoverLp {
     return nt;
   }
 
-  /** Column q's cut entries added into the entering column B⁻¹a_q. */
-  private cutEntriesIntoColumn(q: number): void {
-    const { Binv, S, M, colq, colCutStart, colCutRow, colCutVal } = this;
-    const c0 = colCutStart[q]!;
-    const c1 = colCutStart[q + 1]!;
-    for (let i = 0; i < M; i++) {
-      const row = i * S;
-      let sum = 0;
-      for (let e = c0; e < c1; e++) sum += colCutVal[e]! * Binv[row + colCutRow[e]!]!;
-      colq[i]! += sum;
-    }
+  /** Row `row` of B⁻¹ (its offset) times the entering column's cut entries c0 .. c1 (summed in that order). */
+  private cutEntriesOfRow(row: number, c0: number, c1: number): number {
+    const { Binv, colCutRow, colCutVal } = this;
+    let sum = 0;
+    for (let e = c0; e < c1; e++) sum += colCutVal[e]! * Binv[row + colCutRow[e]!]!;
+    return sum;
   }
+
 
   /**
    * Whether row p of B⁻¹ proves the LP infeasible (a Farkas certificate):
@@ -522,6 +562,11 @@ export class CoverLp {
       let b = 0;
       for (let q = 0; q <= i; q++) b += Binv[row + q]! ** 2;
       this.beta[i] = b;
+      // Row i's nonzeros into the column sets; column i is e_i.
+      const { W, colMask } = this;
+      for (let q = 0; q < M; q++) if (Binv[row + q] !== 0) colMask[q * W + (i >>> 5)]! |= 1 << (i & 31);
+      colMask.fill(0, i * W, (i + 1) * W);
+      colMask[i * W + (i >>> 5)] = 1 << (i & 31);
       this.basis[i] = n + i;
       this.pos[n + i] = i;
       this.xB[i] = cut.rhs - lhs;
@@ -553,6 +598,14 @@ export class CoverLp {
     this.rowp = new Float64Array(S2);
     this.nzIdx = new Int32Array(S2);
     this.rowNz = new Int32Array(S2);
+    const W2 = (S2 + 31) >>> 5;
+    const colMask = new Uint32Array(S2 * W2);
+    for (let k = 0; k < M; k++) colMask.set(this.colMask.subarray(k * this.W, (k + 1) * this.W), k * W2);
+    this.colMask = colMask;
+    this.W = W2;
+    this.union = new Uint32Array(W2);
+    this.pivotRows = new Uint32Array(W2);
+    this.colNzRows = new Int32Array(S2);
     // Variables: the columns, then one slack per row.
     const pos = new Int32Array(n + S2).fill(-1);
     pos.set(this.pos.subarray(0, n + S));
