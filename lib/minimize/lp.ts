@@ -558,13 +558,20 @@ export class CoverLp {
         const src = k * S;
         for (let q = 0; q < M; q++) Binv[row + q]! -= f * Binv[src + q]!;
       }
-      Binv[row + i] = 1;
-      let b = 0;
-      for (let q = 0; q <= i; q++) b += Binv[row + q]! ** 2;
-      this.beta[i] = b;
-      // Row i's nonzeros into the column sets; column i is e_i.
+      // The row's squared norm (entries M .. i-1 are 0, entry i is 1), and its nonzeros into the column sets;
+      // column i is e_i.
       const { W, colMask } = this;
-      for (let q = 0; q < M; q++) if (Binv[row + q] !== 0) colMask[q * W + (i >>> 5)]! |= 1 << (i & 31);
+      let b = 0;
+      for (let q = 0; q < M; q++) {
+        const v = Binv[row + q]!;
+        if (v !== 0) {
+          b += v ** 2;
+          colMask[q * W + (i >>> 5)]! |= 1 << (i & 31);
+        }
+      }
+      Binv[row + i] = 1;
+      b += 1;
+      this.beta[i] = b;
       colMask.fill(0, i * W, (i + 1) * W);
       colMask[i * W + (i >>> 5)] = 1 << (i & 31);
       this.basis[i] = n + i;
