@@ -863,7 +863,6 @@ class BranchAndBound {
     for (const c of liveCols) cells += this.cols[c]!.length;
     const cRows = new Int32Array(cells);
     const w: number[] = [];
-    const scratch = this.bufR;
     cells = 0;
     for (let i = 0; i < NL; i++) {
       const c = liveCols[i]!;
