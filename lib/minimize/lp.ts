@@ -672,11 +672,13 @@ export class CoverLp {
     const c = new Float64Array(n);
     const idx = new Int32Array(n);
     const val = new Int32Array(n);
+    // The columns each combination touches (bitset; the others have c = 0 and add nothing below).
+    const NW = (n + 31) >>> 5;
+    const mark = new Uint32Array(NW);
     // Cuts met twice are kept once, told apart by a hash (a collision can only drop a cut).
     const seenKey = new Set<number>();
     for (const p of cand) {
       // c = λA and λb, exactly (dyadic λ, integer data), over the nonzero multipliers only.
-      c.fill(0);
       let lb = 0;
       let any = false;
       for (let i = 0; i < M; i++) {
@@ -687,14 +689,24 @@ export class CoverLp {
         any = true;
         if (i < rowCount) {
           lb -= l;
-          for (let e = rowStart[i]!; e < rowStart[i + 1]!; e++) c[rowCols[e]!]! -= l;
+          for (let e = rowStart[i]!; e < rowStart[i + 1]!; e++) {
+            const j = rowCols[e]!;
+            c[j]! -= l;
+            mark[j >>> 5]! |= 1 << (j & 31);
+          }
         } else if (hasCard && i === card) {
           lb += l * K;
           for (let j = 0; j < n; j++) c[j]! += l;
+          mark.fill(0xffffffff);
+          if (n & 31) mark[NW - 1] = (1 << (n & 31)) - 1;
         } else {
           const cut = cuts[i - cutBase]!;
           lb += l * cut.rhs;
-          for (let k = 0; k < cut.cols.length; k++) c[cut.cols[k]!]! += l * cut.val[k]!;
+          for (let k = 0; k < cut.cols.length; k++) {
+            const j = cut.cols[k]!;
+            c[j]! += l * cut.val[k]!;
+            mark[j >>> 5]! |= 1 << (j & 31);
+          }
         }
       }
       if (!any) continue;
@@ -704,23 +716,29 @@ export class CoverLp {
       let norm = 0;
       let hash = 0x811c9dc5;
       let big = false;
-      for (let j = 0; j < n; j++) {
-        let cj = c[j]!;
-        if (atUpper[j] === 1 && pos[j]! < 0) {
-          const nu = Math.ceil(cj) - cj;
-          rhs += nu;
-          cj += nu;
+      // The touched columns in ascending order (each then cleared for the next row).
+      for (let w = 0; w < NW; w++) {
+        for (let bits = mark[w]!; bits !== 0; bits &= bits - 1) {
+          const j = (w << 5) | (31 - Math.clz32(bits & -bits));
+          let cj = c[j]!;
+          c[j] = 0;
+          if (atUpper[j] === 1 && pos[j]! < 0) {
+            const nu = Math.ceil(cj) - cj;
+            rhs += nu;
+            cj += nu;
+          }
+          const pi = Math.floor(cj);
+          if (pi > CUT_LIMIT || pi < -CUT_LIMIT) big = true;
+          if (pi !== 0) {
+            idx[nnz] = j;
+            val[nnz++] = pi;
+            lhs += pi * x[j]!;
+            norm += pi * pi;
+            hash = Math.imul(hash ^ j, 16777619);
+            hash = Math.imul(hash ^ (pi & 0xffff), 16777619);
+          }
         }
-        const pi = Math.floor(cj);
-        if (pi > CUT_LIMIT || pi < -CUT_LIMIT) big = true;
-        if (pi !== 0) {
-          idx[nnz] = j;
-          val[nnz++] = pi;
-          lhs += pi * x[j]!;
-          norm += pi * pi;
-          hash = Math.imul(hash ^ j, 16777619);
-          hash = Math.imul(hash ^ (pi & 0xffff), 16777619);
-        }
+        mark[w] = 0;
       }
       if (nnz === 0) continue;
       // Sums are exact while |c|·2^20 stays below 2^53, and coefficients must fit Int32: cuts with large
