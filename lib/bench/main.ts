@@ -29,6 +29,9 @@ function coverWeight(r: MinimizeResult): number {
 
 const pad = (s: string | number, w: number) => String(s).padStart(w);
 
+/** Rounds of the two routes' timings on a case both solve (see the loop in main). */
+const ROUNDS = 3;
+
 /**
  * Milliseconds of the fastest of up to 10 runs, stopping once 1.5 s have been
  * spent. Both routes are timed this way, so neither the other work on a
@@ -37,9 +40,6 @@ const pad = (s: string | number, w: number) => String(s).padStart(w);
  * doubles the times of the JavaScript route, whose heap it shrinks, and
  * barely touches the WebAssembly solver's, so it would favour the generic route.)
  */
-/** Rounds of the two routes' timings on a case both solve (see the loop in main). */
-const ROUNDS = 3;
-
 async function bestOf(run: () => number | Promise<number>): Promise<number> {
   let best = Infinity;
   let spent = 0;

@@ -204,7 +204,7 @@ export interface CoveringProblem {
   primes: TaggedPrime[];
   /** The primes that reach at least one row, in column order. */
   columns: TaggedPrime[];
-  /** colRows[c]: rows covered by column c. */
+  /** colRows[c]: rows covered by column c (read-only views into one shared buffer, from problemFromPrimes). */
   colRows: Int32Array[];
   /** Integer weight of each column under the cost model (see ./cost). */
   weight: number[];

@@ -343,8 +343,8 @@ export class CoverLp {
       // every term is 0, and so is the entry); nc of them end nonzero, listed in colNzRows.
       colq.fill(0, 0, M);
       union.fill(0);
-      const c0 = colCutStart[q]!;
-      const c1 = q < n ? colCutStart[q + 1]! : c0;
+      const c0 = q < n ? colCutStart[q]! : 0;
+      const c1 = q < n ? colCutStart[q + 1]! : 0;
       if (q < n) {
         const l = cols[q]!;
         if (hasCard) for (let w = 0, at = card * W; w < W; w++) union[w]! |= colMask[at + w]!;

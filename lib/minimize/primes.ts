@@ -209,18 +209,19 @@ function queueTaggedPrimes(n: number, mintermTags: Uint32Array, limits: { maxPri
       }
     }
   }
-  // The primes in ternary order, the order of a scan over the table: sorted by T · 2^21 + their place in
-  // the queue (both below 3^13 < 2^21, so the keys are exact), a numeric sort without a comparator.
+  // The primes in ternary order, the order of a scan over the table: sorted by T · 3^n + their place in
+  // the queue (both below 3^n, so the keys stay below 3^(2n) < 2^53 and are exact), a numeric sort
+  // without a comparator.
   let count = 0;
   for (let k = 0; k < tail; k++) if (notPrime[qT[k]!] === 0) count++;
   if (count > limits.maxPrimes) throw new ExactLimit("maxPrimes", limits.maxPrimes + 1);
   const keys = new Float64Array(count);
-  for (let k = 0, at = 0; k < tail; k++) if (notPrime[qT[k]!] === 0) keys[at++] = qT[k]! * 2097152 + k;
+  for (let k = 0, at = 0; k < tail; k++) if (notPrime[qT[k]!] === 0) keys[at++] = qT[k]! * N + k;
   keys.sort();
   const full = fullMask(n);
   const primes: TaggedPrime[] = new Array(count);
   for (let i = 0; i < count; i++) {
-    const k = keys[i]! % 2097152;
+    const k = keys[i]! % N;
     primes[i] = { value: qV[k]! >>> 0, mask: (full & ~qF[k]!) >>> 0, tag: tag[qT[k]!]! };
   }
   return primes;
