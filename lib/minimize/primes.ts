@@ -141,18 +141,25 @@ export function denseTaggedPrimes(
   return care <= 0.55 * mintermTags.length ? queueTaggedPrimes(n, mintermTags, limits) : scanTaggedPrimes(n, mintermTags, limits);
 }
 
-/** The worklist: only the implicants, level by level, each cube's partners found in the table. */
-function queueTaggedPrimes(n: number, mintermTags: Uint32Array, limits: { maxPrimes: number; deadline: number }): TaggedPrime[] {
+/**
+ * The empty table both ways fill: 3^n cubes, the powers of 3, a tag per cube in the narrowest array that
+ * holds every output (the table is what the loops wait on), and a not-prime mark per cube.
+ */
+function ternaryTable(n: number, mintermTags: Uint32Array) {
   const N = 3 ** n;
   const pow = new Int32Array(n + 1);
   pow[0] = 1;
   for (let i = 0; i < n; i++) pow[i + 1] = pow[i]! * 3;
-  // The narrowest tags that hold every output.
   let any = 0;
   for (let m = 0; m < mintermTags.length; m++) any |= mintermTags[m]!;
   any >>>= 0;
   const tag = any < 256 ? new Uint8Array(N) : any < 65536 ? new Uint16Array(N) : new Uint32Array(N);
-  const notPrime = new Uint8Array(N);
+  return { N, pow, tag, notPrime: new Uint8Array(N) };
+}
+
+/** The worklist: only the implicants, level by level, each cube's partners found in the table. */
+function queueTaggedPrimes(n: number, mintermTags: Uint32Array, limits: { maxPrimes: number; deadline: number }): TaggedPrime[] {
+  const { N, pow, tag, notPrime } = ternaryTable(n, mintermTags);
   // The implicants found, level by level (a queue: every cube of k absent variables comes before every cube of
   // k + 1), each with its ternary index, its literal values and its absent variables. Only implicants are
   // visited, not all 3^n cubes: a table lookup finds a cube's partner along each variable.
@@ -229,16 +236,7 @@ function queueTaggedPrimes(n: number, mintermTags: Uint32Array, limits: { maxPri
 
 /** The table scan: every cube in ternary order, its tag from its two halves along its lowest absent variable. */
 function scanTaggedPrimes(n: number, mintermTags: Uint32Array, limits: { maxPrimes: number; deadline: number }): TaggedPrime[] {
-  const N = 3 ** n;
-  const pow = new Int32Array(n + 1);
-  pow[0] = 1;
-  for (let i = 0; i < n; i++) pow[i + 1] = pow[i]! * 3;
-  // The narrowest tags that hold every output: the table is what the loop waits on.
-  let any = 0;
-  for (let m = 0; m < mintermTags.length; m++) any |= mintermTags[m]!;
-  any >>>= 0;
-  const tag = any < 256 ? new Uint8Array(N) : any < 65536 ? new Uint16Array(N) : new Uint32Array(N);
-  const notPrime = new Uint8Array(N);
+  const { N, pow, tag, notPrime } = ternaryTable(n, mintermTags);
   // Odometer over digits 1 .. n-1; digit 0 is unrolled (T, T + 1, T + 2 = the 0, 1 and absent cases).
   const digit = new Uint8Array(n + 1);
   let value = 0;
