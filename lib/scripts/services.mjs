@@ -9,12 +9,18 @@ import { fileURLToPath } from "node:url";
 export const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../..");
 export const dataDir = path.join(root, ".data");
 export const pgDir = path.join(dataDir, "pg");
-export const PG_PORT = Number(process.env.FANBOUND_PG_PORT ?? 54329);
+/**
+ * Shifts every port the scripts use (PostgreSQL, mail, web) by this much, so
+ * that two checkouts on one machine can run their services side by side.
+ * Default 0.
+ */
+export const PORT_OFFSET = Number(process.env.FANBOUND_PORT_OFFSET ?? 0);
+export const PG_PORT = Number(process.env.FANBOUND_PG_PORT ?? 54329 + PORT_OFFSET);
 const isRoot = typeof process.getuid === "function" && process.getuid() === 0;
 
 export const profiles = {
-  dev: { database: "fanbound", smtpPort: 2525, webPort: 3000, mailDir: path.join(dataDir, "mail") },
-  test: { database: "fanbound_test", smtpPort: 2526, webPort: 3100, mailDir: path.join(dataDir, "mail-test") },
+  dev: { database: "fanbound", smtpPort: 2525 + PORT_OFFSET, webPort: 3000 + PORT_OFFSET, mailDir: path.join(dataDir, "mail") },
+  test: { database: "fanbound_test", smtpPort: 2526 + PORT_OFFSET, webPort: 3100 + PORT_OFFSET, mailDir: path.join(dataDir, "mail-test") },
 };
 
 export function log(msg) {

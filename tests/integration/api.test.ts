@@ -21,7 +21,7 @@ import * as nextauth from "@/app/api/auth/[...nextauth]/route";
 import * as member from "@/app/api/v1/workspaces/[ws]/members/[userId]/route";
 import * as exporter from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/[number]/export/route";
 import { encode } from "next-auth/jwt";
-import { SOURCE, builtinFamily, call, counts, makeUser, makeWorkspace, tag, type TestUser, addMember } from "./helpers";
+import { BASE, SOURCE, builtinFamily, call, counts, makeUser, makeWorkspace, tag, type TestUser, addMember } from "./helpers";
 
 let owner: TestUser;
 let ws: { id: string; slug: string };
@@ -76,7 +76,7 @@ describe("bad bodies are refused in the error shape and change nothing", () => {
         else ctrl.close();
       },
     });
-    const req = new Request(`http://127.0.0.1:3100/api/v1/workspaces`, {
+    const req = new Request(`${BASE}/api/v1/workspaces`, {
       method: "POST",
       headers: { "content-type": "application/json", authorization: `Bearer ${owner.token}` },
       body: stream,
@@ -240,7 +240,7 @@ describe("rate limits", () => {
     const email = `victim-${tag()}@test.ferrow.example`;
     const key = `direct|password|${email}`;
     for (let i = 0; i < 10; i++) limiters.signIn.take(key);
-    const req = new Request("http://127.0.0.1:3100/api/auth/callback/password", {
+    const req = new Request(`${BASE}/api/auth/callback/password`, {
       method: "POST",
       headers: { "content-type": "application/x-www-form-urlencoded" },
       body: new URLSearchParams({ email, password: "guess", csrfToken: "x" }),
