@@ -26,7 +26,7 @@ export default function Landing() {
       </SiteHeader>
       <main>
         <section className="sheet-grid border-b border-rule">
-          <div className="mx-auto grid max-w-6xl gap-10 px-4 py-16 md:grid-cols-[1.1fr_1fr]">
+          <div className="page-frame grid gap-10 py-16 md:grid-cols-[1.1fr_1fr]">
             <div>
               <h1 className="text-4xl font-bold leading-tight tracking-tight">
                 From the conditions in a specification
@@ -55,7 +55,7 @@ export default function Landing() {
             </figure>
           </div>
         </section>
-        <section className="mx-auto max-w-6xl px-4 py-12">
+        <section className="page-frame py-12">
           <h2 className="mb-6 text-sm font-semibold uppercase tracking-wide text-graphite">The pipeline</h2>
           <ol className="grid gap-px overflow-hidden rounded border border-rule bg-rule sm:grid-cols-2 lg:grid-cols-3">
             {stages.map(([name, text], i) => (

@@ -65,6 +65,10 @@ export class Design extends Model<InferAttributes<Design>, InferCreationAttribut
   declare familyId: ForeignKey<LogicFamilyRecord["id"]>;
   declare settings: CreationOptional<Record<string, unknown>>;
   declare draftSource: CreationOptional<string>;
+  /** Bumped by every write of the draft (source, family or settings); a write names the version it started from. */
+  declare draftVersion: CreationOptional<number>;
+  declare draftUpdatedAt: CreationOptional<Date | null>;
+  declare draftUpdatedBy: CreationOptional<ForeignKey<User["id"]> | null>;
   declare createdBy: ForeignKey<User["id"]>;
   declare archivedAt: Date | null;
   declare createdAt: CreationOptional<Date>;
@@ -145,6 +149,9 @@ export function initModels(sequelize: Sequelize) {
       description: { type: DataTypes.TEXT, allowNull: false, defaultValue: "" },
       settings: { ...json(), defaultValue: {} },
       draftSource: { type: DataTypes.TEXT, allowNull: false, defaultValue: "" },
+      draftVersion: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
+      draftUpdatedAt: { type: DataTypes.DATE, allowNull: true, defaultValue: null },
+      draftUpdatedBy: { type: DataTypes.UUID, allowNull: true, defaultValue: null },
       archivedAt: { type: DataTypes.DATE, allowNull: true },
       createdAt: DataTypes.DATE,
       updatedAt: DataTypes.DATE,

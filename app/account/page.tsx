@@ -18,7 +18,7 @@ export default async function AccountPage() {
         <span className="text-graphite">{me.user.email}</span>
         <SignOutButton />
       </SiteHeader>
-      <main className="mx-auto max-w-5xl px-4 py-10">
+      <main className="page-frame py-10 [&>*]:max-w-5xl">
         <h1 className="text-2xl font-semibold">Account</h1>
         <p className="mt-1 text-graphite">{me.user.name} · {me.user.email}</p>
         <section className="mt-8">

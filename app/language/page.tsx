@@ -29,7 +29,7 @@ export default async function LanguagePage() {
   return (
     <>
       <SiteHeader />
-      <main className="mx-auto grid max-w-6xl gap-10 px-6 py-10 lg:grid-cols-[minmax(0,1fr)_24rem]">
+      <main className="page-frame grid gap-10 py-10 lg:grid-cols-[minmax(0,1fr)_24rem]">
         {/* the Markdown is ours, from the repository, so it is rendered as is */}
         <article className="doc" dangerouslySetInnerHTML={{ __html: html }} />
         <aside className="lg:sticky lg:top-4 lg:self-start">

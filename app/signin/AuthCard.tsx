@@ -16,7 +16,12 @@ export function AuthCard({ title, subtitle, children }: { title: string; subtitl
   );
 }
 
-/** Only paths on this site are followed after a sign-in. */
+/**
+ * Only paths on this site are followed after a sign-in: one leading slash, and
+ * no backslash or control character anywhere (browsers read "/\host" as
+ * "//host", another site).
+ */
 export function safeCallback(url: string | undefined, fallback = "/workspaces"): string {
-  return url && url.startsWith("/") && !url.startsWith("//") ? url : fallback;
+  // eslint-disable-next-line no-control-regex
+  return url && url.startsWith("/") && !url.startsWith("//") && !/[\\\u0000-\u001f]/.test(url) ? url : fallback;
 }

@@ -24,7 +24,7 @@ export default async function Workspaces() {
         <span className="text-graphite">{session?.user?.email}</span>
         <SignOutButton />
       </SiteHeader>
-      <main className="mx-auto max-w-3xl px-4 py-10">
+      <main className="page-frame py-10 [&>*]:max-w-3xl">
         <h1 className="mb-4 text-2xl font-semibold">Your workspaces</h1>
         {workspaces.length === 0 ? (
           <p className="text-graphite">You are not a member of any workspace yet. Ask an owner for an invitation.</p>

@@ -1,21 +1,50 @@
 "use client";
 import { useEffect, useRef, useState } from "react";
 import type { Layout, LayoutNode } from "@/lib/export/layout";
-import type { NetlistDocument } from "@/lib/export/json";
+import type { DrawableNetlist } from "@/lib/export/cone";
+import type { Netlist } from "@/lib/map/netlist";
 import { GateSymbol } from "./GateSymbol";
+
+/** Lays the netlist out on a web worker; the promise rejects with "cancelled" when `signal` aborts (the worker is stopped). */
+function layoutOffThread(netlist: Netlist, signal: AbortSignal): Promise<Layout> {
+  return new Promise((resolve, reject) => {
+    const worker = new Worker(new URL("./layout.worker.ts", import.meta.url), { type: "module" });
+    const stop = () => {
+      worker.terminate();
+      reject(new Error("cancelled"));
+    };
+    signal.addEventListener("abort", stop, { once: true });
+    worker.onmessage = (e: MessageEvent<{ ok: true; layout: Layout } | { ok: false; error: string }>) => {
+      signal.removeEventListener("abort", stop);
+      worker.terminate();
+      if (e.data.ok) resolve(e.data.layout);
+      else reject(new Error(e.data.error));
+    };
+    worker.onerror = (e) => {
+      signal.removeEventListener("abort", stop);
+      worker.terminate();
+      reject(new Error(e.message || "the layout worker failed"));
+    };
+    worker.postMessage({ id: 1, netlist });
+  });
+}
 
 /**
  * The netlist drawn as a schematic from the layered layout data: IEEE Std 91
  * distinctive shapes, the critical path in the accent colour, pan by dragging,
  * zoom with the wheel or the buttons, and a click on a gate to select it.
  */
-export function Schematic({ netlist, critical, selected, onSelect, height = 360 }: {
-  netlist: NetlistDocument;
+export function Schematic({ netlist, critical, selected, onSelect, height = 360, cut, caption }: {
+  netlist: DrawableNetlist;
   /** Nets and gates on the critical path. */
   critical: { nets: Set<string>; gates: Set<string> };
   selected: string | null;
   onSelect: (gateId: string) => void;
   height?: number;
+  /** Nets drawn as ports because their drivers are left out of this drawing. */
+  cut?: ReadonlySet<string>;
+  /** Replaces the gate count in the line under the drawing. */
+  caption?: string;
 }) {
   const [layout, setLayout] = useState<Layout | null>(null);
   const [error, setError] = useState<string | null>(null);
@@ -24,33 +53,37 @@ export function Schematic({ netlist, critical, selected, onSelect, height = 360 
   const box = useRef<HTMLDivElement>(null);
 
   useEffect(() => {
-    let live = true;
-    (async () => {
-      try {
-        const { layoutNetlist } = await import("@/lib/export/layout");
-        const l = await layoutNetlist({
-          inputs: netlist.inputs,
-          outputs: netlist.outputs,
-          complements: netlist.complementedInputs ?? [],
-          gates: netlist.gates.map((g) => ({ ...g, role: "logic" as const })),
-        });
-        if (!live) return;
+    const ctl = new AbortController();
+    setLayout(null);
+    layoutOffThread({
+      inputs: netlist.inputs,
+      outputs: netlist.outputs,
+      complements: netlist.complementedInputs ?? [],
+      gates: netlist.gates.map((g) => ({ ...g, role: "logic" as const })),
+    }, ctl.signal).then(
+      (l) => {
+        if (ctl.signal.aborted) return;
         setLayout(l);
         setError(null);
         const w = box.current?.clientWidth ?? 800;
-        const k = Math.min(1.4, Math.max(0.2, Math.min((w - 24) / Math.max(1, l.width), (height - 24) / Math.max(1, l.height))));
+        const k = Math.min(1.4, Math.max(0.1, Math.min((w - 24) / Math.max(1, l.width), (height - 24) / Math.max(1, l.height))));
         setView({ x: 12, y: 12, k });
-      } catch (e) {
-        if (live) setError(e instanceof Error ? e.message : String(e));
-      }
-    })();
-    return () => {
-      live = false;
-    };
+      },
+      (e: unknown) => {
+        if (!ctl.signal.aborted) setError(e instanceof Error ? e.message : String(e));
+      },
+    );
+    return () => ctl.abort();
   }, [netlist, height]);
 
   if (error) return <p role="alert" className="text-sm text-vermilion">The schematic could not be drawn: {error}</p>;
-  if (!layout) return <div className="flex items-center justify-center text-sm text-graphite" style={{ height }}>Drawing…</div>;
+  if (!layout) {
+    return (
+      <div ref={box} className="flex items-center justify-center text-sm text-graphite" style={{ height }} data-testid="schematic-drawing">
+        Drawing {netlist.gates.length} gate{netlist.gates.length === 1 ? "" : "s"}…
+      </div>
+    );
+  }
 
   const zoom = (f: number) => setView((v) => ({ ...v, k: Math.min(4, Math.max(0.1, v.k * f)) }));
   return (
@@ -87,22 +120,24 @@ export function Schematic({ netlist, critical, selected, onSelect, height = 360 
           ))}
           {layout.nodes.map((n) => (
             <NodeShape key={n.id} node={n} critical={critical.gates.has(n.id)} selected={selected === n.id}
-              onSelect={onSelect} />
+              onSelect={onSelect} cut={n.kind === "input" && !!cut?.has(n.label)} />
           ))}
         </g>
       </svg>
       <p className="mt-1 text-xs text-graphite">
-        {netlist.gates.length} gates · drag to pan, wheel to zoom · <span className="text-accent">green</span>: critical path (estimated)
+        {caption ?? `${netlist.gates.length} gates`} · drag to pan, wheel to zoom · <span className="text-accent">green</span>: critical path (estimated)
       </p>
     </div>
   );
 }
 
-function NodeShape({ node, critical, selected, onSelect }: {
+function NodeShape({ node, critical, selected, onSelect, cut }: {
   node: LayoutNode;
   critical: boolean;
   selected: boolean;
   onSelect: (id: string) => void;
+  /** A net whose driver is not drawn: a dashed port. */
+  cut: boolean;
 }) {
   if (node.kind !== "gate" || !node.type) {
     const isIn = node.kind !== "output";
@@ -112,10 +147,10 @@ function NodeShape({ node, critical, selected, onSelect }: {
           d={isIn
             ? `M0,0 H${node.width - 8} L${node.width},${node.height / 2} L${node.width - 8},${node.height} H0 Z`
             : `M8,0 H${node.width} V${node.height} H8 L0,${node.height / 2} Z`}
-          className="fill-sheet stroke-ink" strokeWidth={1} />
-        <text x={isIn ? 4 : 12} y={node.height / 2 + 4} className="fill-ink font-mono text-[10px]">
-          {node.label.length > 7 ? node.label.slice(0, 6) + "…" : node.label}
-          <title>{node.label}</title>
+          className={cut ? "fill-paper stroke-graphite" : "fill-sheet stroke-ink"} strokeWidth={1} strokeDasharray={cut ? "3 2" : undefined} />
+        <text x={isIn ? 4 : 12} y={node.height / 2 + 4} className={`font-mono text-[10px] ${cut ? "fill-graphite" : "fill-ink"}`}>
+          {node.label}
+          <title>{cut ? `${node.label}: driven by gates not drawn here (see the gate table)` : node.label}</title>
         </text>
       </g>
     );

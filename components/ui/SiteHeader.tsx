@@ -5,7 +5,7 @@ import { Mark } from "./Mark";
 export function SiteHeader({ children }: { children?: React.ReactNode }) {
   return (
     <header className="border-b border-rule bg-sheet">
-      <div className="mx-auto flex h-12 max-w-6xl items-center gap-6 px-4">
+      <div className="page-frame flex h-12 items-center gap-6">
         <Link href="/" className="flex items-center gap-2 font-semibold text-ink">
           <span className="text-accent">
             <Mark />

@@ -40,7 +40,7 @@ export function RevisionView({ ws, designId, number }: { ws: string; designId: s
   if (error) return <main className="p-8 text-vermilion" role="alert">{error.message}</main>;
   if (!rev) return <main className="p-8 text-graphite">Loading revision…</main>;
   return (
-    <main className="mx-auto max-w-[100rem] px-4 py-4">
+    <main className="page-frame py-4">
       <div className="mb-3 flex flex-wrap items-baseline gap-3">
         <Link href={`/w/${ws}/d/${designId}`} className="text-sm text-graphite hover:text-ink">← Workbench</Link>
         <h1 className="text-xl font-semibold">Revision r{rev.number}</h1>

@@ -1,20 +1,21 @@
 "use client";
 import Link from "next/link";
 import dynamic from "next/dynamic";
-import { useCallback, useEffect, useMemo, useRef, useState } from "react";
+import { useCallback, useEffect, useMemo, useState } from "react";
 import useSWR from "swr";
 import { api, ApiError } from "@/lib/client/fetcher";
 import { can } from "@/lib/auth/permissions";
 import type { DesignItem, FamilyItem, Page, RevisionSummary, WorkspaceInfo } from "@/lib/client/types";
-import type { WorkbenchSettings } from "./types";
-import { useCompile, useDebounced } from "./useCompile";
+import type { CompileResponse, WorkbenchSettings } from "./types";
+import { useCompile, type CompileState } from "./useCompile";
+import { serverDraftOf, useDraft, type DraftStatus, type ServerDraft } from "./useDraft";
 import { SettingsBar } from "./SettingsBar";
 import { MinimizedPanel } from "./MinimizedPanel";
 import { GateTable } from "./GateTable";
 import { FiguresPanel } from "./FiguresPanel";
 import { NotesPanel } from "./NotesPanel";
 import { RevisionsPanel } from "./RevisionsPanel";
-import { Schematic } from "@/components/schematic/Schematic";
+import { SchematicPanel } from "@/components/schematic/SchematicPanel";
 
 const EquationEditor = dynamic(() => import("@/components/editor/EquationEditor"), {
   ssr: false,
@@ -23,12 +24,44 @@ const EquationEditor = dynamic(() => import("@/components/editor/EquationEditor"
 
 type Tab = "minimized" | "gates" | "figures" | "notes";
 
+/** A short start in the Ferrow scenario, offered on an empty draft. */
+export const STARTER_SOURCE = `// Paddle permit of a lock chamber: replace these conditions with your own.
+inputs paddle_request, level_equal, gate_shut, estop
+outputs paddle_enable
+
+// The paddle may open on request once the levels are equal and the gate is shut, unless the stop is pressed.
+paddle_enable = paddle_request * level_equal * gate_shut * estop'
+`;
+
+/** Where the newest compile stands, as every panel shows it. */
+type Phase =
+  | { kind: "compiling" }
+  | { kind: "stopped" }
+  | { kind: "limit"; title: string; message: string; hint: string }
+  | { kind: "failed"; message: string }
+  | { kind: "errors"; count: number }
+  | { kind: "done"; verified: boolean };
+
+function phaseOf(compile: CompileState, errors: number): Phase {
+  if (compile.pending) return { kind: "compiling" };
+  if (compile.cancelled) return { kind: "stopped" };
+  const e = compile.error;
+  if (e instanceof ApiError && e.code === "compile_limit") {
+    const d = (e.details ?? {}) as { what?: string; hint?: string };
+    return { kind: "limit", title: d.what ? `Stopped at the ${d.what}` : "Stopped at a limit", message: e.message, hint: d.hint ?? "" };
+  }
+  if (e) return { kind: "failed", message: e.message };
+  if (errors) return { kind: "errors", count: errors };
+  const result = compile.data?.result;
+  if (!result) return { kind: "compiling" };
+  return { kind: "done", verified: result.stats.verified === true };
+}
+
 /** The designer's page: equations on the left, what they become on the right, revisions below. */
 export function Workbench({ ws, designId }: { ws: string; designId: string }) {
   const { data: wsData } = useSWR<{ workspace: WorkspaceInfo }>(`/api/v1/workspaces/${ws}`);
-  const { data: designData, error: designError, mutate: mutateDesign } = useSWR<{ design: DesignItem }>(
-    `/api/v1/workspaces/${ws}/designs/${designId}`,
-  );
+  const designUrl = `/api/v1/workspaces/${ws}/designs/${designId}`;
+  const { data: designData, error: designError, mutate: mutateDesign } = useSWR<{ design: DesignItem }>(designUrl);
   const { data: families } = useSWR<{ items: FamilyItem[] }>(`/api/v1/workspaces/${ws}/families`);
   const revKey = `/api/v1/workspaces/${ws}/designs/${designId}/revisions?limit=100`;
   const { data: revisions, error: revisionsError, mutate: mutateRevisions } = useSWR<Page<RevisionSummary>>(revKey);
@@ -44,69 +77,53 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
   const [saving, setSaving] = useState(false);
   const [saveMessage, setSaveMessage] = useState("");
   const [saveError, setSaveError] = useState<string | null>(null);
-  const [draftState, setDraftState] = useState<"saved" | "saving" | "unsaved" | "failed">("saved");
-  const loaded = useRef(false);
 
+  const loadedDraft = useMemo(() => (designData ? serverDraftOf(designData.design as Parameters<typeof serverDraftOf>[0]) : null), [designData]);
+  const adopt = useCallback((d: ServerDraft) => {
+    setSource(d.source);
+    setFamilyId(d.familyId);
+    setSettings(d.settings);
+  }, []);
   useEffect(() => {
-    if (loaded.current || !designData) return;
-    loaded.current = true;
-    const d = designData.design;
-    setSource(d.draftSource ?? "");
-    setFamilyId(d.family.id);
-    setSettings(stripFamily(d.settings ?? {}));
-  }, [designData]);
+    if (source === null && loadedDraft) adopt(loadedDraft);
+  }, [loadedDraft, source, adopt]);
 
-  const compile = useCompile(ws, source ?? "", familyId, settings);
-  const result = compile.data?.result ?? null;
-  const diagnostics = compile.data?.diagnostics ?? [];
+  const local = useMemo(
+    () => (source !== null && familyId ? { source, familyId, settings } : null),
+    [source, familyId, settings],
+  );
+  const draft = useDraft({
+    url: `${designUrl}/draft`,
+    local,
+    loaded: loadedDraft,
+    enabled: mayEdit,
+    onAdopt: adopt,
+    onSaved: (answer) => void mutateDesign(answer as unknown as { design: DesignItem }, { revalidate: false }),
+  });
+
+  const compile = useCompile(ws, source, familyId, settings);
+  const shown: CompileResponse | null = compile.data;
+  const result = shown?.result ?? null;
+  const diagnostics = shown?.diagnostics ?? [];
   const errors = diagnostics.filter((d) => d.severity === "error").length;
-
-  // Keep the draft on the server as the designer types, so nothing typed is lost.
-  // The source goes on its own: a setting the server refuses never costs the text.
-  const draft = useDebounced({ source, familyId, settings }, 1200);
-  const [draftError, setDraftError] = useState<string | null>(null);
-  useEffect(() => {
-    if (!mayEdit || !loaded.current || draft.source === null || !designData) return;
-    const d = designData.design;
-    const url = `/api/v1/workspaces/${ws}/designs/${designId}`;
-    const sourceChanged = draft.source !== d.draftSource;
-    const settingsChanged = draft.familyId !== d.family.id || JSON.stringify(draft.settings) !== JSON.stringify(stripFamily(d.settings ?? {}));
-    if (!sourceChanged && !settingsChanged) return;
-    setDraftState("saving");
-    (async () => {
-      let latest: { design: DesignItem } | null = null;
-      try {
-        if (sourceChanged) latest = await api<{ design: DesignItem }>(url, { method: "PATCH", json: { draftSource: draft.source } });
-        if (settingsChanged) latest = await api<{ design: DesignItem }>(url, { method: "PATCH", json: { familyId: draft.familyId, settings: draft.settings } });
-        setDraftState("saved");
-        setDraftError(null);
-      } catch (e) {
-        setDraftState("failed");
-        setDraftError(e instanceof ApiError ? e.message : "The server could not be reached; your text stays here and is sent again with the next change.");
-      }
-      if (latest) void mutateDesign(latest, { revalidate: false });
-    })();
-  }, [draft, mayEdit, ws, designId, designData, mutateDesign]);
-
-  useEffect(() => {
-    if (source !== null && designData && source !== designData.design.draftSource) setDraftState("unsaved");
-  }, [source, designData]);
+  const phase = phaseOf(compile, errors);
 
   const saveRevision = useCallback(async () => {
     if (!maySave || source === null || !familyId) return;
     setSaveError(null);
     try {
+      const draftVersion = draft.baseVersion();
       await api(`/api/v1/workspaces/${ws}/designs/${designId}/revisions`, {
         method: "POST",
-        json: { message: saveMessage.trim() || "Saved from the workbench", source, familyId, settings },
+        json: { message: saveMessage.trim() || "Saved from the workbench", source, familyId, settings, ...(draftVersion ? { draftVersion } : {}) },
       });
       setSaving(false);
       setSaveMessage("");
-      await mutateRevisions();
+      await Promise.all([mutateRevisions(), mutateDesign()]);
     } catch (e) {
       setSaveError(e instanceof ApiError ? e.message : String(e));
     }
-  }, [maySave, source, familyId, ws, designId, saveMessage, settings, mutateRevisions]);
+  }, [maySave, source, familyId, ws, designId, saveMessage, settings, mutateRevisions, mutateDesign, draft]);
 
   useEffect(() => {
     const onKey = (e: KeyboardEvent) => {
@@ -123,20 +140,24 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
     () => ({ nets: new Set(result?.analysis.criticalPath.nets ?? []), gates: new Set(result?.analysis.criticalPath.gates ?? []) }),
     [result],
   );
+  const criticalOutput = useMemo(() => {
+    const last = result?.analysis.criticalPath.nets.at(-1);
+    return result?.netlist.outputs.find((o) => o.net === last)?.name;
+  }, [result]);
 
   const selectGate = (id: string) => {
     setSelected(id);
     setTab("gates");
-    requestAnimationFrame(() => document.getElementById(`gate-row-${id}`)?.scrollIntoView({ block: "nearest" }));
   };
 
-  if (designError) return <main className="p-8 text-vermilion" role="alert">{designError.message}</main>;
+  if (designError) return <main className="page-frame py-8 text-vermilion" role="alert">{designError.message}</main>;
   const design = designData?.design;
   const latest = revisions?.items[0];
   const family = families?.items.find((f) => f.id === familyId);
+  const stale = phase.kind === "compiling" && !!result;
 
   return (
-    <main className="mx-auto max-w-[100rem] px-4 py-4">
+    <main className="page-frame py-4">
       <div className="mb-3 flex flex-wrap items-center gap-3">
         <Link href={`/w/${ws}`} className="text-sm text-graphite hover:text-ink">← Designs</Link>
         <h1 className="text-xl font-semibold">{design?.name ?? "…"}</h1>
@@ -145,18 +166,12 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
           {latest ? ` · last revision r${latest.number}` : revisions ? " · no revision yet" : ""}
         </span>
         <span className="ml-auto flex items-center gap-3 text-sm">
-          <CompileStatus pending={compile.pending || compile.isValidating} cancelled={compile.cancelled}
-            errors={errors} error={compile.error} onCancel={compile.cancel} />
-          {mayEdit && (
-            <span className={`text-xs ${draftState === "failed" ? "text-vermilion" : "text-graphite"}`} data-testid="draft-state"
-              title={draftError ?? undefined}>
-              {draftState === "saving" ? "keeping draft…" : draftState === "failed" ? `draft not kept: ${draftError ?? "try again"}` : draftState === "unsaved" ? "draft changed" : "draft kept"}
-            </span>
-          )}
+          <CompileStatus phase={phase} onCancel={compile.cancel} onRetry={compile.retry} />
+          {mayEdit && <DraftState status={draft.status} error={draft.error} />}
           {maySave ? (
-            <button type="button" onClick={() => setSaving(true)} disabled={errors > 0 || !source}
+            <button type="button" onClick={() => setSaving(true)} disabled={phase.kind !== "done" || !source}
               className="rounded bg-accent px-3 py-1.5 font-semibold text-paper hover:opacity-90 disabled:opacity-50"
-              title="Save a revision (Ctrl+S)">
+              title={phase.kind === "done" ? "Save a revision (Ctrl+S)" : "A revision can be saved once the current text has compiled"}>
               Save revision
             </button>
           ) : role ? (
@@ -164,6 +179,10 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
           ) : null}
         </span>
       </div>
+
+      {draft.conflict && (
+        <ConflictBanner theirs={draft.conflict} onKeepMine={draft.keepMine} onTakeTheirs={draft.takeTheirs} />
+      )}
 
       {saving && (
         <form className="mb-3 flex flex-wrap items-center gap-2 rounded border border-accent/50 bg-sheet p-3"
@@ -186,7 +205,15 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
 
       <div className="grid gap-4 xl:grid-cols-[minmax(0,5fr)_minmax(0,6fr)]">
         <section className="flex min-h-[32rem] flex-col rounded border border-rule bg-sheet" aria-label="Equations">
-          <div className="border-b border-rule px-3 py-1.5 text-xs uppercase tracking-wide text-graphite">Equations</div>
+          <div className="flex items-center border-b border-rule px-3 py-1.5 text-xs uppercase tracking-wide text-graphite">
+            Equations
+            {mayEdit && source !== null && source.trim() === "" && (
+              <button type="button" onClick={() => setSource(STARTER_SOURCE)}
+                className="ml-auto rounded border border-rule px-2 py-0.5 normal-case tracking-normal text-ink hover:border-ink">
+                Start from an example
+              </button>
+            )}
+          </div>
           <div className="min-h-[28rem] flex-1" data-testid="editor">
             {source !== null && (
               <EquationEditor value={source} onChange={(v: string) => setSource(v)} readOnly={!mayEdit}
@@ -196,16 +223,20 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
         </section>
 
         <section className="flex flex-col gap-3" aria-label="Results">
-          <div className="rounded border border-rule bg-sheet p-2">
+          {(phase.kind === "limit" || phase.kind === "failed" || phase.kind === "stopped") && (
+            <StopNotice phase={phase} onRetry={compile.retry} />
+          )}
+          <div className={`rounded border border-rule bg-sheet p-2 ${stale ? "opacity-60" : ""}`}>
             {result ? (
-              <Schematic netlist={result.netlist} critical={critical} selected={selected} onSelect={selectGate} />
+              <SchematicPanel netlist={result.netlist} critical={critical} selected={selected} onSelect={selectGate}
+                criticalOutput={criticalOutput} />
             ) : (
-              <div className="flex h-[360px] items-center justify-center text-sm text-graphite">
-                {errors ? "Fix the errors in the equations to see the schematic." : "Compiling…"}
+              <div className="flex h-[360px] items-center justify-center text-sm text-graphite" data-testid="no-schematic">
+                {noResultText(phase)}
               </div>
             )}
           </div>
-          <div className="rounded border border-rule bg-sheet">
+          <div className={`rounded border border-rule bg-sheet ${stale ? "opacity-60" : ""}`}>
             <div role="tablist" className="flex border-b border-rule text-sm">
               {([
                 ["minimized", "Minimized"],
@@ -219,11 +250,12 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
                 </button>
               ))}
             </div>
-            <div className="max-h-[30rem] overflow-auto p-3">
-              {!result && !diagnostics.length && !compile.error ? (
-                <p className="text-sm text-graphite">Compiling…</p>
-              ) : tab === "notes" || !result ? (
-                <NotesPanel diagnostics={diagnostics} warnings={result?.warnings ?? []} analysis={result?.analysis ?? null} />
+            <div className={`p-3 ${tab === "gates" && result ? "" : "max-h-[30rem] overflow-auto"}`}>
+              {tab === "notes" ? (
+                <NotesPanel diagnostics={diagnostics} warnings={result?.warnings ?? []} analysis={result?.analysis ?? null}
+                  stop={phase.kind === "limit" || phase.kind === "failed" || phase.kind === "stopped" ? noResultText(phase) : null} />
+              ) : !result ? (
+                <p className="text-sm text-graphite" data-testid="no-result">{noResultText(phase)}</p>
               ) : tab === "minimized" ? (
                 <MinimizedPanel covers={result.covers} />
               ) : tab === "gates" ? (
@@ -248,35 +280,115 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
   );
 }
 
-function stripFamily(s: Record<string, unknown>): WorkbenchSettings {
-  const { familyId: _f, ...rest } = s;
-  return rest as WorkbenchSettings;
+/** What the result panels say while there is no result for the text on screen. */
+function noResultText(phase: Phase): string {
+  switch (phase.kind) {
+    case "compiling":
+      return "Compiling…";
+    case "stopped":
+      return "No result: you stopped the compile. Edit the equations or press Run again.";
+    case "limit":
+      return `No result: ${phase.title.toLowerCase()}.`;
+    case "failed":
+      return `No result: ${phase.message}`;
+    case "errors":
+      return "No result: fix the errors in the equations (see the marks in the editor and the Notes tab).";
+    case "done":
+      return "No result.";
+  }
 }
 
-function CompileStatus({ pending, cancelled, errors, error, onCancel }: {
-  pending: boolean;
-  cancelled: boolean;
-  errors: number;
-  error: unknown;
-  onCancel: () => void;
+function CompileStatus({ phase, onCancel, onRetry }: { phase: Phase; onCancel: () => void; onRetry: () => void }) {
+  switch (phase.kind) {
+    case "compiling":
+      return (
+        <span className="flex items-center gap-2 text-graphite" data-testid="compile-status">
+          <span className="inline-block h-2 w-2 animate-pulse rounded-full bg-accent" /> compiling…
+          <button type="button" onClick={onCancel} className="rounded border border-rule px-2 py-0.5 text-xs hover:border-ink">Cancel</button>
+        </span>
+      );
+    case "stopped":
+    case "limit":
+    case "failed":
+      return (
+        <span className="flex items-center gap-2 text-amber" data-testid="compile-status">
+          {phase.kind === "stopped" ? "stopped" : phase.kind === "limit" ? "stopped at a limit" : "compile failed"}
+          <button type="button" onClick={onRetry} className="rounded border border-rule px-2 py-0.5 text-xs text-ink hover:border-ink">Run again</button>
+        </span>
+      );
+    case "errors":
+      return <span className="text-vermilion" data-testid="compile-status">{phase.count} error{phase.count === 1 ? "" : "s"} in the equations</span>;
+    case "done":
+      return phase.verified
+        ? <span className="text-accent" data-testid="compile-status">up to date · verified</span>
+        : <span className="text-vermilion" data-testid="compile-status">up to date · not verified</span>;
+  }
+}
+
+const DRAFT_WORDS: Record<DraftStatus, string> = {
+  kept: "draft kept",
+  changed: "unsaved changes",
+  keeping: "keeping draft…",
+  failed: "draft not kept",
+  conflict: "draft changed elsewhere",
+};
+
+function DraftState({ status, error }: { status: DraftStatus; error: string | null }) {
+  const bad = status === "failed" || status === "conflict";
+  return (
+    <span className={`text-xs ${bad ? "text-vermilion" : "text-graphite"}`} data-testid="draft-state" data-status={status}
+      title={status === "kept" ? "The server has the text on screen." : (error ?? undefined)}>
+      {DRAFT_WORDS[status]}
+      {status === "failed" && error ? `: ${error} (trying again)` : ""}
+    </span>
+  );
+}
+
+function ConflictBanner({ theirs, onKeepMine, onTakeTheirs }: {
+  theirs: ServerDraft;
+  onKeepMine: () => void;
+  onTakeTheirs: () => void;
 }) {
-  if (pending) {
-    return (
-      <span className="flex items-center gap-2 text-graphite" data-testid="compile-status">
-        <span className="inline-block h-2 w-2 animate-pulse rounded-full bg-accent" /> minimizing…
-        <button type="button" onClick={onCancel} className="rounded border border-rule px-2 py-0.5 text-xs hover:border-ink">Cancel</button>
-      </span>
-    );
-  }
-  if (cancelled) return <span className="text-amber" data-testid="compile-status">stopped — edit to run again</span>;
-  if (error instanceof ApiError) {
-    const limit = (error.details as { limit?: string } | undefined)?.limit;
-    return (
-      <span role="alert" className="max-w-xl text-vermilion" data-testid="compile-status">
-        {limit ? `Stopped at a limit (${limit}): ` : ""}{error.message}
-      </span>
-    );
-  }
-  if (errors) return <span className="text-vermilion" data-testid="compile-status">{errors} error{errors === 1 ? "" : "s"} in the equations</span>;
-  return <span className="text-accent" data-testid="compile-status">up to date · verified</span>;
+  const [show, setShow] = useState(false);
+  const who = theirs.updatedBy?.name ?? "Someone";
+  const when = theirs.updatedAt ? new Date(theirs.updatedAt).toLocaleTimeString() : "meanwhile";
+  return (
+    <div role="alert" data-testid="draft-conflict" className="mb-3 rounded border border-vermilion/60 bg-vermilion/5 p-3 text-sm">
+      <p>
+        <strong>{who}</strong> changed this draft at {when}, in another tab or on another machine, while you were editing
+        here. Your text is still on screen and has not been written over theirs. Choose which to keep:
+      </p>
+      <div className="mt-2 flex flex-wrap gap-2">
+        <button type="button" onClick={onKeepMine} className="rounded bg-accent px-3 py-1 font-semibold text-paper">Keep my text</button>
+        <button type="button" onClick={onTakeTheirs} className="rounded border border-rule bg-paper px-3 py-1">Take theirs</button>
+        <button type="button" onClick={() => setShow((s) => !s)} className="rounded border border-rule bg-paper px-3 py-1">
+          {show ? "Hide theirs" : "Show theirs"}
+        </button>
+      </div>
+      {show && (
+        <pre className="mt-2 max-h-64 overflow-auto rounded border border-rule bg-paper p-2 font-mono text-xs" data-testid="their-draft">
+          {theirs.source}
+        </pre>
+      )}
+    </div>
+  );
+}
+
+function StopNotice({ phase, onRetry }: { phase: Extract<Phase, { kind: "limit" | "failed" | "stopped" }>; onRetry: () => void }) {
+  return (
+    <div className="rounded border border-amber/60 bg-amber/10 px-3 py-2 text-sm" data-testid="stop-notice">
+      {phase.kind === "limit" ? (
+        <>
+          <p className="font-semibold">{phase.title}.</p>
+          <p>{phase.message}</p>
+          {phase.hint && <p className="mt-1">{phase.hint}</p>}
+        </>
+      ) : phase.kind === "failed" ? (
+        <p>The compile failed: {phase.message}</p>
+      ) : (
+        <p>You stopped the compile; the results below are empty until it runs again.</p>
+      )}
+      <button type="button" onClick={onRetry} className="mt-2 rounded border border-rule bg-paper px-2 py-0.5 text-xs hover:border-ink">Run again</button>
+    </div>
+  );
 }

@@ -30,9 +30,15 @@ function parse<T extends z.ZodType | undefined>(schema: T, value: unknown, where
   if (!schema) return undefined as Out<T>;
   const r = schema.safeParse(value);
   if (!r.success) {
+    // Said as "field: what to change", e.g. "password: use at least 10 characters."; the details list every problem.
     const first = r.error.issues[0];
-    const at = first && first.path.length ? ` at ${where}.${first.path.map(String).join(".")}` : ` in the ${where}`;
-    throw new AppError("invalid_input", `Invalid ${where}${at}: ${first?.message ?? "check the values"}.`, zodDetails(r.error));
+    const field = first && first.path.length ? first.path.map(String).join(".") : null;
+    const what = (first?.message ?? "check the values").replace(/\.$/, "");
+    const more = r.error.issues.length > 1 ? ` (and ${r.error.issues.length - 1} more problem${r.error.issues.length > 2 ? "s" : ""}, listed in the details)` : "";
+    const message = field
+      ? `${field}${where === "body" ? "" : ` (in the ${where === "path" ? "address" : where})`}: ${what}${more}.`
+      : `The ${where === "path" ? "address" : where} is not valid: ${what}${more}.`;
+    throw new AppError("invalid_input", message, zodDetails(r.error));
   }
   return r.data as Out<T>;
 }

@@ -5,7 +5,7 @@
  */
 import type { z } from "zod";
 
-export type Method = "GET" | "POST" | "PATCH" | "DELETE";
+export type Method = "GET" | "POST" | "PUT" | "PATCH" | "DELETE";
 
 export interface RouteSpec<
   P extends z.ZodType | undefined = z.ZodType | undefined,

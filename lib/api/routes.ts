@@ -72,7 +72,22 @@ const DesignSummary = z.object({
   archivedAt: z.string().nullable(),
   createdBy: Ref,
 });
-const DesignDetail = DesignSummary.extend({ draftSource: z.string(), settings: Json });
+const DesignDetail = DesignSummary.extend({
+  draftSource: z.string(),
+  settings: Json,
+  draftVersion: z.number().int().describe("bumped by every write of the draft; send it back as baseVersion"),
+  draftUpdatedAt: z.string().nullable(),
+  draftUpdatedBy: Ref.nullable(),
+});
+/** The draft as a 409 from PUT …/draft reports it in details.draft. */
+export const Draft = z.object({
+  source: z.string(),
+  familyId: z.string(),
+  settings: Json,
+  version: z.number().int(),
+  updatedAt: z.string().nullable(),
+  updatedBy: Ref.nullable(),
+});
 const RevisionSummary = z.object({
   id: z.string(),
   number: z.number(),
@@ -254,17 +269,28 @@ export const routes = {
     params: DesignParams, response: z.object({ design: DesignDetail }), errors: WS,
   }),
   updateDesign: defineRoute({
-    method: "PATCH", path: "/workspaces/{ws}/designs/{designId}", tag: "designs", auth: "user", summary: "Edit, archive or restore a design (designer, owner)",
+    method: "PATCH", path: "/workspaces/{ws}/designs/{designId}", tag: "designs", auth: "user",
+    summary: "Rename, describe, archive or restore a design (designer, owner); the draft is written with PUT …/draft",
     params: DesignParams,
     body: z.object({
       name: Name.optional(),
       description: z.string().max(4000).optional(),
-      familyId: Id.optional(),
-      settings: CompileSettings.optional(),
-      draftSource: Source.optional(),
       archived: z.boolean().optional(),
     }).strict(),
     response: z.object({ design: DesignDetail }), errors: [...WS, 409, 413, 415],
+  }),
+  saveDraft: defineRoute({
+    method: "PUT", path: "/workspaces/{ws}/designs/{designId}/draft", tag: "designs", auth: "user",
+    summary: "Write the design's draft (source, family, settings) if it is still at baseVersion (designer, owner); 409 with details.draft when someone wrote it since",
+    params: DesignParams,
+    body: z.object({
+      source: Source,
+      familyId: Id,
+      settings: CompileSettings,
+      baseVersion: z.number().int().min(1).describe("the draftVersion your text started from"),
+    }).strict(),
+    response: z.object({ design: DesignDetail }),
+    errors: [...WS, 409, 413, 415],
   }),
   listRevisions: defineRoute({
     method: "GET", path: "/workspaces/{ws}/designs/{designId}/revisions", tag: "revisions", auth: "user", summary: "Revisions, newest first",
@@ -275,7 +301,13 @@ export const routes = {
     method: "POST", path: "/workspaces/{ws}/designs/{designId}/revisions", tag: "revisions", auth: "user",
     summary: "Compile and save a revision (designer, owner); the server computes the stored figures",
     params: DesignParams,
-    body: z.object({ message: z.string().trim().min(1).max(2000), source: Source, familyId: Id, settings: CompileSettings }).strict(),
+    body: z.object({
+      message: z.string().trim().min(1).max(2000),
+      source: Source,
+      familyId: Id,
+      settings: CompileSettings,
+      draftVersion: z.number().int().min(1).optional().describe("the draft version the source came from: the draft follows the revision only if it is still there"),
+    }).strict(),
     response: z.object({ revision: RevisionDetail }), status: 201, errors: [...WS, 413, 415, 422, 429],
   }),
   getRevision: defineRoute({

@@ -65,6 +65,9 @@ export interface DesignItem {
   createdBy: Person;
   draftSource?: string;
   settings?: Record<string, unknown>;
+  draftVersion?: number;
+  draftUpdatedAt?: string | null;
+  draftUpdatedBy?: Person | null;
 }
 
 export interface Page<T> {

@@ -29,6 +29,10 @@ export interface DesignSummary {
 export interface DesignDetail extends DesignSummary {
   draftSource: string;
   settings: Record<string, unknown>;
+  /** Bumped by every write of the draft (source, family, settings); a write names the version it started from. */
+  draftVersion: number;
+  draftUpdatedAt: string | null;
+  draftUpdatedBy: { id: string; name: string } | null;
 }
 
 export type DesignSort = "name" | "updated" | "gates" | "depth" | "delay";
@@ -47,6 +51,10 @@ interface Row {
   name: string;
   description: string;
   draft_source: string;
+  draft_version: number;
+  draft_updated_at: Date | null;
+  draft_updated_by: string | null;
+  draft_updated_by_name: string | null;
   settings: Record<string, unknown>;
   updated_at: Date;
   archived_at: Date | null;
@@ -64,7 +72,8 @@ interface Row {
 }
 
 const SELECT = `
-  SELECT d.id, d.name, d.description, d.draft_source, d.settings, d.updated_at, d.archived_at,
+  SELECT d.id, d.name, d.description, d.draft_source, d.draft_version, d.draft_updated_at, d.draft_updated_by,
+         du.name AS draft_updated_by_name, d.settings, d.updated_at, d.archived_at,
          cu.id AS creator_id, cu.name AS creator_name,
          f.id AS family_id, f.key AS family_key, f.name AS family_name,
          r.number AS rev_number, r.created_at AS rev_created_at, r.message AS rev_message, r.stats AS rev_stats,
@@ -72,6 +81,7 @@ const SELECT = `
   FROM designs d
   JOIN logic_families f ON f.id = d.family_id
   JOIN users cu ON cu.id = d.created_by
+  LEFT JOIN users du ON du.id = d.draft_updated_by
   LEFT JOIN LATERAL (SELECT * FROM revisions x WHERE x.design_id = d.id ORDER BY x.number DESC LIMIT 1) r ON true
   LEFT JOIN users au ON au.id = r.author_id`;
 
@@ -97,7 +107,14 @@ function summary(r: Row): DesignSummary {
   };
 }
 
-const detail = (r: Row): DesignDetail => ({ ...summary(r), draftSource: r.draft_source, settings: r.settings ?? {} });
+const detail = (r: Row): DesignDetail => ({
+  ...summary(r),
+  draftSource: r.draft_source,
+  settings: r.settings ?? {},
+  draftVersion: r.draft_version,
+  draftUpdatedAt: iso(r.draft_updated_at),
+  draftUpdatedBy: r.draft_updated_by ? { id: r.draft_updated_by, name: r.draft_updated_by_name ?? "" } : null,
+});
 
 /**
  * One page of the workspace's designs. Defaults: sort "updated", order "desc"
@@ -186,6 +203,8 @@ export async function createDesign(p: {
       familyId: p.familyId,
       settings: storedSettings(p.settings ?? {}),
       draftSource: p.draftSource ?? "",
+      draftUpdatedAt: new Date(),
+      draftUpdatedBy: p.actor!.userId,
       createdBy: p.actor!.userId,
       archivedAt: null,
     });
@@ -196,29 +215,22 @@ export async function createDesign(p: {
   return loadDetail(workspace.id, id);
 }
 
-/** Changes a design's fields or archives / restores it (designer or owner). */
+/** Renames, describes, archives or restores a design (designer or owner). The draft has its own write, {@link saveDraft}. */
 export async function updateDesign(p: {
   actor: Actor | null;
   slug: string;
   designId: string;
   name?: string;
   description?: string;
-  familyId?: string;
-  settings?: CompileSettings;
-  draftSource?: string;
   archived?: boolean;
 }): Promise<DesignDetail> {
   const { workspace } = await requireAccess(p.actor, p.slug, "design.edit");
   const { Design } = db().models;
   const d = await Design.findOne({ where: { id: p.designId, workspaceId: workspace.id } });
   if (!d) throw notFound("design");
-  if (p.familyId !== undefined) await usableFamily(workspace.id, p.familyId);
-  const patch: Partial<{ name: string; description: string; familyId: string; settings: Record<string, unknown>; draftSource: string; archivedAt: Date | null }> = {};
+  const patch: Partial<{ name: string; description: string; archivedAt: Date | null }> = {};
   if (p.name !== undefined) patch.name = p.name;
   if (p.description !== undefined) patch.description = p.description;
-  if (p.familyId !== undefined) patch.familyId = p.familyId;
-  if (p.settings !== undefined) patch.settings = storedSettings(p.settings);
-  if (p.draftSource !== undefined) patch.draftSource = p.draftSource;
   if (p.archived !== undefined) patch.archivedAt = p.archived ? (d.archivedAt ?? new Date()) : null;
   try {
     await d.update(patch);
@@ -226,4 +238,73 @@ export async function updateDesign(p: {
     nameTaken(e, p.name ?? d.name);
   }
   return loadDetail(workspace.id, d.id);
+}
+
+/** What a draft write carries; the family and settings travel with the source, so one write keeps them together. */
+export interface DraftWrite {
+  source: string;
+  familyId: string;
+  settings: CompileSettings;
+  /** The draftVersion the writer's text started from. */
+  baseVersion: number;
+}
+
+/**
+ * Writes a design's draft (designer or owner) when it is still at
+ * `baseVersion`, and bumps the version. When someone else wrote it since,
+ * nothing is written and the answer is 409 with the draft as it now is
+ * (details.draft), so the writer can choose between the two texts. A repeat of
+ * a write that already landed (same text, family and settings) is not a
+ * conflict: it answers the current draft.
+ */
+export async function saveDraft(p: { actor: Actor | null; slug: string; designId: string } & DraftWrite): Promise<DesignDetail> {
+  const { workspace } = await requireAccess(p.actor, p.slug, "design.edit");
+  await usableFamily(workspace.id, p.familyId);
+  const settings = storedSettings(p.settings);
+  const [, count] = await db().sequelize.query(
+    `UPDATE designs SET draft_source = :source, family_id = :familyId, settings = CAST(:settings AS jsonb),
+            draft_version = draft_version + 1, draft_updated_at = now(), draft_updated_by = :userId, updated_at = now()
+     WHERE id = :id AND workspace_id = :ws AND draft_version = :base`,
+    {
+      replacements: {
+        source: p.source, familyId: p.familyId, settings: JSON.stringify(settings), userId: p.actor!.userId,
+        id: p.designId, ws: workspace.id, base: p.baseVersion,
+      },
+      type: QueryTypes.UPDATE,
+    },
+  );
+  const now = await loadDetail(workspace.id, p.designId);
+  if (count === 1) return now;
+  const same = now.draftSource === p.source && now.family.id === p.familyId && sameJson(now.settings, settings);
+  if (same) return now;
+  throw conflict(
+    now.draftUpdatedBy
+      ? `${now.draftUpdatedBy.name} changed this draft since you loaded it (now at version ${now.draftVersion}); keep your text or take theirs.`
+      : `This draft changed since you loaded it (now at version ${now.draftVersion}); keep your text or take the current one.`,
+    { draft: draftOf(now) },
+  );
+}
+
+/** The draft part of a design, as a 409 reports it. */
+export function draftOf(d: DesignDetail) {
+  return {
+    source: d.draftSource,
+    familyId: d.family.id,
+    settings: d.settings,
+    version: d.draftVersion,
+    updatedAt: d.draftUpdatedAt,
+    updatedBy: d.draftUpdatedBy,
+  };
+}
+
+function sameJson(a: unknown, b: unknown): boolean {
+  return JSON.stringify(sortKeys(a)) === JSON.stringify(sortKeys(b));
+}
+
+function sortKeys(v: unknown): unknown {
+  if (Array.isArray(v)) return v.map(sortKeys);
+  if (v && typeof v === "object") {
+    return Object.fromEntries(Object.keys(v).sort().map((k) => [k, sortKeys((v as Record<string, unknown>)[k])]));
+  }
+  return v;
 }

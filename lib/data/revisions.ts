@@ -93,9 +93,12 @@ export async function getRevision(p: { actor: Actor | null; slug: string; design
 }
 
 /**
- * Compiles and saves a new revision (designer or owner); the design's draft,
- * family and settings follow the saved revision. 422 with the diagnostics
- * when the source has errors.
+ * Compiles and saves a new revision (designer or owner). The design's draft,
+ * family and settings follow the saved revision when the draft is still at
+ * `draftVersion` (the version the saver's text came from), or, without it,
+ * when the draft is empty or already holds this source; a draft someone has
+ * changed meanwhile is left alone. 422 with the diagnostics when the source
+ * has errors.
  */
 export async function createRevision(p: {
   actor: Actor | null;
@@ -105,6 +108,7 @@ export async function createRevision(p: {
   source: string;
   familyId: string;
   settings: Settings;
+  draftVersion?: number;
 }): Promise<RevisionDetail> {
   const { workspace } = await requireAccess(p.actor, p.slug, "revision.save");
   await designIn(workspace.id, p.designId);
@@ -138,7 +142,13 @@ export async function createRevision(p: {
       },
       { transaction },
     );
-    d.set({ draftSource: p.source, familyId: familyRow.id, settings });
+    const follows = p.draftVersion !== undefined ? p.draftVersion === d.draftVersion : d.draftSource === "" || d.draftSource === p.source;
+    if (follows) {
+      d.set({
+        draftSource: p.source, familyId: familyRow.id, settings,
+        draftVersion: d.draftVersion + 1, draftUpdatedAt: new Date(), draftUpdatedBy: p.actor!.userId,
+      });
+    }
     d.changed("updatedAt", true);
     await d.save({ transaction });
     return rev.id;

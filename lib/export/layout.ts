@@ -49,8 +49,11 @@ export interface Layout {
 /** Sizes in drawing units (about one unit = one pixel at 100 %). */
 const GATE_W = 60;
 const PIN_PITCH = 14;
-const PORT_W = 40;
 const PORT_H = 20;
+/** Width of a port box: room for its whole name in the 10 px monospaced face (about 6.1 units a character). */
+export function portWidth(label: string): number {
+  return Math.max(40, Math.ceil(16 + label.length * 6.2));
+}
 
 /** Lays the netlist out; node and port ids are stable: "in:NAME", "out:NAME", gate ids, "const:0"/"const:1". */
 export async function layoutNetlist(netlist: Netlist): Promise<Layout> {
@@ -64,7 +67,7 @@ export async function layoutNetlist(netlist: Netlist): Promise<Layout> {
   const addPortNode = (id: string, kind: "input" | "output" | "const", label: string, side: "in" | "out") => {
     children.push({
       id,
-      width: PORT_W,
+      width: portWidth(label),
       height: PORT_H,
       layoutOptions: { "elk.portConstraints": "FIXED_ORDER", ...(kind === "input" || kind === "const" ? { "elk.layered.layering.layerConstraint": "FIRST" } : { "elk.layered.layering.layerConstraint": "LAST" }) },
       ports: [{ id: `${id}:${side === "out" ? "o" : "i0"}`, width: 1, height: 1, layoutOptions: { "elk.port.side": side === "out" ? "EAST" : "WEST" } }],

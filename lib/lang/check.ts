@@ -101,7 +101,7 @@ export function checkProgram(program: Program, diagnostics: Diagnostic[]): Check
   }
   const design = checkScope(ctx, "design", inputs, outputs, program.statements, "the design");
   if (outputs.length === 0) {
-    diagnostics.push(warning("the design declares no outputs; add an outputs line such as outputs alarm", firstRange(program)));
+    diagnostics.push(error("the design declares no outputs, so there is nothing to minimize; add an outputs line such as `outputs alarm` and an equation for each output", firstRange(program)));
   }
   checkBlockRecursion(ctx);
   return { design, blocks, nevers };

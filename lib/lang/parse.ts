@@ -28,10 +28,13 @@ export interface ParseResult {
 
 /**
  * Parses a Fanbound source. Never throws; every diagnostic range lies inside
- * the source. Limits used: maxSourceLength (default 200000 characters) and
+ * the source. A byte-order mark (U+FEFF) at the very start is ignored, and
+ * positions count from the character after it, as editors show the text. Limits used: maxSourceLength (default 200000 characters) and
  * maxStatements (default 2000).
  */
-export function parseSource(source: string, options?: LanguageLimits): ParseResult {
+export function parseSource(text: string, options?: LanguageLimits): ParseResult {
+  // A UTF-8 byte-order mark, which some editors write at the start of a file, is not part of the text.
+  const source = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
   const limits = withDefaults(options);
   const diagnostics: Diagnostic[] = [];
   const empty: Program = { statements: [], comments: [], blankLines: [] };

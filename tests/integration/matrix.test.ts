@@ -24,6 +24,7 @@ import * as families from "@/app/api/v1/workspaces/[ws]/families/route";
 import * as family from "@/app/api/v1/workspaces/[ws]/families/[familyId]/route";
 import * as designs from "@/app/api/v1/workspaces/[ws]/designs/route";
 import * as design from "@/app/api/v1/workspaces/[ws]/designs/[designId]/route";
+import * as draft from "@/app/api/v1/workspaces/[ws]/designs/[designId]/draft/route";
 import * as revisions from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/route";
 import * as revision from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/[number]/route";
 import * as exporter from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/[number]/export/route";
@@ -197,6 +198,17 @@ const rows: Row[] = [
     run: (_w, t) => call(design.PATCH, "PATCH", "/d", { token: t, params: dp(), body: { description: `edited ${tag()}` } }),
     expect: [401, 404, 403, 403, 200, 200],
   },
+  {
+    name: "PUT designs/{id}/draft",
+    run: async (_w, t) => {
+      const current = (await db().models.Design.findByPk(designId))!;
+      return call(draft.PUT, "PUT", "/d", {
+        token: t, params: dp(),
+        body: { source: `${SOURCE}// edited ${tag()}\n`, familyId, settings: {}, baseVersion: current.draftVersion },
+      });
+    },
+    expect: [401, 404, 403, 403, 200, 200],
+  },
   { name: "GET revisions", run: (_w, t) => call(revisions.GET, "GET", "/r", { token: t, params: dp() }), expect: [401, 404, 200, 200, 200, 200] },
   {
     name: "POST revisions",
@@ -249,6 +261,7 @@ describe("records of another workspace are invisible (404) and unchanged", () =>
     const results = [
       await call(design.GET, "GET", "/d", { token: t, params: { ...op, designId } }),
       await call(design.PATCH, "PATCH", "/d", { token: t, params: { ...op, designId }, body: { name: "stolen" } }),
+      await call(draft.PUT, "PUT", "/d", { token: t, params: { ...op, designId }, body: { source: "stolen", familyId, settings: {}, baseVersion: 1 } }),
       await call(revisions.GET, "GET", "/r", { token: t, params: { ...op, designId } }),
       await call(revisions.POST, "POST", "/r", { token: t, params: { ...op, designId }, body: { message: "x", source: SOURCE, familyId, settings: {} } }),
       await call(revision.GET, "GET", "/r", { token: t, params: { ...op, designId, number: "1" } }),
@@ -262,6 +275,7 @@ describe("records of another workspace are invisible (404) and unchanged", () =>
     expect(results.map((r) => r.status)).toEqual(results.map(() => 404));
     const after = await db().models.Design.findByPk(designId);
     expect(after!.name).toBe(before!.name);
+    expect(after!.draftSource).toBe(before!.draftSource);
     expect((await db().models.LogicFamilyRecord.findByPk(ownFamilyId))).not.toBeNull();
     const m = await db().models.Membership.findOne({ where: { workspaceId: ws.id, userId: users.viewer.id } });
     expect(m!.role).toBe("viewer");
@@ -271,7 +285,10 @@ describe("records of another workspace are invisible (404) and unchanged", () =>
     const foreign = await db().models.LogicFamilyRecord.create({
       workspaceId: otherWs.id, key: `foreign-${tag()}`, name: "Foreign", builtin: false, data: { ...FAMILY_DATA },
     });
-    const r = await call(design.PATCH, "PATCH", "/d", { token: users.owner.token, params: dp(), body: { familyId: foreign.id } });
+    const current = (await db().models.Design.findByPk(designId))!;
+    const r = await call(draft.PUT, "PUT", "/d", {
+      token: users.owner.token, params: dp(), body: { source: SOURCE, familyId: foreign.id, settings: {}, baseVersion: current.draftVersion },
+    });
     expect(r.status).toBe(400);
     const c = await call(compile.POST, "POST", "/compile", { token: users.owner.token, body: { source: SOURCE, familyId: foreign.id } });
     expect(c.status).toBe(404);

@@ -1,7 +1,8 @@
 import { getServerSession } from "next-auth";
 import Link from "next/link";
 import { authOptions } from "@/lib/auth/options";
-import { requireSignedIn } from "@/lib/auth/session";
+import { currentActor } from "@/lib/auth/session";
+import { SignInRedirect } from "@/components/ui/SignInRedirect";
 import { SiteHeader } from "@/components/ui/SiteHeader";
 import { SignOutButton } from "@/components/ui/SignOutButton";
 import { Providers } from "@/components/ui/Providers";
@@ -11,7 +12,8 @@ export const dynamic = "force-dynamic";
 
 export default async function WorkspaceLayout({ children, params }: { children: React.ReactNode; params: Promise<{ ws: string }> }) {
   const { ws } = await params;
-  await requireSignedIn(`/w/${encodeURIComponent(ws)}`);
+  // Signed out: nothing of the workspace is rendered; the browser goes to sign-in and back to this exact page.
+  if (!(await currentActor())) return <SignInRedirect />;
   const session = await getServerSession(authOptions);
   return (
     <Providers>
@@ -22,7 +24,7 @@ export default async function WorkspaceLayout({ children, params }: { children: 
         <SignOutButton />
       </SiteHeader>
       <div className="border-b border-rule bg-paper">
-        <div className="mx-auto flex h-10 max-w-[100rem] items-center px-4">
+        <div className="page-frame flex h-10 items-center">
           <WorkspaceNav ws={ws} />
         </div>
       </div>

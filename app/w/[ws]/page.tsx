@@ -7,7 +7,7 @@ export const metadata: Metadata = { title: "Designs" };
 export default async function WorkspaceHome({ params }: { params: Promise<{ ws: string }> }) {
   const { ws } = await params;
   return (
-    <main className="mx-auto grid max-w-[100rem] gap-8 px-4 py-6 xl:grid-cols-[1fr_22rem]">
+    <main className="page-frame grid gap-8 py-6 xl:grid-cols-[1fr_22rem]">
       <DesignTable ws={ws} />
       <aside>
         <FamilyList ws={ws} compact />

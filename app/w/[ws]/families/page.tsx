@@ -6,7 +6,7 @@ export const metadata: Metadata = { title: "Families" };
 export default async function FamiliesPage({ params }: { params: Promise<{ ws: string }> }) {
   const { ws } = await params;
   return (
-    <main className="mx-auto max-w-[100rem] px-4 py-6">
+    <main className="page-frame py-6">
       <FamilyList ws={ws} />
     </main>
   );
