@@ -41,7 +41,7 @@ function loadMonaco(): Promise<MonacoApi> {
         return new Worker(new URL("monaco-editor/editor/editor.worker.js", import.meta.url), { type: "module" });
       },
     };
-    const monaco = await import("monaco-editor");
+    const monaco = (await import("./monaco")).default as unknown as MonacoApi;
     loader.config({ monaco });
     registerFanboundLanguage(monaco);
     return monaco;

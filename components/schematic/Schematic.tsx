@@ -1,5 +1,5 @@
 "use client";
-import { useEffect, useRef, useState } from "react";
+import { startTransition, useEffect, useRef, useState } from "react";
 import type { Layout, LayoutNode } from "@/lib/export/layout";
 import type { DrawableNetlist } from "@/lib/export/cone";
 import type { Netlist } from "@/lib/map/netlist";
@@ -63,11 +63,14 @@ export function Schematic({ netlist, critical, selected, onSelect, height = 360,
     }, ctl.signal).then(
       (l) => {
         if (ctl.signal.aborted) return;
-        setLayout(l);
-        setError(null);
         const w = box.current?.clientWidth ?? 800;
         const k = Math.min(1.4, Math.max(0.1, Math.min((w - 24) / Math.max(1, l.width), (height - 24) / Math.max(1, l.height))));
-        setView({ x: 12, y: 12, k });
+        // A drawing of a few hundred symbols is rendered in slices, so the page stays responsive meanwhile.
+        startTransition(() => {
+          setLayout(l);
+          setError(null);
+          setView({ x: 12, y: 12, k });
+        });
       },
       (e: unknown) => {
         if (!ctl.signal.aborted) setError(e instanceof Error ? e.message : String(e));

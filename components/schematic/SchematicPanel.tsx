@@ -6,7 +6,7 @@ import { Schematic } from "./Schematic";
 /** Up to this many gates the whole netlist is drawn on one sheet. */
 export const FULL_DRAWING_MAX_GATES = 300;
 /** A cone drawing shows at most this many gates, the ones nearest the output. */
-export const CONE_DRAWING_MAX_GATES = 400;
+export const CONE_DRAWING_MAX_GATES = 200;
 
 /**
  * The schematic of a result. A netlist small enough to read is drawn whole;

@@ -1,5 +1,5 @@
 "use client";
-import { useCallback, useEffect, useRef, useState } from "react";
+import { startTransition, useCallback, useEffect, useRef, useState } from "react";
 import { api, ApiError } from "@/lib/client/fetcher";
 import type { CompileResponse, WorkbenchSettings } from "./types";
 
@@ -61,7 +61,8 @@ export function useCompile(ws: string, source: string | null, familyId: string |
     }).then(
       (data) => {
         if (c.signal.aborted) return;
-        setState({ data, dataKey: settled, error: null, running: null, cancelled: false });
+        // A wide result renders in slices: typing and Cancel stay responsive meanwhile.
+        startTransition(() => setState({ data, dataKey: settled, error: null, running: null, cancelled: false }));
       },
       (e: unknown) => {
         if (c.signal.aborted) return;

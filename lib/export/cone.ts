@@ -53,10 +53,10 @@ export function coneSizes(doc: DrawableNetlist): Map<string, number> {
 
 /**
  * The cone of `output`, breadth first from the output back towards the
- * inputs, cut off after `limit` gates (default 400). Gates keep the netlist's
+ * inputs, cut off after `limit` gates (default 200). Gates keep the netlist's
  * order, so drivers still come before the gates they feed.
  */
-export function outputCone(doc: DrawableNetlist, output: string, limit = 400): Cone {
+export function outputCone(doc: DrawableNetlist, output: string, limit = 200): Cone {
   const out = doc.outputs.find((o) => o.name === output);
   if (!out) throw new Error(`no output named "${output}"`);
   const driver = driversOf(doc);

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Page } from "playwright-core";
-import { BASE_URL, openBrowser, screenshot, signIn, type Session } from "../support/browser";
+import { BASE_URL, openBrowser, screenshot, signIn, typeInEditor, type Session } from "../support/browser";
 import { DEMO_PASSWORD } from "../../lib/scripts/demo.mjs";
 
 /** Creates a design from the workspace home and returns its address. */
@@ -17,8 +17,7 @@ async function newDesign(page: Page, name: string): Promise<string> {
 async function typeAtEnd(page: Page, text: string) {
   await page.click(".monaco-editor .view-lines");
   await page.keyboard.press("Control+End");
-  await page.keyboard.type(text);
-  await page.keyboard.press("Escape");
+  await typeInEditor(page, text);
 }
 
 // Monaco draws spaces as no-break spaces.

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { BASE_URL, openBrowser, screenshot, signIn, type Session } from "../support/browser";
+import { BASE_URL, openBrowser, screenshot, signIn, typeInEditor, type Session } from "../support/browser";
 import { DEMO_PASSWORD } from "../../lib/scripts/demo.mjs";
 
 /** Product terms of an SOP expression as sets of literals, so term and literal order do not matter. */
@@ -36,8 +36,7 @@ describe("the designer's workbench in chromium", () => {
     await page.click(".monaco-editor");
     const lines = ["inputs a, b, c", "outputs f", "f = a * b + a * b' * c"];
     for (const [i, line] of lines.entries()) {
-      await page.keyboard.type(line);
-      await page.keyboard.press("Escape");
+      await typeInEditor(page, line);
       if (i < lines.length - 1) await page.keyboard.press("Enter");
     }
     // a·b + a·b'·c = a·b + a·c (absorption: x + x'y = x + y, with x = b inside a) — Boolean algebra, any textbook.
@@ -50,8 +49,7 @@ describe("the designer's workbench in chromium", () => {
     // Add a term that absorbs everything with a: the cover shrinks to the single literal a.
     await page.click(".monaco-editor .view-lines");
     await page.keyboard.press("Control+End");
-    await page.keyboard.type(" + a * c'");
-    await page.keyboard.press("Escape");
+    await typeInEditor(page, " + a * c'");
     await page.getByRole("tab", { name: "Minimized" }).click();
     // a·b + a·b'·c + a·c' = a (every combination with a = 1 is covered) — checked by hand over the 4 cases of b, c.
     await expect.poll(async () => (await expr.innerText()).trim(), { timeout: 30_000 }).toBe("a");

@@ -3,50 +3,17 @@
  * playwright-core, a fresh profile each run, and a guard that records every
  * request leaving 127.0.0.1 so a test can fail on it.
  */
-import { chromium, type BrowserContext, type Page } from "playwright-core";
-import { mkdtempSync, mkdirSync, rmSync } from "node:fs";
-import { tmpdir } from "node:os";
+import type { Page } from "playwright-core";
+import { mkdirSync } from "node:fs";
 import path from "node:path";
+import { launchChromium, type ChromiumSession } from "../../lib/bench/chromium";
 
 export const BASE_URL = process.env.FANBOUND_BASE_URL ?? "http://127.0.0.1:3100";
 export const ARTEFACTS = path.resolve("test-results");
 
-export interface Session {
-  context: BrowserContext;
-  page: Page;
-  /** URLs requested outside 127.0.0.1 (they are blocked, and listed here). */
-  outside: string[];
-  close(): Promise<void>;
-}
+export type Session = ChromiumSession;
 
-export async function openBrowser(): Promise<Session> {
-  const profile = mkdtempSync(path.join(tmpdir(), "fanbound-chromium-"));
-  const context = await chromium.launchPersistentContext(profile, {
-    executablePath: "/usr/bin/chromium",
-    headless: true,
-    viewport: { width: 1360, height: 860 },
-    args: ["--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
-      "--disable-background-networking", "--disable-component-update", "--disable-sync"],
-  });
-  const outside: string[] = [];
-  await context.route("**/*", (route) => {
-    const url = new URL(route.request().url());
-    const local = url.protocol === "data:" || url.protocol === "blob:" || url.hostname === "127.0.0.1";
-    if (local) return route.continue();
-    outside.push(route.request().url());
-    return route.abort();
-  });
-  const page = context.pages()[0] ?? (await context.newPage());
-  return {
-    context,
-    page,
-    outside,
-    async close() {
-      await context.close();
-      rmSync(profile, { recursive: true, force: true });
-    },
-  };
-}
+export const openBrowser = launchChromium;
 
 export async function screenshot(page: Page, name: string): Promise<string> {
   mkdirSync(ARTEFACTS, { recursive: true });
@@ -62,4 +29,18 @@ export async function signIn(page: Page, email: string, password: string): Promi
   await page.fill('input[name="password"]', password);
   await page.click('button[type="submit"]');
   await page.waitForURL(/\/w\//, { timeout: 30_000 });
+}
+
+/**
+ * Types text into the focused Monaco editor and closes any completion list it
+ * opened (the list can appear a moment after the last key; Enter would then
+ * take a suggestion instead of breaking the line).
+ */
+export async function typeInEditor(page: Page, text: string): Promise<void> {
+  await page.keyboard.type(text);
+  for (let i = 0; i < 5; i++) {
+    await page.waitForTimeout(120);
+    await page.keyboard.press("Escape");
+    if ((await page.locator(".monaco-editor .suggest-widget.visible").count()) === 0) return;
+  }
 }
