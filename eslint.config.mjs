@@ -8,7 +8,7 @@ const pureCore = ["lib/logic/**", "lib/lang/**", "lib/minimize/**", "lib/verify/
   "lib/map/**", "lib/analysis/**", "lib/export/**", "lib/pipeline/**"];
 
 export default tseslint.config(
-  { ignores: ["node_modules/**", ".next/**", ".next-*/**", ".data/**", "test-results/**", "next-env.d.ts"] },
+  { ignores: ["node_modules/**", ".next/**", ".next-*/**", ".data/**", ".build/**", ".build.*/**", "test-results/**", "next-env.d.ts"] },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {
@@ -31,7 +31,6 @@ export default tseslint.config(
   },
   {
     files: pureCore.map((g) => g.replace("**", "**/*.ts")),
-    ignores: ["lib/minimize/worker*.ts", "lib/pipeline/async.ts"],
     rules: {
       "no-restricted-imports": ["error", {
         patterns: [

@@ -9,16 +9,7 @@ import type { CostKind, DesignSettings } from "@/lib/pipeline/settings";
 export type { Diagnostic, MinimizeResult, Analysis, NetlistDocument, TargetForm, CostKind };
 
 /** The design settings the workbench edits: the pipeline's, less the family (it travels separately) and the activity factor. */
-export type WorkbenchSettings = Omit<DesignSettings, "familyId" | "activity">;
+export type WorkbenchSettings = Omit<DesignSettings, "activity">;
 
-export interface CompileResponse {
-  diagnostics: Diagnostic[];
-  result: {
-    covers: MinimizeResult;
-    netlist: NetlistDocument;
-    analysis: Analysis;
-    warnings: string[];
-    stats: Record<string, unknown>;
-  } | null;
-  family?: { id: string; key: string; name: string };
-}
+/** What POST /api/v1/compile answers: the registry's schema, inferred (no copy kept by hand). */
+export type { CompileResponse } from "@/lib/api/compile-schema";

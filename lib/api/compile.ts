@@ -1,165 +1,104 @@
 import "server-only";
 /**
- * The seam between the API and lib/pipeline: source, settings and a family
- * record in; diagnostics, covers, netlist, analysis and the figures a revision
- * stores out. Compile limits become a 422 naming the limit.
- *
- * Small designs minimize in-thread, where a run takes milliseconds and a
- * worker's start (about 350 ms) would dominate. Larger ones go to a worker
- * thread — at most WORKER_SLOTS at once — with the wall-clock budget and the
- * request's abort signal, so a long run neither holds the server nor outlives
- * the client that asked for it.
+ * Compiles for the web server: the pipeline's one path (lib/pipeline
+ * `compile`), with the stages on this process's warm worker pool under the
+ * interactive budget, results kept by content hash per workspace, and the
+ * pipeline's errors turned into the API's: a limit or a mapping failure is a
+ * 422 whose details say what was reached and what to change.
  */
-import path from "node:path";
 import type { z } from "zod";
-import { compileSource, type Diagnostic } from "../lang";
-import { LimitError, minimize, type MinimizeOptions, type MinimizeResult } from "../minimize";
-import { minimizeInWorker } from "../minimize/worker";
-import type { FunctionSpec } from "../logic";
-import { revisionStats, type RevisionStats } from "../pipeline/stats";
-import { finish, minimizeOptionsFor, type DesignSettings, type ExportFormat } from "../pipeline";
+import { prepare, resolveSettings, type CompileResult, type Compiled, type ExportFormat, type PipelineError, type StageOutcome } from "../pipeline";
 import type { Family } from "../families";
 import type { Netlist } from "../map";
 import type { NetlistDocument } from "../export";
+import { CompilePool, QueueFull } from "../runtime/pool";
+import { cacheKey, cachedResult, keepResult } from "../data/compile-cache";
 import { AppError } from "./errors";
-
 import type { CompileSettings as CompileSettingsSchema } from "./routes";
-export type CompileSettings = Omit<z.infer<typeof CompileSettingsSchema>, "familyId">;
 
-/** Wall-clock budget of one minimization behind the API: 10 000 ms (the exact route then gives way to the heuristic). */
+export type CompileSettings = z.infer<typeof CompileSettingsSchema>;
+
+/** Wall-clock budget of one interactive compile, waiting for a thread included: 10 000 ms. */
 export const COMPILE_BUDGET_MS = 10_000;
+/** The minimizer's share of it: past this the exact route gives way to the heuristic, leaving time to map. */
+export const MINIMIZE_SHARE = 0.7;
 
-export type { RevisionStats };
-
-export interface CompileOutcome {
-  diagnostics: Diagnostic[];
-  /** null when the source has errors (see diagnostics). */
-  result: {
-    covers: MinimizeResult;
-    netlist: unknown;
-    analysis: unknown;
-    verification: unknown;
-    warnings: string[];
-    stats: RevisionStats;
-  } | null;
-  exports: Partial<Record<ExportFormat, string>>;
-  /** What a revision keeps of this run so that its files never change: the netlist and its JSON document. */
-  saved: SavedNetlist | null;
-}
-
-/** The netlist a revision keeps; its files are rendered from this, never recomputed. */
+/** What a revision keeps of a run so that its files never change: the netlist and its JSON document. */
 export interface SavedNetlist {
   model: Netlist;
   document: NetlistDocument;
 }
 
-/** Settings without the family, as stored on designs and revisions. */
-export function storedSettings(s: CompileSettings & { familyId?: string }): Record<string, unknown> {
+/** Settings as stored on designs and revisions: the schema's fields only. */
+export function storedSettings(s: CompileSettings & { familyId?: unknown }): Record<string, unknown> {
   const { familyId: _ignored, ...rest } = s;
   return rest;
 }
 
-/** A minimizer LimitError as the API's 422 "compile_limit" naming the limit; anything else unchanged. */
-export function asCompileError(e: unknown): unknown {
-  if (e instanceof LimitError) {
-    return new AppError("compile_limit", `Compile limit ${e.limit} reached: ${e.message}`, { limit: e.limit, value: e.value, hint: e.hint });
-  }
-  return e;
+const g = globalThis as unknown as { fanboundPool?: CompilePool };
+
+/** This process's compile pool, started on first use. */
+export function compilePool(): CompilePool {
+  return (g.fanboundPool ??= new CompilePool());
+}
+
+/** A pipeline error as the API's 422. */
+export function asAppError(e: PipelineError): AppError {
+  if (e.code === "mapping") return new AppError("compile_errors", e.message, { stage: "mapping" });
+  return new AppError("compile_limit", e.message, { limit: e.code, what: e.what ?? null, hint: e.hint ?? null });
+}
+
+export interface ServerCompile {
+  source: string;
+  family: Family;
+  settings: CompileSettings;
+  /** Who asks: their runs share the pool fairly with everyone else's. */
+  userId: string;
+  /** The workspace whose cache the result joins; outside a workspace, the user's own. */
+  workspaceId?: string | null;
+  exports?: ExportFormat[];
+  unitName?: string;
+  signal?: AbortSignal;
+  budgetMs?: number;
 }
 
 /**
- * Designs this small (inputs and outputs both at most 8) minimize on the
- * request's own thread in milliseconds, with a short budget of their own;
- * everything else goes to a worker thread, so no request holds the server.
+ * Compiles on the pool (or answers from the cache). Returns the diagnostics
+ * and, when the source has no errors, the result; throws AppError 422 when a
+ * limit or the family stops it, 429 when the caller has too many waiting.
  */
-export const IN_THREAD_MAX_INPUTS = 8;
-export const IN_THREAD_MAX_OUTPUTS = 8;
-const IN_THREAD_BUDGET_MS = 2_000;
-
-/** At most this many minimizations run on workers at once (the machine has few cores); the rest wait their turn. */
-export const WORKER_SLOTS = 2;
-
-/** The worker's entry on disk; the server bundle cannot hold it, the source tree does. */
-const WORKER_BOOT = path.join(process.cwd(), "lib/minimize/worker-boot.mjs");
-
-const slots = { busy: 0, waiting: [] as Array<() => void> };
-
-/** Waits for a free worker slot; a cancelled request leaves the queue. */
-function acquireSlot(signal?: AbortSignal): Promise<() => void> {
-  const release = () => {
-    slots.busy--;
-    slots.waiting.shift()?.();
-  };
-  if (slots.busy < WORKER_SLOTS) {
-    slots.busy++;
-    return Promise.resolve(release);
-  }
-  return new Promise((resolve, reject) => {
-    const go = () => {
-      signal?.removeEventListener("abort", onAbort);
-      slots.busy++;
-      resolve(release);
-    };
-    const onAbort = () => {
-      slots.waiting = slots.waiting.filter((w) => w !== go);
-      reject(new LimitError("aborted", 0, "the run was cancelled while it waited for a free worker", "Start it again when needed."));
-    };
-    signal?.addEventListener("abort", onAbort, { once: true });
-    slots.waiting.push(go);
-  });
-}
-
-export function runsInThread(spec: FunctionSpec): boolean {
-  return spec.inputs.length <= IN_THREAD_MAX_INPUTS && spec.outputs.length <= IN_THREAD_MAX_OUTPUTS;
-}
-
-async function runMinimize(spec: FunctionSpec, options: MinimizeOptions, signal?: AbortSignal): Promise<MinimizeResult> {
-  if (runsInThread(spec)) return minimize(spec, { ...options, timeLimitMs: IN_THREAD_BUDGET_MS });
-  const release = await acquireSlot(signal);
+export async function compileOnServer(p: ServerCompile): Promise<Compiled & { cached: boolean }> {
+  const input = { source: p.source, family: p.family, settings: resolveSettings(p.settings), exports: p.exports ?? [], unitName: p.unitName };
+  const { diagnostics, job } = prepare(input);
+  if (!job) return { diagnostics, spec: null, result: null, error: null, cached: false };
+  const budgetMs = p.budgetMs ?? COMPILE_BUDGET_MS;
+  job.minimizeMs = Math.round(budgetMs * MINIMIZE_SHARE);
+  const scope = p.workspaceId ? `ws:${p.workspaceId}` : `user:${p.userId}`;
+  const key = cacheKey(scope, job);
+  const hit = job.exports.length === 0 ? await cachedResult(key) : null;
+  if (hit) return { diagnostics, spec: job.spec, result: hit, error: null, cached: true };
+  let out: StageOutcome;
   try {
-    // The worker's own budget is a little longer than the minimizer's, so the
-    // exact route's fallback to the heuristic gets to answer first.
-    return await minimizeInWorker(spec, { ...options, timeLimitMs: COMPILE_BUDGET_MS }, {
-      budgetMs: COMPILE_BUDGET_MS + 5_000,
-      bootFile: WORKER_BOOT,
-      ...(signal ? { signal } : {}),
-    });
-  } finally {
-    release();
-  }
-}
-
-/**
- * Runs the pipeline for one family record (its key is the pipeline's family id).
- * Throws AppError 422: "compile_limit" (details.limit names it) or
- * "compile_errors" when the family cannot build the design.
- */
-export async function compileDesign(
-  source: string,
-  settings: CompileSettings,
-  family: Family,
-  opts: { exports?: ExportFormat[]; unitName?: string; signal?: AbortSignal } = {},
-): Promise<CompileOutcome> {
-  const compiled = compileSource(source);
-  if (!compiled.spec) return { diagnostics: compiled.diagnostics, result: null, exports: {}, saved: null };
-  const full: DesignSettings = { ...storedSettings(settings), familyId: family.id };
-  let minimized: MinimizeResult;
-  try {
-    minimized = await runMinimize(compiled.spec, minimizeOptionsFor(full, family), opts.signal);
+    out = await compilePool().executor(p.userId, budgetMs)(job, { ...(p.signal ? { signal: p.signal } : {}) });
   } catch (e) {
-    throw asCompileError(e);
+    if (e instanceof QueueFull) {
+      throw new AppError("rate_limited", "You have several compiles waiting already; wait for them to finish, then try again.", { queue: "compile" }, 2);
+    }
+    throw e;
   }
-  const r = finish(compiled.diagnostics, compiled.spec, minimized, family, full, { families: [family], exports: opts.exports, unitName: opts.unitName });
-  if (!r.ok || !r.analysis || !r.document) {
-    throw new AppError("compile_errors", r.error?.message ?? "The design could not be mapped onto the family.", { stage: r.error?.code ?? "mapping" });
-  }
-  const a = r.analysis;
-  const stats = revisionStats(r)!;
+  if (!out.ok) throw asAppError(out.error);
+  await keepResult(key, scope, out.result);
+  return { diagnostics, spec: job.spec, result: out.result, error: null, cached: false };
+}
 
+/** The part of a result the API sends (the netlist as its document). */
+export function resultBody(r: CompileResult) {
   return {
-    diagnostics: r.diagnostics,
-    result: { covers: minimized, netlist: r.document, analysis: a, verification: r.verification, warnings: r.warnings, stats },
-    exports: r.exports ?? {},
-    saved: r.netlist && r.document ? { model: r.netlist, document: r.document } : null,
+    covers: r.covers,
+    netlist: r.document,
+    analysis: r.analysis,
+    verification: r.verification,
+    warnings: r.warnings,
+    stats: r.stats,
   };
 }

@@ -5,13 +5,14 @@
 import { z } from "zod";
 import { defineRoute } from "./registry";
 import { designSettingsSchema } from "../pipeline/settings";
+import { CompileResponse } from "./compile-schema";
 // Kept here rather than imported from models/, so this module stays free of Sequelize.
 const ROLES = ["owner", "designer", "reviewer", "viewer"] as const;
 
 // ---- shared pieces -------------------------------------------------------------
 
-/** Design settings as the API takes them: the pipeline's, with the family given apart (a familyId inside is ignored). */
-export const CompileSettings = designSettingsSchema.partial({ familyId: true });
+/** Design settings as the API takes them: the pipeline's; the family is given apart (a familyId inside is dropped). */
+export const CompileSettings = designSettingsSchema;
 
 const Slug = z.string().regex(/^[a-z0-9][a-z0-9-]{1,62}$/, "2–63 lower-case letters, digits or dashes, starting with a letter or digit");
 const Id = z.uuid();
@@ -24,14 +25,6 @@ const Source = z.string().max(200_000);
 const Ref = z.object({ id: z.string(), name: z.string() });
 const FamilyRef = z.object({ id: z.string(), key: z.string(), name: z.string() });
 const Page = { limit: z.coerce.number().int().min(1).max(200).optional(), cursor: z.string().max(64).optional() };
-const Diagnostic = z.object({
-  severity: z.enum(["error", "warning"]),
-  message: z.string(),
-  line: z.number(),
-  column: z.number(),
-  endLine: z.number(),
-  endColumn: z.number(),
-});
 
 export const ErrorShape = z.object({
   error: z.object({ code: z.string(), message: z.string(), details: z.unknown() }),
@@ -332,7 +325,7 @@ export const routes = {
       familyId: Id.optional(),
       familyKey: z.string().max(64).optional(),
     }).strict().refine((b) => b.familyId || b.familyKey, { message: "give familyId or familyKey", path: ["familyId"] }),
-    response: z.object({ diagnostics: z.array(Diagnostic), result: z.unknown().nullable(), family: FamilyRef }),
+    response: CompileResponse,
     errors: [...R, 400, 404, 413, 415, 422],
   }),
   openapi: defineRoute({

@@ -1,12 +1,12 @@
 /**
- * The Fanbound command line: `npm run -s cli -- <command> [args]`.
- * Each command lives in ./commands/<name>.ts and exports
- * `run(args: string[], io: CliIO): Promise<number>` returning the exit code.
+ * The Fanbound command line: `npm run -s cli -- <command> [args]` or
+ * `npx fanbound <command> [args]`, run from the bundle .build/cli.mjs (see
+ * lib/cli/run.mjs). Each command lives in ./commands/<name>.ts and exports
+ * `run(args: string[], io: CliIO): Promise<number>` returning the exit code;
+ * the table below lists them, so the bundle holds every command (each in a
+ * chunk of its own, loaded when it runs).
  */
 import { readFileSync } from "node:fs";
-import { existsSync } from "node:fs";
-import { fileURLToPath } from "node:url";
-import path from "node:path";
 
 export interface CliIO {
   /** Reads FILE, or standard input when FILE is "-". */
@@ -15,7 +15,16 @@ export interface CliIO {
   err(text: string): void;
 }
 
-const here = path.dirname(fileURLToPath(import.meta.url));
+type Command = { run(args: string[], io: CliIO): Promise<number> };
+
+/** Every command, each loaded when it runs (a check need not load the mapper, the SAT solver or the layout engine). */
+const COMMANDS: Record<string, () => Promise<Command>> = {
+  check: () => import("./commands/check"),
+  table: () => import("./commands/table"),
+  minimize: () => import("./commands/minimize"),
+  map: () => import("./commands/map"),
+  families: () => import("./commands/families"),
+};
 
 const io: CliIO = {
   readSource(file) {
@@ -31,9 +40,7 @@ const io: CliIO = {
 
 async function main(argv: string[]): Promise<number> {
   const [name, ...args] = argv;
-  const commands = ["check", "table", "minimize", "map", "families"].filter((c) =>
-    existsSync(path.join(here, "commands", `${c}.ts`)),
-  );
+  const commands = Object.keys(COMMANDS);
   if (!name || name === "help" || name === "--help") {
     io.out(`usage: npm run -s cli -- <command> [args]\ncommands: ${commands.join(", ")}`);
     return name ? 0 : 2;
@@ -42,9 +49,7 @@ async function main(argv: string[]): Promise<number> {
     io.err(`unknown command "${name}"; the commands are: ${commands.join(", ")}`);
     return 2;
   }
-  const mod = (await import(`./commands/${name}.ts`)) as {
-    run(args: string[], io: CliIO): Promise<number>;
-  };
+  const mod = await COMMANDS[name]!();
   try {
     return await mod.run(args, io);
   } catch (e) {

@@ -121,12 +121,14 @@ export async function resolveCompileFamily(p: {
   slug?: string;
   familyId?: string;
   familyKey?: string;
-}): Promise<{ record: FamilyView; family: Family }> {
+}): Promise<{ record: FamilyView; family: Family; workspaceId: string | null }> {
   if (!p.actor) throw unauthenticated();
   const { LogicFamilyRecord } = db().models;
   let row: Rec | null;
+  let workspaceId: string | null = null;
   if (p.slug) {
     const { workspace } = await requireAccess(p.actor, p.slug, "compile.run");
+    workspaceId = workspace.id;
     row = p.familyId
       ? await LogicFamilyRecord.findOne({ where: { id: p.familyId, ...visible(workspace.id) } })
       : await LogicFamilyRecord.findOne({ where: { key: p.familyKey ?? "", workspaceId: null } });
@@ -140,5 +142,5 @@ export async function resolveCompileFamily(p: {
     row = await LogicFamilyRecord.findOne({ where: { key: p.familyKey ?? "", workspaceId: null } });
   }
   if (!row) throw notFound("family");
-  return { record: familyView(row), family: familyOf(row) };
+  return { record: familyView(row), family: familyOf(row), workspaceId };
 }

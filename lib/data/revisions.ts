@@ -7,7 +7,7 @@ import "server-only";
  */
 import { db } from "../db/connection";
 import { AppError, notFound } from "../api/errors";
-import { compileDesign, storedSettings, type CompileSettings as Settings, type SavedNetlist } from "../api/compile";
+import { compileOnServer, storedSettings, type CompileSettings as Settings, type SavedNetlist } from "../api/compile";
 import { toCsv, toVerilog, toVhdl } from "../export";
 import { CompileSettings } from "../api/routes";
 import type { Family } from "../families";
@@ -115,12 +115,14 @@ export async function createRevision(p: {
   const familyRow = await usableFamily(workspace.id, p.familyId);
   limiters.compile.enforce(p.actor!.userId, "compile");
   const family = familyOf(familyRow);
-  const outcome = await compileDesign(p.source, p.settings, family);
+  // The same path as the workbench's compiles: a result the designer just saw comes from the cache.
+  const outcome = await compileOnServer({ source: p.source, family, settings: p.settings, userId: p.actor!.userId, workspaceId: workspace.id });
   const settings = storedSettings(p.settings);
   if (!outcome.result) {
     throw new AppError("compile_errors", "The source has errors; fix them before saving a revision.", { diagnostics: outcome.diagnostics });
   }
   const stats = outcome.result.stats as unknown as Record<string, unknown>;
+  const saved: SavedNetlist = { model: outcome.result.model, document: outcome.result.document };
   const { sequelize, models } = db();
   const id = await sequelize.transaction(async (transaction) => {
     // The lock serialises saves of one design; numbers follow without gaps or collisions.
@@ -136,7 +138,7 @@ export async function createRevision(p: {
         familySnapshot: { ...family } as unknown as Record<string, unknown>,
         settings,
         stats,
-        netlist: outcome.saved as unknown as Record<string, unknown> | null,
+        netlist: saved as unknown as Record<string, unknown>,
         authorId: p.actor!.userId,
         message: p.message,
       },
@@ -183,8 +185,11 @@ export async function exportRevision(p: { actor: Actor | null; slug: string; des
     limiters.compile.enforce(p.actor!.userId, "compile");
     const family = rev.familySnapshot as unknown as Family;
     const settings = CompileSettings.safeParse(rev.settings);
-    const outcome = await compileDesign(rev.source, settings.success ? settings.data : {}, family, { exports: [p.format], unitName: design.name });
-    body = outcome.exports[p.format];
+    const outcome = await compileOnServer({
+      source: rev.source, family, settings: settings.success ? settings.data : {}, userId: p.actor!.userId,
+      workspaceId: design.workspaceId, exports: [p.format], unitName: design.name,
+    });
+    body = outcome.result?.exports[p.format];
     if (!outcome.result || body === undefined) {
       throw new AppError("compile_errors", "This revision no longer compiles with the current language; export an earlier one.", { diagnostics: outcome.diagnostics });
     }

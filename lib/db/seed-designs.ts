@@ -5,15 +5,13 @@
  */
 import { readFileSync } from "node:fs";
 import path from "node:path";
-import { fileURLToPath } from "node:url";
 import { Op } from "sequelize";
 import type { initModels } from "../../models";
 import { BUILT_IN_FAMILIES } from "../families";
-import { compileDesign, type DesignSettings } from "../pipeline";
-import { revisionStats } from "../pipeline/stats";
+import { compileNow, type DesignSettings } from "../pipeline";
 
 type Models = ReturnType<typeof initModels>;
-type Settings = Omit<DesignSettings, "familyId">;
+type Settings = DesignSettings;
 
 interface Step {
   message: string;
@@ -31,8 +29,8 @@ interface DemoDesign {
   steps: Step[];
 }
 
-const here = path.dirname(fileURLToPath(import.meta.url));
-const examples = path.join(here, "../lang/examples");
+// The seed runs from the project's root (npm start, npm test), as a bundle in .build/.
+const examples = path.join(process.cwd(), "lib/lang/examples");
 /** The example without its impossible-combination lines: how a first draft reads. */
 const withoutNever = (s: string) => s.split("\n").filter((l) => !/^\s*never\b/.test(l)).join("\n");
 
@@ -120,11 +118,11 @@ export async function seedDemoDesigns(
       const source = step.edit ? step.edit(full) : full;
       const settings = step.settings ?? {};
       const family = BUILT_IN_FAMILIES.find((f) => f.id === step.family)!;
-      const result = compileDesign(source, { familyId: step.family, ...settings });
-      const stats = revisionStats(result);
-      if (!stats) {
-        throw new Error(`demo design "${demo.name}" revision ${i + 1} did not compile: ${result.error?.message ?? "errors"}`);
+      const { result, error } = compileNow({ source, family, settings });
+      if (!result) {
+        throw new Error(`demo design "${demo.name}" revision ${i + 1} did not compile: ${error?.message ?? "errors"}`);
       }
+      const stats = result.stats;
       await Revision.create({
         designId: design.id,
         number: i + 1,
@@ -134,7 +132,7 @@ export async function seedDemoDesigns(
         settings: { ...settings },
         stats: { ...stats },
         // The files of a revision come from the netlist saved with it.
-        netlist: { model: result.netlist, document: result.document } as unknown as Record<string, unknown>,
+        netlist: { model: result.model, document: result.document } as unknown as Record<string, unknown>,
         authorId: users[step.author]!.id,
         message: step.message,
         // Spread the story over the past weeks, oldest first.

@@ -8,9 +8,12 @@ import { TARGET_FORMS, type TargetForm } from "../map/mapper";
 
 export type CostKind = "products" | "gate-inputs" | "fan-in";
 
+/**
+ * What a design asks of the pipeline besides its family. The family travels
+ * apart, as a Family object in the pipeline and as a family record id
+ * ("familyId") in the API and the database.
+ */
 export interface DesignSettings {
-  /** Family id (built-in or one passed in PipelineOptions.families). */
-  familyId: string;
   /** Target gate form; default "and-or". "or-and" and "nor" minimize to POS, the others to SOP. */
   form?: TargetForm;
   /** Minimizer cost model; default "products". "fan-in" uses the mapping fan-in. */
@@ -41,8 +44,23 @@ export const DEFAULT_SETTINGS = {
   heuristic: false,
 };
 
+/** Settings with every default filled in; fanIn and fanOut stay absent when the family's own apply. */
+export type ResolvedSettings = Required<Omit<DesignSettings, "fanIn" | "fanOut">> & Pick<DesignSettings, "fanIn" | "fanOut">;
+
+/** Fills in the defaults (DEFAULT_SETTINGS); call once, where settings enter (API body, CLI flags, a stored revision). */
+export function resolveSettings(s: DesignSettings = {}): ResolvedSettings {
+  const out: ResolvedSettings = { ...DEFAULT_SETTINGS };
+  for (const k of SETTING_KEYS) {
+    const v = s[k];
+    if (v !== undefined) (out as unknown as Record<string, unknown>)[k] = v;
+  }
+  return out;
+}
+
+const SETTING_KEYS = ["form", "cost", "fanIn", "fanOut", "complementedInputs", "outputPinLoad", "clockMHz", "activity", "heuristic"] as const satisfies ReadonlyArray<keyof DesignSettings>;
+
+/** The settings as the API and storage take them (no family: that travels apart as familyId). */
 export const designSettingsSchema = z.object({
-  familyId: z.string().min(1, "choose a family"),
   form: z.enum(TARGET_FORMS as unknown as [TargetForm, ...TargetForm[]]).optional(),
   cost: z.enum(["products", "gate-inputs", "fan-in"]).optional(),
   fanIn: z.number().int().min(2, "fan-in must be at least 2").max(64).optional(),

@@ -3,7 +3,10 @@
  * small, flat summary of one pipeline run, so lists sort and chart without
  * recomputing anything.
  */
-import type { PipelineResult } from "./index";
+import type { FunctionSpec } from "../logic/index";
+import type { MinimizeResult } from "../minimize/index";
+import type { Analysis } from "../analysis/index";
+import type { VerifyResult } from "../map/index";
 
 export interface RevisionStats {
   inputs: number;
@@ -31,14 +34,11 @@ export interface RevisionStats {
   verified: boolean;
 }
 
-/** Stats of a successful run; null when the run stopped before a netlist. */
-export function revisionStats(r: PipelineResult): RevisionStats | null {
-  if (!r.ok || !r.minimized || !r.analysis || !r.spec) return null;
-  const m = r.minimized;
-  const a = r.analysis;
+/** The stats of one run. */
+export function revisionStats(spec: FunctionSpec, m: MinimizeResult, a: Analysis, verification: VerifyResult | null): RevisionStats {
   return {
-    inputs: r.spec.inputs.length,
-    outputs: r.spec.outputs.length,
+    inputs: spec.inputs.length,
+    outputs: spec.outputs.length,
     products: countDistinctTerms(m),
     literals: m.outputs.reduce((s, o) => s + o.literals, 0),
     shared: m.shared,
@@ -53,11 +53,11 @@ export function revisionStats(r: PipelineResult): RevisionStats | null {
     staticMw: a.staticPower.value,
     dynamicMw: a.dynamicPower.value,
     maxLoad: a.maxLoad,
-    verified: r.verification?.ok ?? false,
+    verified: verification?.ok ?? false,
   };
 }
 
-function countDistinctTerms(m: NonNullable<PipelineResult["minimized"]>): number {
+function countDistinctTerms(m: MinimizeResult): number {
   const seen = new Set<string>();
   for (const o of m.outputs) for (const c of o.cubes) seen.add(`${o.form}:${c.value}:${c.mask}`);
   return seen.size;

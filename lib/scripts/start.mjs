@@ -14,8 +14,9 @@ await ensurePostgres();
 await ensureDatabase(profile.database);
 await ensureMailCatcher(profile);
 const env = appEnv(profile, { NODE_ENV: "production", FANBOUND_DEMO: "1" });
+run(process.execPath, ["lib/scripts/build.mjs"], { env });
 run(process.execPath, ["lib/db/migrate.mjs", "up"], { env });
-run(process.execPath, ["node_modules/tsx/dist/cli.mjs", "lib/db/seed.ts"], { env });
+run(process.execPath, [".build/seed.mjs"], { env });
 
 if (readPid("web")) fail("Fanbound is already being served (see .data/web.pid); run `npm run stop` first");
 if (!(await portFree(profile.webPort))) {

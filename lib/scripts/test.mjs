@@ -23,8 +23,9 @@ await ensureMailCatcher(profile);
 
 const distDir = ".next-test";
 const env = appEnv(profile, { FANBOUND_DIST_DIR: distDir, NEXT_TELEMETRY_DISABLED: "1" });
+run(process.execPath, ["lib/scripts/build.mjs"], { env });
 run(process.execPath, ["lib/db/migrate.mjs", "up"], { env });
-run(process.execPath, ["node_modules/tsx/dist/cli.mjs", "lib/db/seed.ts"], { env });
+run(process.execPath, [".build/seed.mjs"], { env });
 
 const failures = [];
 const counts = { passed: 0, failed: 0, skipped: 0 };

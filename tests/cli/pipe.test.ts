@@ -13,7 +13,7 @@ function runPiped(args: string[], source: string): Promise<{ code: number | null
   const dir = mkdtempSync(path.join(tmpdir(), "fanbound-cli-"));
   const file = path.join(dir, "design.fnb");
   writeFileSync(file, source);
-  const cmd = `set -o pipefail; "${process.execPath}" node_modules/tsx/dist/cli.mjs lib/cli/main.ts ${args.join(" ")} "${file}" | cat`;
+  const cmd = `set -o pipefail; "${process.execPath}" lib/cli/run.mjs ${args.join(" ")} "${file}" | cat`;
   return new Promise((resolve, reject) => {
     const child = spawn("bash", ["-c", cmd], { stdio: ["ignore", "pipe", "inherit"] });
     const chunks: Buffer[] = [];

@@ -6,7 +6,11 @@ import { describe, expect, it } from "vitest";
 import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
-import { compileDesign, type DesignSettings } from "../../lib/pipeline/index";
+import { compileNow, type DesignSettings } from "../../lib/pipeline/index";
+import { BUILT_IN_FAMILIES } from "../../lib/families/index";
+
+/** Settings with the built-in family they run on. */
+type Case = DesignSettings & { familyId: string };
 import { compileSource } from "../../lib/lang/index";
 import { mapCovers, type Netlist, type TargetForm } from "../../lib/map/index";
 import { toVerilog, toVhdl } from "../../lib/export/index";
@@ -130,7 +134,7 @@ function analyseVhdl(text: string, std: string | null): { ok: boolean; out: stri
   return run("ghdl", ["-a", ...(std ? [`--std=${std}`] : []), "design.vhd"], sub);
 }
 
-const combos: { file: string; settings: DesignSettings }[] = [
+const combos: { file: string; settings: Case }[] = [
   { file: "chamber-interlock.fnb", settings: { familyId: "ttl-std-5v", form: "nand" } },
   { file: "chamber-interlock.fnb", settings: { familyId: "cmos-hc-5v", form: "nor" } },
   { file: "fault-priority.fnb", settings: { familyId: "lvcmos-3v3", form: "and-or", fanIn: 2 } },
@@ -141,10 +145,11 @@ const combos: { file: string; settings: DesignSettings }[] = [
   { file: "paddle-driver.fnb", settings: { familyId: "ttl-std-5v", form: "and-or", fanOut: 4, outputPinLoad: 2 } },
 ];
 
-function design(file: string, settings: DesignSettings) {
-  const r = compileDesign(example(file), settings);
-  expect(r.error, JSON.stringify(r.error ?? r.diagnostics)).toBeUndefined();
-  return { netlist: r.netlist!, spec: r.spec! };
+function design(file: string, { familyId, ...settings }: Case) {
+  const family = BUILT_IN_FAMILIES.find((f) => f.id === familyId)!;
+  const r = compileNow({ source: example(file), family, settings });
+  expect(r.error, JSON.stringify(r.error ?? r.diagnostics)).toBeNull();
+  return { netlist: r.result!.model, spec: r.spec! };
 }
 
 describe.skipIf(!haveIverilog)("Verilog simulated with Icarus Verilog", () => {

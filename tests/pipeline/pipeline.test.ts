@@ -1,62 +1,83 @@
 import { describe, expect, it } from "vitest";
 import { readFileSync } from "node:fs";
-import { compileDesign, designSettingsSchema } from "../../lib/pipeline/index";
-import { compileDesignAsync } from "../../lib/pipeline/async";
-import type { Family } from "../../lib/families/index";
+import { cancelledError, compile, compileNow, designSettingsSchema, resolveSettings, runInThread, type Executor } from "../../lib/pipeline/index";
+import { BUILT_IN_FAMILIES, type Family } from "../../lib/families/index";
 
 const LAMPS = readFileSync("lib/lang/examples/status-lamps.fnb", "utf8");
 const PRIORITY = readFileSync("lib/lang/examples/fault-priority.fnb", "utf8");
+const family = (id: string) => BUILT_IN_FAMILIES.find((f) => f.id === id)!;
 
-describe("compileDesign", () => {
+describe("compileNow (the pipeline on this thread)", () => {
   it("runs every stage and returns verified results", () => {
-    const r = compileDesign(PRIORITY, { familyId: "cmos-hc-5v", form: "nand", fanIn: 4 }, { exports: ["verilog", "vhdl", "csv", "json"] });
-    expect(r.ok).toBe(true);
-    expect(r.verification?.ok).toBe(true);
-    expect(r.minimized?.outputs.map((o) => o.form)).toEqual(["sop", "sop", "sop", "sop"]);
-    expect(Object.keys(r.exports ?? {}).sort()).toEqual(["csv", "json", "verilog", "vhdl"]);
-    expect(r.analysis?.caution).toMatch(/data sheets/);
-    expect(r.document?.stats.gates).toBe(r.netlist?.gates.length);
+    const r = compileNow({ source: PRIORITY, family: family("cmos-hc-5v"), settings: { form: "nand", fanIn: 4 }, exports: ["verilog", "vhdl", "csv", "json"] });
+    expect(r.error).toBeNull();
+    const res = r.result!;
+    expect(res.verification?.ok).toBe(true);
+    expect(res.stats.verified).toBe(true);
+    expect(res.covers.outputs.map((o) => o.form)).toEqual(["sop", "sop", "sop", "sop"]);
+    expect(Object.keys(res.exports).sort()).toEqual(["csv", "json", "verilog", "vhdl"]);
+    expect(res.analysis.caution).toMatch(/data sheets/);
+    expect(res.document.stats.gates).toBe(res.model.gates.length);
+    expect(res.stats.gates).toBe(res.model.gates.length);
   });
   it("asks the minimizer for POS for the OR-AND and NOR forms", () => {
     for (const form of ["or-and", "nor"] as const) {
-      const r = compileDesign(LAMPS, { familyId: "ttl-ls-5v", form });
-      expect(r.ok, JSON.stringify(r.error)).toBe(true);
-      expect(r.minimized?.outputs.every((o) => o.form === "pos")).toBe(true);
+      const r = compileNow({ source: LAMPS, family: family("ttl-ls-5v"), settings: { form } });
+      expect(r.error, JSON.stringify(r.error)).toBeNull();
+      expect(r.result!.covers.outputs.every((o) => o.form === "pos")).toBe(true);
     }
   });
-  it("reports errors as values", () => {
-    expect(compileDesign("inputs a\noutputs f\nf = b\n", { familyId: "ttl-std-5v" }).error?.code).toBe("language");
-    const fam = compileDesign(LAMPS, { familyId: "relay" });
-    expect(fam.error?.code).toBe("family");
-    expect(fam.error?.message).toMatch(/ttl-std-5v/);
+  it("returns a source with errors as its diagnostics, without running the stages", () => {
+    const r = compileNow({ source: "inputs a\noutputs f\nf = b\n", family: family("ttl-std-5v") });
+    expect(r.spec).toBeNull();
+    expect(r.result).toBeNull();
+    expect(r.diagnostics.some((d) => d.severity === "error")).toBe(true);
   });
   it("uses a user's family with only a fan-in and a fan-out", () => {
     const user: Family = { id: "bench-rule", name: "Bench rule", fanIn: 3, fanOut: 4 };
-    const r = compileDesign(PRIORITY, { familyId: "bench-rule", form: "mixed" }, { families: [user] });
-    expect(r.ok).toBe(true);
-    for (const g of r.netlist!.gates) expect(g.inputs.length).toBeLessThanOrEqual(3);
-    expect(r.analysis?.criticalPath.delay.value).toBeNull();
-    expect(r.warnings.join(" ")).toMatch(/not estimated/);
+    const r = compileNow({ source: PRIORITY, family: user, settings: { form: "mixed" } });
+    expect(r.error).toBeNull();
+    for (const g of r.result!.model.gates) expect(g.inputs.length).toBeLessThanOrEqual(3);
+    expect(r.result!.analysis.criticalPath.delay.value).toBeNull();
+    expect(r.result!.warnings.join(" ")).toMatch(/not estimated/);
   });
-  it("validates settings with the schema", () => {
-    expect(designSettingsSchema.safeParse({ familyId: "ttl-std-5v", form: "nand", fanIn: 4 }).success).toBe(true);
-    expect(designSettingsSchema.safeParse({ familyId: "ttl-std-5v", fanIn: 1 }).success).toBe(false);
-    expect(designSettingsSchema.safeParse({ familyId: "ttl-std-5v", form: "pla" }).success).toBe(false);
+  it("validates settings with the schema and fills in the defaults once", () => {
+    expect(designSettingsSchema.safeParse({ form: "nand", fanIn: 4 }).success).toBe(true);
+    expect(designSettingsSchema.safeParse({ fanIn: 1 }).success).toBe(false);
+    expect(designSettingsSchema.safeParse({ form: "pla" }).success).toBe(false);
+    expect(resolveSettings({ form: "nor" })).toEqual({ form: "nor", cost: "products", complementedInputs: false, outputPinLoad: 1, clockMHz: 10, activity: 0.25, heuristic: false });
+    // A stored family id among the settings is not a setting.
+    expect(resolveSettings({ familyId: "x" } as never)).not.toHaveProperty("familyId");
   });
 });
 
-describe("compileDesignAsync", () => {
-  it("gives the same netlist as the synchronous pipeline", async () => {
-    const settings = { familyId: "ttl-std-5v", form: "and-or" as const };
-    const a = await compileDesignAsync(PRIORITY, settings);
-    const s = compileDesign(PRIORITY, settings);
-    expect(a.ok).toBe(true);
-    expect(a.netlist).toEqual(s.netlist);
+describe("compile (the pipeline on an executor)", () => {
+  it("gives the same netlist on any executor as on this thread", async () => {
+    const input = { source: PRIORITY, family: family("ttl-std-5v"), settings: { form: "and-or" as const } };
+    const seen: string[] = [];
+    const recording: Executor = (job, control) => {
+      seen.push(job.family.id);
+      return runInThread(job, control);
+    };
+    const a = await compile(input, recording);
+    expect(seen).toEqual(["ttl-std-5v"]);
+    expect(a.result!.model).toEqual(compileNow(input).result!.model);
   });
-  it("returns a limit error when cancelled", async () => {
+  it("does not start the stages of a cancelled run, and says so", async () => {
     const ctl = new AbortController();
     ctl.abort();
-    const r = await compileDesignAsync(PRIORITY, { familyId: "ttl-std-5v" }, { signal: ctl.signal });
-    expect(r.error?.code).toBe("limit");
+    const r = await compile({ source: PRIORITY, family: family("ttl-std-5v") }, runInThread, { signal: ctl.signal });
+    expect(r.result).toBeNull();
+    expect(r.error?.code).toBe("cancelled");
+  });
+  it("calls a run stopped by its time budget a limit, in words", () => {
+    const ctl = new AbortController();
+    ctl.abort(Object.assign(new Error("timeout"), { name: "TimeoutError", budgetMs: 10_000 }));
+    expect(cancelledError(ctl.signal)).toMatchObject({ code: "limit", what: "time limit of 10 s" });
+  });
+  it("reports progress by stage", async () => {
+    const stages: string[] = [];
+    await compile({ source: LAMPS, family: family("ttl-std-5v") }, runInThread, { onProgress: (p) => stages.push(p.stage) });
+    expect(stages).toEqual(["minimize", "map", "analyse", "export"]);
   });
 });

@@ -11,13 +11,14 @@
 import type { CliIO } from "../main";
 import { BUILT_IN_FAMILIES } from "../../families";
 import { TARGET_FORMS, type TargetForm } from "../../map";
-import { compileDesign, type DesignSettings, type ExportFormat } from "../../pipeline";
+import { compileNow, type DesignSettings, type ExportFormat } from "../../pipeline";
+import type { Family } from "../../families";
 
 const USAGE =
   "usage: npm run -s cli -- map FILE --family ID [--form and-or|nand|nor|or-and|mixed] [--fanin N] [--fanout N] [--format json|verilog|vhdl|csv]";
 const FORMATS: ExportFormat[] = ["json", "verilog", "vhdl", "csv"];
 
-function parseArgs(args: string[]): { file: string; settings: DesignSettings; format: ExportFormat } | string {
+function parseArgs(args: string[]): { file: string; family: Family; settings: DesignSettings; format: ExportFormat } | string {
   let file: string | undefined;
   let family: string | undefined;
   let format: ExportFormat = "json";
@@ -58,8 +59,11 @@ function parseArgs(args: string[]): { file: string; settings: DesignSettings; fo
     } else return `only one FILE is taken; got ${file} and ${a}`;
   }
   if (file === undefined) return "FILE is missing (use - to read standard input)";
-  if (family === undefined) return `--family is missing; the families are: ${BUILT_IN_FAMILIES.map((f) => f.id).join(", ")}`;
-  return { file, settings: { ...settings, familyId: family }, format };
+  const ids = BUILT_IN_FAMILIES.map((f) => f.id).join(", ");
+  if (family === undefined) return `--family is missing; the families are: ${ids}`;
+  const fam = BUILT_IN_FAMILIES.find((f) => f.id === family);
+  if (!fam) return `unknown family "${family}"; the families are: ${ids}`;
+  return { file, family: fam, settings, format };
 }
 
 export async function run(args: string[], io: CliIO): Promise<number> {
@@ -69,20 +73,16 @@ export async function run(args: string[], io: CliIO): Promise<number> {
     return 2;
   }
   const source = io.readSource(parsed.file);
-  const r = compileDesign(source, parsed.settings, { exports: [parsed.format], unitName: unitFromFile(parsed.file) });
-  if (r.error?.code === "language") {
+  const r = compileNow({ source, family: parsed.family, settings: parsed.settings, exports: [parsed.format], unitName: unitFromFile(parsed.file) });
+  if (!r.spec) {
     io.out(JSON.stringify({ ok: false, diagnostics: r.diagnostics }, null, 2));
     return 1;
   }
-  if (r.error?.code === "family") {
-    io.err(r.error.message);
-    return 2;
-  }
-  if (r.error) {
+  if (!r.result) {
     io.out(JSON.stringify({ error: r.error }, null, 2));
     return 1;
   }
-  io.out(r.exports![parsed.format]!);
+  io.out(r.result.exports[parsed.format]!);
   return 0;
 }
 

@@ -1,0 +1,126 @@
+/**
+ * The compile answer's shape as a zod schema: the route registry describes it
+ * in OpenAPI, and the workbench takes its types from it (z.infer), so there is
+ * no hand-written copy to drift. The pipeline's own types must fit it: a
+ * change there that the schema does not follow fails the type check below.
+ */
+import { z } from "zod";
+import type { resultBody } from "./compile";
+
+const GateType = z.enum(["AND", "OR", "NAND", "NOR", "XOR", "XNOR", "NOT", "BUF"]);
+const Cube = z.object({ value: z.number(), mask: z.number() });
+
+export const Diagnostic = z.object({
+  severity: z.enum(["error", "warning"]),
+  message: z.string(),
+  line: z.number(),
+  column: z.number(),
+  endLine: z.number(),
+  endColumn: z.number(),
+});
+
+const Covers = z.object({
+  inputs: z.array(z.string()),
+  outputs: z.array(z.object({
+    name: z.string(),
+    form: z.enum(["sop", "pos"]),
+    cubes: z.array(Cube),
+    expression: z.string(),
+    products: z.number(),
+    literals: z.number(),
+    exact: z.boolean(),
+    lowerBound: z.number(),
+  })),
+  shared: z.number(),
+  exact: z.boolean(),
+  ms: z.number(),
+  cost: z.number(),
+  lowerBound: z.number(),
+  primes: z.number(),
+  route: z.enum(["exact", "heuristic"]),
+});
+
+const NetlistDocument = z.object({
+  inputs: z.array(z.string()),
+  complementedInputs: z.array(z.object({ input: z.string(), net: z.string() })).optional(),
+  outputs: z.array(z.object({ name: z.string(), net: z.string() })),
+  gates: z.array(z.object({ id: z.string(), type: GateType, inputs: z.array(z.string()), output: z.string() })),
+  stats: z.object({
+    gates: z.number(),
+    byType: z.partialRecord(GateType, z.number()),
+    packages: z.number().nullable(),
+    transistors: z.number().nullable(),
+    depth: z.number(),
+    criticalPathNs: z.number().nullable(),
+    staticMw: z.number().nullable(),
+    dynamicMw: z.number().nullable(),
+    maxLoad: z.number(),
+  }),
+  warnings: z.array(z.string()),
+  caution: z.string(),
+});
+
+const Estimate = z.object({ value: z.number().nullable(), unit: z.string(), formula: z.string(), caution: z.string(), note: z.string().optional() });
+
+const Analysis = z.object({
+  gates: z.number(),
+  byType: z.partialRecord(GateType, z.number()),
+  byTypeWidth: z.array(z.object({ type: GateType, width: z.number(), count: z.number(), perPackage: z.number().nullable(), packages: z.number().nullable() })),
+  packages: z.number().nullable(),
+  packagesNote: z.string().optional(),
+  transistors: z.number().nullable(),
+  transistorsNote: z.string().optional(),
+  depth: z.number(),
+  criticalPath: z.object({ nets: z.array(z.string()), gates: z.array(z.string()), levels: z.number(), delay: Estimate }),
+  staticPower: Estimate,
+  dynamicPower: Estimate,
+  loads: z.array(z.object({ net: z.string(), load: z.number(), limit: z.number(), status: z.enum(["ok", "at-limit", "over"]), driver: z.string() })),
+  maxLoad: z.number(),
+  warnings: z.array(z.string()),
+  caution: z.string(),
+});
+
+export const RevisionStats = z.object({
+  inputs: z.number(),
+  outputs: z.number(),
+  products: z.number(),
+  literals: z.number(),
+  shared: z.number(),
+  exact: z.boolean(),
+  cost: z.number(),
+  lowerBound: z.number(),
+  gates: z.number(),
+  depth: z.number(),
+  delayNs: z.number().nullable(),
+  packages: z.number().nullable(),
+  transistors: z.number().nullable(),
+  staticMw: z.number().nullable(),
+  dynamicMw: z.number().nullable(),
+  maxLoad: z.number(),
+  verified: z.boolean(),
+});
+
+export const CompileResultBody = z.object({
+  covers: Covers,
+  netlist: NetlistDocument,
+  analysis: Analysis,
+  verification: z.object({ ok: z.boolean(), method: z.enum(["exhaustive", "sat"]) }).nullable(),
+  warnings: z.array(z.string()),
+  stats: RevisionStats,
+});
+
+export const CompileResponse = z.object({
+  diagnostics: z.array(Diagnostic),
+  /** null when the source has errors (see diagnostics). */
+  result: CompileResultBody.nullable(),
+  family: z.object({ id: z.string(), key: z.string(), name: z.string() }),
+  /** The result came from an earlier identical compile in this workspace. */
+  cached: z.boolean(),
+});
+
+export type CompileResponse = z.infer<typeof CompileResponse>;
+export type CompileResultBody = z.infer<typeof CompileResultBody>;
+
+// The pipeline's result must fit the schema: this line fails the type check when they drift apart.
+type Fits<A extends B, B> = A;
+export type _ResultFitsSchema = Fits<ReturnType<typeof resultBody>, z.input<typeof CompileResultBody>>;
