@@ -1,7 +1,7 @@
 /** @type {import('next').NextConfig} */
 const nextConfig = {
   // Sequelize loads its dialect at run time; bundling it breaks the server build.
-  serverExternalPackages: ["sequelize", "pg", "pg-hstore", "logic-solver", "highs", "elkjs", "nodemailer"],
+  serverExternalPackages: ["sequelize", "pg", "pg-hstore", "logic-solver", "highs", "elkjs", "nodemailer", "piscina", "pg-boss"],
   poweredByHeader: false,
   reactStrictMode: true,
   typedRoutes: false,

@@ -6,14 +6,15 @@
 /** @param {{ context: import("sequelize").QueryInterface }} p */
 export async function up({ context: qi }) {
   const { DataTypes: T } = await import("sequelize");
+  const now = qi.sequelize.literal("now()");
   await qi.sequelize.transaction(async (transaction) => {
     await qi.createTable("compile_results", {
       key: { type: T.STRING(64), primaryKey: true },
       scope: { type: T.STRING(80), allowNull: false },
       result: { type: T.JSONB, allowNull: false },
       bytes: { type: T.INTEGER, allowNull: false },
-      created_at: { type: T.DATE, allowNull: false, defaultValue: T.NOW },
-      used_at: { type: T.DATE, allowNull: false, defaultValue: T.NOW },
+      created_at: { type: T.DATE, allowNull: false, defaultValue: now },
+      used_at: { type: T.DATE, allowNull: false, defaultValue: now },
     }, { transaction });
     await qi.addIndex("compile_results", ["used_at"], { transaction });
   });

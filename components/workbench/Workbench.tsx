@@ -16,6 +16,7 @@ import { FiguresPanel } from "./FiguresPanel";
 import { NotesPanel } from "./NotesPanel";
 import { RevisionsPanel } from "./RevisionsPanel";
 import { SchematicPanel } from "@/components/schematic/SchematicPanel";
+import { JobPanel } from "./JobPanel";
 
 const EquationEditor = dynamic(() => import("@/components/editor/EquationEditor"), {
   ssr: false,
@@ -102,11 +103,28 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
   });
 
   const compile = useCompile(ws, source, familyId, settings);
-  const shown: CompileResponse | null = compile.data;
+  // A compile run to the end as a job: its result stands for the text it was started from.
+  const [job, setJob] = useState<{ id: string; key: string; result: CompileResponse["result"] } | null>(null);
+  const [jobError, setJobError] = useState<string | null>(null);
+  const textKey = JSON.stringify([source, familyId, settings]);
+  const jobResult = job && job.key === textKey ? job.result : null;
+  const runToEnd = useCallback(async () => {
+    if (source === null || !familyId) return;
+    setJobError(null);
+    try {
+      const r = await api<{ job: { id: string } }>(`/api/v1/workspaces/${ws}/jobs`, {
+        method: "POST", json: { source, familyId, settings, designId },
+      });
+      setJob({ id: r.job.id, key: JSON.stringify([source, familyId, settings]), result: null });
+    } catch (e) {
+      setJobError(e instanceof ApiError ? e.message : String(e));
+    }
+  }, [ws, source, familyId, settings, designId]);
+  const shown: CompileResponse | null = jobResult && compile.data ? { ...compile.data, result: jobResult } : compile.data;
   const result = shown?.result ?? null;
   const diagnostics = shown?.diagnostics ?? [];
   const errors = diagnostics.filter((d) => d.severity === "error").length;
-  const phase = phaseOf(compile, errors);
+  const phase: Phase = jobResult ? { kind: "done", verified: jobResult.stats.verified } : phaseOf(compile, errors);
 
   const saveRevision = useCallback(async () => {
     if (!maySave || source === null || !familyId) return;
@@ -223,8 +241,12 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
         </section>
 
         <section className="flex flex-col gap-3" aria-label="Results">
-          {(phase.kind === "limit" || phase.kind === "failed" || phase.kind === "stopped") && (
-            <StopNotice phase={phase} onRetry={compile.retry} />
+          {job && job.key === textKey && (
+            <JobPanel ws={ws} jobId={job.id} onClose={() => setJob(null)}
+              onDone={(result) => setJob((j) => (j && j.id && !j.result ? { ...j, result } : j))} />
+          )}
+          {(phase.kind === "limit" || phase.kind === "failed" || phase.kind === "stopped") && !(job && job.key === textKey) && (
+            <StopNotice phase={phase} onRetry={compile.retry} onRunToEnd={runToEnd} runError={jobError} />
           )}
           <div className={`rounded border border-rule bg-sheet p-2 ${stale ? "opacity-60" : ""}`}>
             {result ? (
@@ -374,7 +396,12 @@ function ConflictBanner({ theirs, onKeepMine, onTakeTheirs }: {
   );
 }
 
-function StopNotice({ phase, onRetry }: { phase: Extract<Phase, { kind: "limit" | "failed" | "stopped" }>; onRetry: () => void }) {
+function StopNotice({ phase, onRetry, onRunToEnd, runError }: {
+  phase: Extract<Phase, { kind: "limit" | "failed" | "stopped" }>;
+  onRetry: () => void;
+  onRunToEnd: () => void;
+  runError: string | null;
+}) {
   return (
     <div className="rounded border border-amber/60 bg-amber/10 px-3 py-2 text-sm" data-testid="stop-notice">
       {phase.kind === "limit" ? (
@@ -388,7 +415,16 @@ function StopNotice({ phase, onRetry }: { phase: Extract<Phase, { kind: "limit" 
       ) : (
         <p>You stopped the compile; the results below are empty until it runs again.</p>
       )}
-      <button type="button" onClick={onRetry} className="mt-2 rounded border border-rule bg-paper px-2 py-0.5 text-xs hover:border-ink">Run again</button>
+      <div className="mt-2 flex gap-2">
+        <button type="button" onClick={onRetry} className="rounded border border-rule bg-paper px-2 py-0.5 text-xs hover:border-ink">Run again</button>
+        {phase.kind === "limit" && (
+          <button type="button" onClick={onRunToEnd} className="rounded bg-accent px-2 py-0.5 text-xs font-semibold text-paper"
+            title="A job worker runs the compile without the interactive time limit; you can follow it here, leave and come back.">
+            Run to the end in the background
+          </button>
+        )}
+      </div>
+      {runError && <p className="mt-1 text-vermilion">{runError}</p>}
     </div>
   );
 }

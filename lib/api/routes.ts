@@ -5,7 +5,7 @@
 import { z } from "zod";
 import { defineRoute } from "./registry";
 import { designSettingsSchema } from "../pipeline/settings";
-import { CompileResponse } from "./compile-schema";
+import { CompileResponse, CompileResultBody } from "./compile-schema";
 // Kept here rather than imported from models/, so this module stays free of Sequelize.
 const ROLES = ["owner", "designer", "reviewer", "viewer"] as const;
 
@@ -99,6 +99,20 @@ const Token = z.object({
   expiresAt: z.string(),
   lastUsedAt: z.string().nullable(),
   revokedAt: z.string().nullable(),
+});
+const Job = z.object({
+  id: z.string(),
+  status: z.enum(["queued", "running", "done", "failed", "cancelled"]),
+  stage: z.string().nullable().describe("minimize, map, analyse or export"),
+  cost: z.number().nullable().describe("cost of the best cover so far"),
+  lowerBound: z.number().nullable().describe("proven lower bound on the cost"),
+  error: z.object({ code: z.string(), message: z.string(), what: z.string().optional(), hint: z.string().optional() }).nullable(),
+  attempt: z.number().describe("workers that have taken it; above 1 when a worker stopped and another took over"),
+  designId: z.string().nullable(),
+  createdBy: Ref,
+  createdAt: z.string(),
+  finishedAt: z.string().nullable(),
+  result: CompileResultBody.nullable(),
 });
 const Accepted = z.object({ ok: z.literal(true), message: z.string() });
 
@@ -327,6 +341,29 @@ export const routes = {
     }).strict().refine((b) => b.familyId || b.familyKey, { message: "give familyId or familyKey", path: ["familyId"] }),
     response: CompileResponse,
     errors: [...R, 400, 404, 413, 415, 422],
+  }),
+  // ---- compile jobs (long runs) ------------------------------------------------------
+  createJob: defineRoute({
+    method: "POST", path: "/workspaces/{ws}/jobs", tag: "jobs", auth: "user",
+    summary: "Run a compile to the end as a background job (any member); answers at once with the job to follow",
+    params: WsParams,
+    body: z.object({ source: Source, familyId: Id, settings: CompileSettings.default({}), designId: Id.optional() }).strict(),
+    response: z.object({ job: Job }), status: 202, errors: [...WS, 413, 415, 422, 429],
+  }),
+  listJobs: defineRoute({
+    method: "GET", path: "/workspaces/{ws}/jobs", tag: "jobs", auth: "user", summary: "The workspace's latest compile jobs, newest first",
+    params: WsParams, query: z.object({ mine: z.enum(["0", "1"]).optional(), limit: z.coerce.number().int().min(1).max(100).optional() }),
+    response: z.object({ items: z.array(Job) }), errors: WS,
+  }),
+  getJob: defineRoute({
+    method: "GET", path: "/workspaces/{ws}/jobs/{jobId}", tag: "jobs", auth: "user",
+    summary: "One compile job: where it stands (stage, best cost, proven lower bound) and, once done, its result",
+    params: WsParams.extend({ jobId: Id }), response: z.object({ job: Job }), errors: WS,
+  }),
+  cancelJob: defineRoute({
+    method: "DELETE", path: "/workspaces/{ws}/jobs/{jobId}", tag: "jobs", auth: "user",
+    summary: "Stop a compile job (whoever filed it, or an owner)",
+    params: WsParams.extend({ jobId: Id }), response: z.object({ job: Job }), errors: WS,
   }),
   openapi: defineRoute({
     method: "GET", path: "/openapi.json", tag: "meta", auth: "none", summary: "This document",

@@ -27,9 +27,14 @@ function pipelineBuild(): string {
   return buildTag;
 }
 
-/** The cache key of a job in a scope ("ws:<id>" or "user:<id>"). Exports are not part of a cached result. */
+/**
+ * The cache key of a job in a scope ("ws:<id>" or "user:<id>"). Exports are
+ * not part of a cached result, and the time the minimizer was given is not
+ * part of the key: a result found with more time is as good or better, and a
+ * job's result (run to the end) replaces one found within the interactive budget.
+ */
 export function cacheKey(scope: string, job: StageJob): string {
-  const { exports: _e, unitName: _u, ...rest } = job;
+  const { exports: _e, unitName: _u, minimizeMs: _m, ...rest } = job;
   return createHash("sha256").update(JSON.stringify([pipelineBuild(), scope, rest])).digest("hex");
 }
 
@@ -41,13 +46,16 @@ export async function cachedResult(key: string): Promise<CompileResult | null> {
   return rows[0]?.result ?? null;
 }
 
+/** Keeps a result; an exact one already kept under the key is not replaced by a later (possibly heuristic) one. */
 export async function keepResult(key: string, scope: string, result: CompileResult): Promise<void> {
   const { exports: _e, ...kept } = result;
   const text = JSON.stringify({ ...kept, exports: {} });
   if (text.length > MAX_CACHED_BYTES) return;
   await db().sequelize.query(
     `INSERT INTO compile_results (key, scope, result, bytes, created_at, used_at) VALUES ($1, $2, $3::jsonb, $4, now(), now())
-     ON CONFLICT (key) DO UPDATE SET used_at = now()`,
+     ON CONFLICT (key) DO UPDATE SET used_at = now(),
+       result = CASE WHEN (compile_results.result->'covers'->>'exact')::boolean THEN compile_results.result ELSE EXCLUDED.result END,
+       bytes = CASE WHEN (compile_results.result->'covers'->>'exact')::boolean THEN compile_results.bytes ELSE EXCLUDED.bytes END`,
     { bind: [key, scope, text, text.length], type: QueryTypes.INSERT },
   );
   // Now and then, drop what has not been used for a month.

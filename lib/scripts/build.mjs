@@ -15,6 +15,7 @@ export const ENTRIES = {
   "pipeline-worker": "lib/runtime/pipeline-worker.ts",
   cli: "lib/cli/main.ts",
   seed: "lib/db/seed.ts",
+  "jobs-worker": "lib/runtime/jobs-worker.ts",
 
 };
 
@@ -88,6 +89,7 @@ export async function ensureBuilt() {
 }
 
 if (import.meta.url === pathToFileURL(process.argv[1] ?? "").href) {
+  if (process.argv.includes("--if-stale") && upToDate(Object.keys(ENTRIES))) process.exit(0);
   await build();
   process.stdout.write(`[fanbound] built ${Object.keys(ENTRIES).map((n) => `.build/${n}.mjs`).join(", ")}\n`);
 }

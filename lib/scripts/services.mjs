@@ -233,6 +233,16 @@ export async function ensureDaemon(name, args, { port, env = {} }) {
   fail(`${name} did not open port ${port}; see .data/${name}.log`);
 }
 
+/** Starts a detached process that opens no port (a job worker), with its pid in .data/NAME.pid, unless it already runs. */
+export function ensureProcess(name, args, env = {}) {
+  if (readPid(name)) return;
+  mkdirSync(dataDir, { recursive: true });
+  const out = openSync(path.join(dataDir, `${name}.log`), "a");
+  const child = spawn(process.execPath, args, { cwd: root, detached: true, stdio: ["ignore", out, out], env: { ...process.env, ...env } });
+  child.unref();
+  writeFileSync(pidFile(name), String(child.pid));
+}
+
 export function stopDaemon(name) {
   const pid = readPid(name);
   if (!pid) return false;

@@ -5,7 +5,7 @@ import { writeFileSync, rmSync } from "node:fs";
 import path from "node:path";
 import {
   root, dataDir, profiles, log, fail, run, ensureDependencies, ensurePostgres, ensureDatabase,
-  ensureMailCatcher, appEnv, portFree, readPid,
+  ensureMailCatcher, appEnv, portFree, readPid, ensureProcess, stopDaemon,
 } from "./services.mjs";
 
 const profile = profiles.dev;
@@ -25,6 +25,10 @@ if (!(await portFree(profile.webPort))) {
 log("building the app (next build)");
 run(process.execPath, ["node_modules/next/dist/bin/next", "build"], { env: { ...env, NEXT_TELEMETRY_DISABLED: "1" } });
 
+// One job worker beside the server, for compiles run to the end (more: `npm run worker`, on any machine).
+stopDaemon("jobs-worker");
+ensureProcess("jobs-worker", [".build/jobs-worker.mjs"], env);
+
 const server = spawn(
   process.execPath,
   ["node_modules/next/dist/bin/next", "start", "-H", "127.0.0.1", "-p", String(profile.webPort)],
@@ -38,8 +42,12 @@ log(`Fanbound is served at http://127.0.0.1:${profile.webPort}`);
 log(`demo sign-ins (password ${DEMO_PASSWORD}):`);
 for (const [role, email] of DEMO_ACCOUNTS) log(`  ${role.padEnd(9)} ${email}`);
 log(`captured mail: http://127.0.0.1:${profile.webPort}/dev/mail`);
-log("stop with Ctrl+C, or `npm run stop` to stop the database and mail catcher too");
-const stop = () => server.kill("SIGTERM");
+log("one job worker runs beside it (.data/jobs-worker.log); start more with `npm run worker`");
+log("stop with Ctrl+C, or `npm run stop` to stop the database, the mail catcher and the job worker too");
+const stop = () => {
+  server.kill("SIGTERM");
+  stopDaemon("jobs-worker");
+};
 process.on("SIGINT", stop);
 process.on("SIGTERM", stop);
 server.on("exit", (code) => {

@@ -3,6 +3,8 @@ import { stopDaemon, stopPostgres, profiles, log } from "./services.mjs";
 
 stopDaemon("web");
 stopDaemon("web-test");
+stopDaemon("jobs-worker");
+stopDaemon("jobs-worker-test");
 for (const p of Object.values(profiles)) stopDaemon(`mail-${p.smtpPort}`);
 stopPostgres();
 log("stopped");

@@ -1,0 +1,104 @@
+/**
+ * Compiles run to the end as jobs on PostgreSQL: worker processes take them,
+ * report progress and store the result; a job whose worker is killed is taken
+ * up by another; a cancelled job stops; a job whose exact result is kept is
+ * done at once. The workers here are real processes of the built worker.
+ */
+import { spawn, type ChildProcess } from "node:child_process";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import * as jobsRoute from "@/app/api/v1/workspaces/[ws]/jobs/route";
+import * as jobRoute from "@/app/api/v1/workspaces/[ws]/jobs/[jobId]/route";
+import { limiters } from "@/lib/api/rate-limit";
+import { compileNow } from "@/lib/pipeline";
+import { BUILT_IN_FAMILIES } from "@/lib/families";
+import { paritySource } from "@/lib/bench/sources";
+import { builtinFamily, call, makeUser, makeWorkspace, tag, type TestUser } from "./helpers";
+
+const workers: ChildProcess[] = [];
+function startWorker(): ChildProcess {
+  const w = spawn(process.execPath, [".build/jobs-worker.mjs"], { env: process.env, stdio: ["ignore", "ignore", "inherit"] });
+  workers.push(w);
+  return w;
+}
+
+let owner: TestUser;
+let ws: { id: string; slug: string };
+let familyId: string;
+
+beforeAll(async () => {
+  owner = await makeUser("jobs");
+  ws = await makeWorkspace("jobs", owner);
+  familyId = (await builtinFamily("ttl-std-5v")).id;
+  for (const l of Object.values(limiters)) l.reset();
+});
+
+afterAll(() => {
+  for (const w of workers) w.kill("SIGKILL");
+});
+
+const file = (source: string, settings: Record<string, unknown> = {}) =>
+  call(jobsRoute.POST, "POST", "/jobs", { token: owner.token, params: { ws: ws.slug }, body: { source, familyId, settings } });
+const read = (id: string) => call(jobRoute.GET, "GET", "/job", { token: owner.token, params: { ws: ws.slug, jobId: id } });
+
+async function until(id: string, ok: (job: Record<string, unknown>) => boolean, seconds = 120) {
+  for (let i = 0; i < seconds * 5; i++) {
+    const j = (await read(id)).json.job as Record<string, unknown>;
+    if (ok(j)) return j;
+    await new Promise((r) => setTimeout(r, 200));
+  }
+  throw new Error(`job ${id} did not reach the state in ${seconds} s`);
+}
+
+describe("compile jobs", () => {
+  it("are taken by a worker, which stores the same result the pipeline gives in-thread", async () => {
+    startWorker();
+    // Two-of-three vote under a fresh name, so no earlier run has kept its result.
+    const out = `vote_${tag()}`;
+    const text = `inputs a, b, c\noutputs ${out}\n${out} = a * b + a * c + b * c\n`;
+    const r = await file(text);
+    expect(r.status).toBe(202);
+    const done = await until(r.json.job.id, (j) => j.status === "done");
+    const want = compileNow({ source: text, family: BUILT_IN_FAMILIES.find((f) => f.id === "ttl-std-5v")! }).result!;
+    expect((done.result as { stats: unknown }).stats).toEqual(want.stats);
+    expect((done.result as { netlist: { gates: unknown[] } }).netlist.gates).toEqual(want.document.gates);
+    expect(done.cost).toBe(want.covers.cost);
+    // The same compile again: its exact result is kept, so the job is done without a worker.
+    const again = await file(text);
+    expect(again.json.job.status).toBe("done");
+    expect(again.json.job.result.stats).toEqual(want.stats);
+  });
+
+  it("is taken up by another worker when the one running it is killed", async () => {
+    const a = startWorker();
+    // 12-input parity: 2,048 products to map and prove — seconds of work (common practice, no source).
+    const r = await file(`${paritySource(12)}// ${tag()}\n`, { heuristic: true, fanOut: 9 });
+    const running = await until(r.json.job.id, (j) => j.status === "running" || j.status === "done");
+    if (running.status === "running") {
+      a.kill("SIGKILL");
+      for (const w of workers) if (w !== a) w.kill("SIGKILL");
+      startWorker();
+      const done = await until(r.json.job.id, (j) => j.status === "done" || j.status === "failed", 240);
+      expect(done.status).toBe("done");
+      expect(done.attempt).toBe(2);
+      expect((done.result as { stats: { verified: boolean } }).stats.verified).toBe(true);
+    } else {
+      throw new Error("the job finished before the worker could be killed; give it more work");
+    }
+  });
+
+  it("stops when cancelled", async () => {
+    startWorker();
+    const r = await file(`${paritySource(13)}// ${tag()}\n`, { heuristic: true, fanOut: 8 });
+    await until(r.json.job.id, (j) => j.status !== "queued");
+    const c = await call(jobRoute.DELETE, "DELETE", "/job", { token: owner.token, params: { ws: ws.slug, jobId: r.json.job.id } });
+    expect(c.status).toBe(200);
+    const end = await until(r.json.job.id, (j) => j.status !== "running" && j.status !== "queued", 60);
+    expect(end.status).toBe("cancelled");
+  });
+
+  it("refuses a source with errors with its diagnostics, filing nothing", async () => {
+    const r = await file("inputs a\noutputs f\nf = b\n");
+    expect(r.status).toBe(422);
+    expect(r.json.error.details.diagnostics.length).toBeGreaterThan(0);
+  });
+});
