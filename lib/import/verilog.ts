@@ -323,7 +323,9 @@ class Parser {
     if (this.is("~")) {
       this.next();
       if (++this.depth > MAX_NESTING) this.refuse(t, `more than ${MAX_NESTING} NOT signs or parentheses nest here (the language's limit); simplify the expression or split it with a wire`);
-      const operand = this.unary();
+      // IEEE 1364-2005 A.8.3: a unary operator takes a primary, so ~~a is not Verilog; ~(~a) is.
+      if (this.is("~")) this.refuse(this.peek(), "two ~ in a row are not Verilog (a unary operator takes a primary); write ~(~x)");
+      const operand = this.primary();
       this.depth--;
       return not(operand);
     }
