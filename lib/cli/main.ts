@@ -31,7 +31,7 @@ const io: CliIO = {
 
 async function main(argv: string[]): Promise<number> {
   const [name, ...args] = argv;
-  const commands = ["check", "table", "minimize", "map", "families"].filter((c) =>
+  const commands = ["check", "table", "minimize", "map", "families", "import"].filter((c) =>
     existsSync(path.join(here, "commands", `${c}.ts`)),
   );
   if (!name || name === "help" || name === "--help") {
