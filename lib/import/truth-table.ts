@@ -96,6 +96,7 @@ export function importTruthTable(text: string, options: TruthTableOptions = {}):
   const records: Array<{ cells: string[]; start: number; end: number; quoteError: number | null }> = [];
   let previous = 0;
   let tooMany = false;
+  let filled = 0;
   Papa.parse<string[]>(body, {
     delimiter,
     newline: "\n",
@@ -105,7 +106,8 @@ export function importTruthTable(text: string, options: TruthTableOptions = {}):
       const quote = results.errors.find((e) => e.type === "Quotes");
       records.push({ cells: results.data, start: previous, end, quoteError: quote ? (quote.index ?? previous) : null });
       previous = end;
-      if (records.length > TABLE_MAX_ROWS + 1 + 1000) {
+      if (!results.data.every((c) => c.trim() === "")) filled++;
+      if (filled > TABLE_MAX_ROWS + 1) {
         tooMany = true;
         parser.abort();
       }

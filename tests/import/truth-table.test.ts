@@ -176,6 +176,10 @@ describe("truth table refusals: each names the row, the column and what to chang
     const d = onlyError("a,y\n" + "0,0\n".repeat(IMPORT_MAX_CHARS / 4 + 1));
     expect(d.message).toMatch(/^the table is 4,194,3\d\d characters long; the limit is 4,194,304 \(IMPORT_MAX_CHARS\)/);
   });
+  it("more rows than TABLE_MAX_ROWS", () => {
+    const d = onlyError("a,y\n" + "0,0\n".repeat(65_537));
+    expect(d.message).toBe("the table has more than 65,536 rows (TABLE_MAX_ROWS); merge rows with - where an input does not matter, or split the table");
+  });
   it("two rows for the same combination with different outputs", () => {
     const d = onlyError("a,b,y\n0,1,1\n1,1,0\n0,1,0\n");
     expect(d).toMatchObject({ row: 4, col: 3, colName: "y", line: 4, column: 5 });
