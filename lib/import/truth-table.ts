@@ -267,15 +267,15 @@ export function importTruthTable(text: string, options: TruthTableOptions = {}):
     }
     if (ok) rows.push({ row: rowNo, cube: { value: value >>> 0, mask: mask >>> 0 }, vals, at });
   }
-  if (hasImportErrors(diags)) return refused(diags);
-  if (rows.length === 0) {
+  // Rows with bad cells are left out of the overlap check, which still runs, so every problem shows at once.
+  if (rows.length === 0 && !hasImportErrors(diags)) {
     return refused([{ severity: "error", message: "the table has a header but no rows; add one row per input combination under it", ...headerLoc }]);
   }
 
   // ---- rows that contradict each other ------------------------------------------------
-  const overlap = findContradictions(rows, n);
+  const overlap = rows.length ? findContradictions(rows, n) : [];
   if (overlap === "budget") {
-    return refused([{
+    return refused([...diags, {
       severity: "error",
       message: "the rows overlap in too many ways to check them for contradictions in reasonable time; write fewer rows with - on the inputs, or give the combinations one row each",
       ...headerLoc,

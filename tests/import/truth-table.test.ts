@@ -199,6 +199,13 @@ describe("truth table refusals: each names the row, the column and what to chang
     expect(onlyError("").message).toBe("the table is empty: the first row must name the columns, inputs first, then the outputs");
     expect(onlyError("a,y\n").message).toBe("the table has a header but no rows; add one row per input combination under it");
   });
+  it("checks the good rows for contradictions even when other rows have bad cells", () => {
+    const r = importTruthTable("g,e,y\n0,1,1\n-,1,0\n1,0,x\n");
+    expect(r.diagnostics.map((d) => [d.row, d.colName, d.message.slice(0, 30)])).toEqual([
+      [3, "y", "rows 2 and 3 contradict each o"],
+      [4, "y", 'row 4, column y: the cell hold'],
+    ]);
+  });
   it("lists every problem at once and imports nothing", () => {
     const r = importTruthTable("a,b,y\n0,2,1\n1,1\n1,0,q\n");
     expect(r.source).toBeNull();
