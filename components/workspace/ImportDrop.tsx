@@ -13,7 +13,6 @@ import { api, ApiError } from "@/lib/client/fetcher";
 import { can } from "@/lib/auth/permissions";
 import type { FamilyItem, WorkspaceInfo } from "@/lib/client/types";
 import type { ImportDiagnostic } from "@/lib/import/diagnostics";
-import { useDebounced } from "@/components/workbench/useCompile";
 
 type Kind = "csv" | "verilog";
 interface Preview {
@@ -104,33 +103,41 @@ function ImportPanel({ ws, draft, onChange, onClose }: { ws: string; draft: Draf
   const [createError, setCreateError] = useState<{ message: string; diagnostics: ImportDiagnostic[] } | null>(null);
   const [busy, setBusy] = useState(false);
   const asked = useMemo(() => ({ text: draft.text, kind: draft.kind, outputs: draft.outputs, fileName: draft.fileName }), [draft.text, draft.kind, draft.outputs, draft.fileName]);
-  const request = useDebounced(asked, 300);
+  // The preview answers this request; a newer one makes it stale until its own answer comes.
+  const [answered, setAnswered] = useState<typeof asked | null>(null);
 
   useEffect(() => {
     if (!familyId && families?.items[0]) setFamilyId(families.items[0].id);
   }, [families, familyId]);
 
+  // Ask the server a moment after the text stops changing; a newer request cancels the older one.
   useEffect(() => {
-    if (!request.text.trim()) {
+    if (!asked.text.trim()) {
       setPreview(null);
+      setAnswered(asked);
       return;
     }
     const c = new AbortController();
-    api<Preview>("/api/v1/import", {
-      method: "POST",
-      json: {
-        kind: request.kind,
-        text: request.text,
-        ...(request.kind === "csv" && request.outputs.length ? { outputs: request.outputs } : {}),
-        ...(request.fileName ? { fileName: request.fileName } : {}),
-      },
-      signal: c.signal,
-    }).then(
-      (p) => { setPreview(p); setPreviewError(null); },
-      (e) => { if (!c.signal.aborted) setPreviewError(e instanceof ApiError ? e.message : String(e)); },
-    );
-    return () => c.abort();
-  }, [request]);
+    const timer = setTimeout(() => {
+      api<Preview>("/api/v1/import", {
+        method: "POST",
+        json: {
+          kind: asked.kind,
+          text: asked.text,
+          ...(asked.kind === "csv" && asked.outputs.length ? { outputs: asked.outputs } : {}),
+          ...(asked.fileName ? { fileName: asked.fileName } : {}),
+        },
+        signal: c.signal,
+      }).then(
+        (p) => { setPreview(p); setPreviewError(null); setAnswered(asked); },
+        (e) => { if (!c.signal.aborted) setPreviewError(e instanceof ApiError ? e.message : String(e)); },
+      );
+    }, 300);
+    return () => {
+      clearTimeout(timer);
+      c.abort();
+    };
+  }, [asked]);
 
   const columns = useMemo(() => (draft.kind === "csv" ? headerNames(draft.text) : []), [draft.kind, draft.text]);
   const outputsShown = draft.outputs.length ? draft.outputs : columns.slice(-1);
@@ -139,7 +146,7 @@ function ImportPanel({ ws, draft, onChange, onClose }: { ws: string; draft: Draf
     onChange({ ...draft, outputs: columns.filter((c) => next.includes(c)) });
   };
 
-  const stale = request.text !== draft.text || request.kind !== draft.kind || request.outputs !== draft.outputs;
+  const stale = answered !== asked;
   const ready = !!preview?.source && !stale && draft.name.trim() !== "" && familyId !== "";
 
   async function create() {
