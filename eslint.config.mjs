@@ -4,7 +4,7 @@ import reactHooks from "eslint-plugin-react-hooks";
 
 // The pipeline stages are pure: data in, data out. These folders may not reach
 // the web framework, the database or the process environment.
-const pureCore = ["lib/logic/**", "lib/lang/**", "lib/minimize/**", "lib/verify/**", "lib/families/**",
+const pureCore = ["lib/logic/**", "lib/lang/**", "lib/import/**", "lib/minimize/**", "lib/verify/**", "lib/families/**",
   "lib/map/**", "lib/analysis/**", "lib/export/**", "lib/pipeline/**"];
 
 export default tseslint.config(

@@ -17,13 +17,14 @@ import { NotesPanel } from "./NotesPanel";
 import { RevisionsPanel } from "./RevisionsPanel";
 import { SchematicPanel } from "@/components/schematic/SchematicPanel";
 import { JobPanel } from "./JobPanel";
+import { TruthTableView } from "./TruthTableView";
 
 const EquationEditor = dynamic(() => import("@/components/editor/EquationEditor"), {
   ssr: false,
   loading: () => <div className="h-full animate-pulse rounded border border-rule bg-sheet" />,
 });
 
-type Tab = "minimized" | "gates" | "figures" | "notes";
+type Tab = "minimized" | "gates" | "figures" | "notes" | "table";
 
 /** A short start in the Ferrow scenario, offered on an empty draft. */
 export const STARTER_SOURCE = `// Paddle permit of a lock chamber: replace these conditions with your own.
@@ -264,6 +265,7 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
                 ["minimized", "Minimized"],
                 ["gates", `Gates${result ? ` (${result.netlist.gates.length})` : ""}`],
                 ["figures", "Figures"],
+                ["table", "Truth table"],
                 ["notes", `Notes${diagnostics.length + (result?.warnings.length ?? 0) ? ` (${diagnostics.length + (result?.warnings.length ?? 0)})` : ""}`],
               ] as Array<[Tab, string]>).map(([t, label]) => (
                 <button key={t} role="tab" type="button" aria-selected={tab === t} onClick={() => setTab(t)}
@@ -273,7 +275,9 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
               ))}
             </div>
             <div className={`p-3 ${tab === "gates" && result ? "" : "max-h-[30rem] overflow-auto"}`}>
-              {tab === "notes" ? (
+              {tab === "table" ? (
+                <TruthTableView source={source ?? ""} name={design?.name} />
+              ) : tab === "notes" ? (
                 <NotesPanel diagnostics={diagnostics} warnings={result?.warnings ?? []} analysis={result?.analysis ?? null}
                   stop={phase.kind === "limit" || phase.kind === "failed" || phase.kind === "stopped" ? noResultText(phase) : null} />
               ) : !result ? (

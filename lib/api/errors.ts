@@ -13,6 +13,7 @@ export const ERROR_STATUS = {
   unsupported_media_type: 415,
   compile_errors: 422,
   compile_limit: 422,
+  import_refused: 422,
   rate_limited: 429,
   internal: 500,
 } as const;

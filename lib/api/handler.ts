@@ -64,7 +64,7 @@ export function handle<S extends RouteSpec<z.ZodType | undefined, z.ZodType | un
       const params = parse(spec.params, rawParams, "path");
       const url = new URL(req.url);
       const query = parse(spec.query, Object.fromEntries(url.searchParams), "query");
-      const body = spec.body ? parse(spec.body, await readJsonBody(req), "body") : undefined;
+      const body = spec.body ? parse(spec.body, await readJsonBody(req, spec.maxBodyBytes), "body") : undefined;
       const result = await impl({ req, actor, params, query, body } as RouteContext<S>);
       if (result instanceof Response) return result;
       return json(result, spec.status ?? 200);

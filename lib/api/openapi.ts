@@ -14,7 +14,7 @@ const STATUS_TEXT: Record<number, string> = {
   409: "Conflicts with the current state",
   413: "Body over 256 KiB",
   415: "Body is not JSON",
-  422: "The source has errors, or a compile limit was reached (details name it)",
+  422: "The source has errors, a compile limit was reached, or an import was refused (details name it)",
   429: "Too many requests; see Retry-After",
 };
 

@@ -29,6 +29,8 @@ export interface RouteSpec<
   status?: number;
   /** Content type of a non-JSON success response. */
   produces?: string;
+  /** Largest request body, in bytes; default MAX_BODY_BYTES (256 KiB). */
+  maxBodyBytes?: number;
   /** Statuses this route may answer besides the success status. */
   errors: number[];
 }

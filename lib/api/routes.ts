@@ -5,7 +5,8 @@
 import { z } from "zod";
 import { defineRoute } from "./registry";
 import { designSettingsSchema } from "../pipeline/settings";
-import { CompileResponse, CompileResultBody } from "./compile-schema";
+import { CompileResponse, CompileResultBody, Diagnostic } from "./compile-schema";
+import { IMPORT_MAX_CHARS } from "../import/truth-table";
 // Kept here rather than imported from models/, so this module stays free of Sequelize.
 const ROLES = ["owner", "designer", "reviewer", "viewer"] as const;
 
@@ -25,6 +26,24 @@ const Source = z.string().max(200_000);
 const Ref = z.object({ id: z.string(), name: z.string() });
 const FamilyRef = z.object({ id: z.string(), key: z.string(), name: z.string() });
 const Page = { limit: z.coerce.number().int().min(1).max(200).optional(), cursor: z.string().max(64).optional() };
+
+/** A located import message; truth-table messages also name the row and the column. */
+const ImportDiagnostic = Diagnostic.extend({ row: z.number().optional(), col: z.number().optional(), colName: z.string().optional() });
+const ImportText = z.string().max(IMPORT_MAX_CHARS, `at most ${IMPORT_MAX_CHARS} characters (IMPORT_MAX_CHARS)`);
+const ImportRequest = {
+  kind: z.enum(["csv", "verilog"]).describe("csv: a truth table (comma, semicolon or tab separated); verilog: one module of continuous assigns"),
+  text: ImportText,
+  outputs: z.array(z.string().trim().min(1).max(120)).max(2000).optional().describe("truth tables only: the output columns; default the last column"),
+  fileName: z.string().max(200).optional().describe("where the text came from, for the comment at the top of the source"),
+};
+/** Bodies of import requests: the text JSON-escaped (tabs and line breaks double), plus room for the other fields. */
+export const IMPORT_BODY_BYTES = 2 * IMPORT_MAX_CHARS + 64 * 1024;
+const ImportOutcome = z.object({
+  source: z.string().nullable(),
+  inputs: z.array(z.string()),
+  outputs: z.array(z.string()),
+  diagnostics: z.array(ImportDiagnostic),
+});
 
 export const ErrorShape = z.object({
   error: z.object({ code: z.string(), message: z.string(), details: z.unknown() }),
@@ -271,6 +290,15 @@ export const routes = {
     }).strict(),
     response: z.object({ design: DesignDetail }), status: 201, errors: [...WS, 409, 413, 415],
   }),
+  importDesign: defineRoute({
+    method: "POST", path: "/workspaces/{ws}/designs/import", tag: "designs", auth: "user",
+    summary: "Create a design from a truth table (CSV) or a Verilog module (designer, owner); 422 import_refused with details.diagnostics when the text is refused, and nothing is created",
+    params: WsParams,
+    body: z.object({ ...ImportRequest, name: Name, description: z.string().max(4000).optional(), familyId: Id }).strict()
+      .refine((b) => b.kind === "csv" || !b.outputs, { message: "outputs are for truth tables; a Verilog module declares its own", path: ["outputs"] }),
+    response: z.object({ design: DesignDetail, diagnostics: z.array(ImportDiagnostic) }),
+    status: 201, maxBodyBytes: IMPORT_BODY_BYTES, errors: [...WS, 409, 413, 415, 422],
+  }),
   getDesign: defineRoute({
     method: "GET", path: "/workspaces/{ws}/designs/{designId}", tag: "designs", auth: "user", summary: "One design with its draft",
     params: DesignParams, response: z.object({ design: DesignDetail }), errors: WS,
@@ -326,6 +354,27 @@ export const routes = {
     summary: "The revision's netlist as a file: Verilog (IEEE 1364), VHDL (IEEE 1076), CSV or JSON",
     params: RevisionParams, query: z.object({ format: z.enum(["verilog", "vhdl", "csv", "json"]) }),
     produces: "text/plain", errors: [...WS, 422],
+  }),
+
+  revisionTable: defineRoute({
+    method: "GET", path: "/workspaces/{ws}/designs/{designId}/revisions/{number}/table", tag: "revisions", auth: "user",
+    summary: "The revision's truth table: format=csv, the whole table as a file (up to 16 inputs), in the layout the import reads; format=json, one page of rows (offset, limit up to 1024)",
+    params: RevisionParams,
+    query: z.object({
+      format: z.enum(["csv", "json"]).default("json"),
+      offset: z.coerce.number().int().min(0).optional(),
+      limit: z.coerce.number().int().min(1).max(1024).optional(),
+    }),
+    produces: "text/csv", errors: [...WS, 422],
+  }),
+
+  // ---- import --------------------------------------------------------------------
+  importPreview: defineRoute({
+    method: "POST", path: "/import", tag: "import", auth: "user",
+    summary: "Turn a truth table (CSV) or a Verilog module into a design source without saving anything: the source, or the located reasons it was refused",
+    body: z.object(ImportRequest).strict()
+      .refine((b) => b.kind === "csv" || !b.outputs, { message: "outputs are for truth tables; a Verilog module declares its own", path: ["outputs"] }),
+    response: ImportOutcome, maxBodyBytes: IMPORT_BODY_BYTES, errors: [...R, 400, 413, 415],
   }),
 
   // ---- compile -------------------------------------------------------------------

@@ -24,6 +24,7 @@ const COMMANDS: Record<string, () => Promise<Command>> = {
   minimize: () => import("./commands/minimize"),
   map: () => import("./commands/map"),
   families: () => import("./commands/families"),
+  import: () => import("./commands/import"),
 };
 
 const io: CliIO = {

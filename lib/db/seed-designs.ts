@@ -9,6 +9,7 @@ import { Op } from "sequelize";
 import type { initModels } from "../../models";
 import { BUILT_IN_FAMILIES } from "../families";
 import { compileNow, type DesignSettings } from "../pipeline";
+import { importDesign, type ImportKind } from "../import";
 
 type Models = ReturnType<typeof initModels>;
 type Settings = DesignSettings;
@@ -25,12 +26,22 @@ interface Step {
 interface DemoDesign {
   name: string;
   description: string;
+  /** An example source in lib/lang/examples, or a file brought in through the import (lib/import/examples). */
   file: string;
+  imported?: { kind: ImportKind; outputs?: string[] };
   steps: Step[];
 }
 
 // The seed runs from the project's root (npm start, npm test), as a bundle in .build/.
 const examples = path.join(process.cwd(), "lib/lang/examples");
+const importExamples = path.join(process.cwd(), "lib/import/examples");
+
+/** The design source the import makes of an example file; the seed stops if it is refused. */
+function importedSource(demo: DemoDesign): string {
+  const r = importDesign(demo.imported!.kind, readFileSync(path.join(importExamples, demo.file), "utf8"), { outputs: demo.imported!.outputs, name: demo.file });
+  if (r.source === null) throw new Error(`demo design "${demo.name}": ${demo.file} was refused: ${JSON.stringify(r.diagnostics)}`);
+  return r.source;
+}
 /** The example without its impossible-combination lines: how a first draft reads. */
 const withoutNever = (s: string) => s.split("\n").filter((l) => !/^\s*never\b/.test(l)).join("\n");
 
@@ -86,6 +97,25 @@ export const DEMO_DESIGNS: DemoDesign[] = [
       { message: "Valid drives the alarm board and the logger: fan-out 4 to be safe", author: "owner", family: "cmos-hc-5v", settings: { fanIn: 4, fanOut: 4 } },
     ],
   },
+  {
+    name: "Weir sluice alarm",
+    description: "Keeper's lamp and horn for the weir sluice, from the commissioning truth table",
+    file: "sluice-alarm.csv",
+    imported: { kind: "csv", outputs: ["alarm", "horn"] },
+    steps: [
+      { message: "Imported from the commissioning truth table sluice-alarm.csv (alarm and horn as outputs)", author: "designer", family: "ttl-ls-5v" },
+      { message: "Sluice panel moves to high-speed CMOS like the lock controller", author: "designer", family: "cmos-hc-5v" },
+    ],
+  },
+  {
+    name: "Weir horn (relay board)",
+    description: "The old relay board's horn and lamp logic, brought in from its Verilog model",
+    file: "weir-horn.v",
+    imported: { kind: "verilog" },
+    steps: [
+      { message: "Imported from the relay board's Verilog model weir-horn.v (module weir_horn)", author: "designer", family: "cmos-hct-5v" },
+    ],
+  },
 ];
 
 /** Creates each demo design that does not exist yet, with its revisions. */
@@ -101,7 +131,7 @@ export async function seedDemoDesigns(
   const day = 24 * 3600 * 1000;
   for (const [di, demo] of DEMO_DESIGNS.entries()) {
     if (await Design.findOne({ where: { workspaceId: workspace.id, name: demo.name } })) continue;
-    const full = readFileSync(path.join(examples, demo.file), "utf8");
+    const full = demo.imported ? importedSource(demo) : readFileSync(path.join(examples, demo.file), "utf8");
     const first = demo.steps[0]!;
     const design = await Design.create({
       workspaceId: workspace.id,

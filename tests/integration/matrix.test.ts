@@ -29,6 +29,9 @@ import * as revisions from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revi
 import * as revision from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/[number]/route";
 import * as exporter from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/[number]/export/route";
 import * as compile from "@/app/api/v1/compile/route";
+import * as importDesign from "@/app/api/v1/workspaces/[ws]/designs/import/route";
+import * as importPreview from "@/app/api/v1/import/route";
+import * as table from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/[number]/table/route";
 import * as openapi from "@/app/api/v1/openapi.json/route";
 import { SOURCE, addMember, builtinFamily, call, makeInvitation, makeUser, makeWorkspace, tag, type TestUser } from "./helpers";
 
@@ -222,6 +225,30 @@ const rows: Row[] = [
     expect: [401, 404, 200, 200, 200, 200],
   },
   {
+    name: "POST designs/import (a truth table)",
+    run: (_w, t) => call(importDesign.POST, "POST", "/d/import", {
+      token: t, params: wsp(), body: { kind: "csv", text: "a,b,y\n0,0,0\n0,1,1\n1,0,1\n1,1,0\n", name: `Imported ${tag()}`, familyId },
+    }),
+    expect: [401, 404, 403, 403, 201, 201],
+  },
+  {
+    name: "POST designs/import (a Verilog module)",
+    run: (_w, t) => call(importDesign.POST, "POST", "/d/import", {
+      token: t, params: wsp(), body: { kind: "verilog", text: "module m(input a, output y);\nassign y = ~a;\nendmodule\n", name: `Imported ${tag()}`, familyId },
+    }),
+    expect: [401, 404, 403, 403, 201, 201],
+  },
+  {
+    name: "GET revisions/{n}/table",
+    run: (_w, t) => call(table.GET, "GET", "/r", { token: t, params: { ...dp(), number: "1" }, query: { format: "csv" } }),
+    expect: [401, 404, 200, 200, 200, 200],
+  },
+  {
+    name: "POST /import (preview, nothing saved)",
+    run: (_w, t) => call(importPreview.POST, "POST", "/import", { token: t, body: { kind: "csv", text: "a,y\n0,1\n1,0\n" } }),
+    expect: [401, 200, 200, 200, 200, 200],
+  },
+  {
     name: "POST /compile (built-in family by key)",
     run: (_w, t) => call(compile.POST, "POST", "/compile", { token: t, body: { source: SOURCE, familyKey: "cmos-hc-5v" } }),
     expect: [401, 200, 200, 200, 200, 200],
@@ -266,6 +293,7 @@ describe("records of another workspace are invisible (404) and unchanged", () =>
       await call(revisions.POST, "POST", "/r", { token: t, params: { ...op, designId }, body: { message: "x", source: SOURCE, familyId, settings: {} } }),
       await call(revision.GET, "GET", "/r", { token: t, params: { ...op, designId, number: "1" } }),
       await call(exporter.GET, "GET", "/r", { token: t, params: { ...op, designId, number: "1" }, query: { format: "csv" } }),
+      await call(table.GET, "GET", "/r", { token: t, params: { ...op, designId, number: "1" }, query: { format: "csv" } }),
       await call(family.GET, "GET", "/f", { token: t, params: { ...op, familyId: ownFamilyId } }),
       await call(family.PATCH, "PATCH", "/f", { token: t, params: { ...op, familyId: ownFamilyId }, body: { name: "stolen" } }),
       await call(family.DELETE, "DELETE", "/f", { token: t, params: { ...op, familyId: ownFamilyId } }),

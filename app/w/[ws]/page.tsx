@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import { DesignTable } from "@/components/workspace/DesignTable";
 import { FamilyList } from "@/components/workspace/FamilyList";
+import { ImportDrop } from "@/components/workspace/ImportDrop";
 
 export const metadata: Metadata = { title: "Designs" };
 
@@ -8,7 +9,9 @@ export default async function WorkspaceHome({ params }: { params: Promise<{ ws: 
   const { ws } = await params;
   return (
     <main className="page-frame grid gap-8 py-6 xl:grid-cols-[1fr_22rem]">
-      <DesignTable ws={ws} />
+      <ImportDrop ws={ws}>
+        <DesignTable ws={ws} />
+      </ImportDrop>
       <aside>
         <FamilyList ws={ws} compact />
       </aside>

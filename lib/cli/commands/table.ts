@@ -1,17 +1,39 @@
 /**
- * `npm run -s cli -- table FILE` (FILE or - for standard input): prints
- * {"inputs", "outputs": [{"name", "on", "dc"}]} with minterm indices as JSON.
- * A source with errors prints the check JSON instead and exits 1. Tables stop
- * at TRUTH_TABLE_MAX_INPUTS (20) inputs.
+ * `npm run -s cli -- table FILE [--format json|csv]` (FILE or - for standard
+ * input). json (the default) prints {"inputs", "outputs": [{"name", "on",
+ * "dc"}]} with minterm indices; csv prints the full truth table (inputs then
+ * outputs, - for don't-care), the layout `import` reads back. A source with
+ * errors prints the check JSON instead and exits 1. JSON stops at
+ * TRUTH_TABLE_MAX_INPUTS (20) inputs, CSV at TABLE_CSV_MAX_INPUTS (16).
  */
 import type { CliIO } from "../main";
 import { compileSource } from "../../lang/index";
 import { tableFromCubes, tableMinterms, TRUTH_TABLE_MAX_INPUTS } from "../../logic/index";
+import { TABLE_CSV_MAX_INPUTS, truthTableCsv } from "../../import/index";
+
+const USAGE = "usage: npm run -s cli -- table FILE [--format json|csv]   (use - to read standard input)";
 
 export async function run(args: string[], io: CliIO): Promise<number> {
-  const file = args[0];
-  if (!file || args.length > 1) {
-    io.err("usage: npm run -s cli -- table FILE   (use - to read standard input)");
+  let file: string | undefined;
+  let format: "json" | "csv" = "json";
+  for (let i = 0; i < args.length; i++) {
+    const a = args[i]!;
+    if (a === "--format" || a.startsWith("--format=")) {
+      const v = a.includes("=") ? a.slice(a.indexOf("=") + 1) : args[++i];
+      if (v !== "json" && v !== "csv") {
+        io.err(`--format is json or csv\n${USAGE}`);
+        return 2;
+      }
+      format = v;
+    } else if (!file && (a === "-" || !a.startsWith("-"))) {
+      file = a;
+    } else {
+      io.err(USAGE);
+      return 2;
+    }
+  }
+  if (!file) {
+    io.err(USAGE);
     return 2;
   }
   const result = compileSource(io.readSource(file));
@@ -21,6 +43,14 @@ export async function run(args: string[], io: CliIO): Promise<number> {
   }
   const { inputs, outputs } = result.spec;
   const n = inputs.length;
+  if (format === "csv") {
+    if (n > TABLE_CSV_MAX_INPUTS) {
+      io.err(`CSV tables stop at ${TABLE_CSV_MAX_INPUTS} inputs (${2 ** TABLE_CSV_MAX_INPUTS} rows) and this design has ${n}; list the minterms with --format json, or the product terms with npm run -s cli -- minimize FILE`);
+      return 1;
+    }
+    io.out(truthTableCsv(result.spec));
+    return 0;
+  }
   if (n > TRUTH_TABLE_MAX_INPUTS) {
     io.err(
       `table output stops at ${TRUTH_TABLE_MAX_INPUTS} inputs and this design has ${n}; list the product terms with npm run -s cli -- minimize FILE instead`,
