@@ -71,6 +71,7 @@ if (step("next build", process.execPath, ["node_modules/next/dist/bin/next", "bu
     "node_modules/next/dist/bin/next", "start", "-H", "127.0.0.1", "-p", String(profile.webPort),
   ], { port: profile.webPort, env: { ...env, NODE_ENV: "production" } });
   mkdirSync(path.join(root, "test-results"), { recursive: true });
+  await clearRateLimits();
   vitest("browser tests (chromium)", "browser", { ...testEnv, FANBOUND_BASE_URL: `http://127.0.0.1:${profile.webPort}` });
   stopDaemon("web-test");
 }
@@ -95,4 +96,16 @@ async function recreateTestDatabase() {
     await client.end();
   }
   await ensureDatabase(profile.database);
+}
+
+/** The browser tests start with no rate-limit counters left over from the integration tests. */
+async function clearRateLimits() {
+  const { default: pg } = await import("pg");
+  const client = new pg.Client({ connectionString: env.DATABASE_URL });
+  await client.connect();
+  try {
+    await client.query("DELETE FROM rate_limits");
+  } finally {
+    await client.end();
+  }
 }
