@@ -41,6 +41,14 @@ export async function up({ context: qi }) {
       "ALTER TABLE compile_jobs ADD CONSTRAINT compile_jobs_status CHECK (status IN ('queued', 'running', 'done', 'failed', 'cancelled'))", o);
     await qi.addIndex("compile_jobs", ["workspace_id", "created_at"], o);
     await qi.addIndex("compile_jobs", ["status", "heartbeat_at"], o);
+    // The app role (lib/db/roles.mjs) uses the queue but may not change its schema.
+    await qi.sequelize.query(`DO $$ BEGIN
+      IF EXISTS (SELECT 1 FROM pg_roles WHERE rolname = 'fanbound_app') THEN
+        GRANT USAGE ON SCHEMA pgboss TO fanbound_app;
+        GRANT SELECT, INSERT, UPDATE, DELETE ON ALL TABLES IN SCHEMA pgboss TO fanbound_app;
+        GRANT EXECUTE ON ALL FUNCTIONS IN SCHEMA pgboss TO fanbound_app;
+      END IF;
+    END $$`, o);
   });
 }
 

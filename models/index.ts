@@ -21,6 +21,8 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare name: string;
   declare passwordHash: string | null;
   declare emailVerifiedAt: Date | null;
+  /** Raised to end every session: a session's JWT carries the version it was signed in with. */
+  declare sessionVersion: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -105,6 +107,7 @@ export function initModels(sequelize: Sequelize) {
       name: { type: DataTypes.STRING(120), allowNull: false },
       passwordHash: { type: DataTypes.STRING(200), allowNull: true },
       emailVerifiedAt: { type: DataTypes.DATE, allowNull: true },
+      sessionVersion: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
       createdAt: DataTypes.DATE,
       updatedAt: DataTypes.DATE,
     },
@@ -255,7 +258,7 @@ export function initModels(sequelize: Sequelize) {
 
 export class EmailToken extends Model<InferAttributes<EmailToken>, InferCreationAttributes<EmailToken>> {
   declare id: CreationOptional<string>;
-  declare purpose: "signin" | "reset";
+  declare purpose: "signin" | "reset" | "verify";
   declare email: string;
   declare tokenHash: string;
   declare expiresAt: Date;

@@ -32,6 +32,12 @@ export default async function InvitePage({ searchParams }: { searchParams: Promi
   const me = await getMe({ actor });
   return (
     <AuthCard title="Join a workspace" subtitle={`Signed in as ${me.user.email}.`}>
+      {!me.user.emailConfirmed && (
+        <p role="status" className="mt-6 rounded border border-amber/60 bg-amber/10 px-3 py-2 text-sm text-ink">
+          Confirm that {me.user.email} is yours first: open the link in the mail we sent it when you signed up, or sign
+          out and sign in with &ldquo;Link by e-mail&rdquo; to it. Then open this invitation again.
+        </p>
+      )}
       <AcceptInvitation token={token} />
     </AuthCard>
   );

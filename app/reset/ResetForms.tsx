@@ -4,10 +4,11 @@ import Link from "next/link";
 
 const input = "mt-1 block w-full rounded border border-rule bg-paper px-3 py-2 text-ink outline-none focus:border-accent";
 
-async function post(path: string, body: unknown): Promise<string | null> {
+async function post(path: string, body: unknown): Promise<{ error: string | null; answer: Record<string, unknown> | null }> {
   const res = await fetch(path, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
-  if (res.ok) return null;
-  return (await res.json().catch(() => null))?.error?.message ?? "That did not work; try again.";
+  const answer = await res.json().catch(() => null);
+  if (res.ok) return { error: null, answer };
+  return { error: answer?.error?.message ?? "That did not work; try again.", answer };
 }
 
 /** Without a token: ask for a reset mail. With one: choose the new password. */
@@ -27,13 +28,18 @@ export function ResetForms({ token }: { token: string | null }) {
         setError("The two passwords differ; type the same one twice.");
         return;
       }
-      const err = await post("/api/v1/auth/password-reset/complete", { token, password });
+      const revokeApiTokens = f.get("revokeApiTokens") === "on";
+      const { error: err, answer } = await post("/api/v1/auth/password-reset/complete", { token, password, revokeApiTokens });
       setBusy(false);
       if (err) setError(err);
-      else setDone("Your password is changed. Sign in with the new one.");
+      else {
+        const n = Number(answer?.tokensRevoked ?? 0);
+        const tokens = revokeApiTokens ? ` ${n === 1 ? "One API token was" : `${n} API tokens were`} revoked.` : "";
+        setDone(`Your password is changed, and every session of the account has ended.${tokens} Sign in with the new password.`);
+      }
     } else {
       const email = String(f.get("email") ?? "");
-      const err = await post("/api/v1/auth/password-reset", { email });
+      const { error: err } = await post("/api/v1/auth/password-reset", { email });
       setBusy(false);
       if (err) setError(err);
       else setDone(`If an account uses ${email}, a reset link is on its way. It works once, for 30 minutes.`);
@@ -53,9 +59,14 @@ export function ResetForms({ token }: { token: string | null }) {
         <>
           <label className="block text-sm"><span className="font-semibold">New password</span>
             <input name="password" type="password" autoComplete="new-password" minLength={10} required className={input} />
-            <span className="mt-1 block text-xs text-graphite">At least 10 characters.</span></label>
+            <span className="mt-1 block text-xs text-graphite">At least 10 characters, not a common password, a run of keys or your name.</span></label>
           <label className="block text-sm"><span className="font-semibold">The same again</span>
             <input name="again" type="password" autoComplete="new-password" required className={input} /></label>
+          <label className="flex items-start gap-2 text-sm">
+            <input name="revokeApiTokens" type="checkbox" className="mt-1 accent-accent" />
+            <span>Also revoke my personal API tokens
+              <span className="block text-xs text-graphite">Every session ends in any case. Revoke the tokens too if someone else may have had your password; scripts then need new ones.</span></span>
+          </label>
         </>
       ) : (
         <label className="block text-sm"><span className="font-semibold">E-mail</span>

@@ -38,7 +38,7 @@ export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string;
       router.push(callbackUrl);
       router.refresh();
     } else if (res?.status === 429) {
-      setError("Too many attempts. Wait a minute, then try again.");
+      setError("Too many attempts. Wait a few minutes, then try again.");
     } else {
       setError("The e-mail or password is not right. Check both and try again.");
     }

@@ -6,8 +6,9 @@ import "server-only";
  */
 import type { z } from "zod";
 import { actorFromRequest, type Actor } from "../auth/actor";
-import { readJsonBody } from "./body";
+import { findUnstorableText, readJsonBody, unstorableTextError } from "./body";
 import { AppError, errorResponse, unauthenticated } from "./errors";
+import { clientIp, enforceLimits } from "./rate-limit";
 import type { RouteSpec } from "./registry";
 
 type Out<T> = [T] extends [undefined] ? undefined : z.output<NonNullable<T> & z.ZodType>;
@@ -61,10 +62,23 @@ export function handle<S extends RouteSpec<z.ZodType | undefined, z.ZodType | un
       const actor = await actorFromRequest(req);
       if (spec.auth === "user" && !actor) throw unauthenticated();
       const rawParams = next?.params ? await next.params : {};
-      const params = parse(spec.params, rawParams, "path");
       const url = new URL(req.url);
-      const query = parse(spec.query, Object.fromEntries(url.searchParams), "query");
+      const rawQuery = Object.fromEntries(url.searchParams);
+      const keys = [...url.searchParams.keys()];
+      const twice = keys.find((k, i) => keys.indexOf(k) !== i);
+      if (twice !== undefined) {
+        throw new AppError("invalid_input", `The query names ${twice} more than once; give each parameter once.`, [{ path: twice, code: "duplicate", message: "given more than once" }]);
+      }
+      for (const [where, raw] of [["path", rawParams], ["query", rawQuery]] as const) {
+        const bad = findUnstorableText(raw);
+        if (bad) throw unstorableTextError(where, bad);
+      }
+      const params = parse(spec.params, rawParams, "path");
+      const query = parse(spec.query, rawQuery, "query");
       const body = spec.body ? parse(spec.body, await readJsonBody(req, spec.maxBodyBytes), "body") : undefined;
+      // Keyed on the parsed body: the address counted is the one the route acts on.
+      const email = (body as { email?: unknown } | undefined)?.email;
+      await enforceLimits(spec.limits, { caller: clientIp(req), userId: actor?.userId, email: typeof email === "string" ? email : null });
       const result = await impl({ req, actor, params, query, body } as RouteContext<S>);
       if (result instanceof Response) return result;
       return json(result, spec.status ?? 200);

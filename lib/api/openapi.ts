@@ -5,11 +5,12 @@
 import { z } from "zod";
 import { registry, type RouteSpec } from "./registry";
 import { ErrorShape, routes } from "./routes";
+import { LIMITS } from "./limits";
 
 const STATUS_TEXT: Record<number, string> = {
   400: "Bad input: the details list each problem with its path",
   401: "Not signed in, or the API token is unknown, revoked or expired",
-  403: "Your role does not allow this",
+  403: "Your role does not allow this (or, for invitations, the address is not confirmed yet)",
   404: "Not found (also for records of workspaces you do not belong to)",
   409: "Conflicts with the current state",
   413: "Body over 256 KiB",
@@ -57,6 +58,9 @@ export function openApiDocument() {
         ),
       },
     };
+    if (spec.limits?.length) {
+      op["x-rate-limits"] = spec.limits.map((name) => ({ name, points: LIMITS[name].points, seconds: LIMITS[name].seconds, per: LIMITS[name].per }));
+    }
     if (spec.body) op.requestBody = { required: true, content: { "application/json": { schema: schema(spec.body, "input") } } };
     (paths[spec.path] ??= {})[spec.method.toLowerCase()] = op;
   }

@@ -1,91 +1,96 @@
+import "server-only";
 /**
- * In-memory token buckets, one map per concern. A bucket holds `capacity`
- * tokens and regains `refillPerSecond`; a request takes one. The clock is
- * injectable so tests can move time without waiting.
+ * The counters behind lib/api/limits.ts, kept in PostgreSQL (the table
+ * rate_limits, made by a migration) through rate-limiter-flexible, so every
+ * server process counts against the same windows. Keys are stored as SHA-256
+ * hashes: the table holds no addresses.
  */
+import { createHash } from "node:crypto";
+import { RateLimiterPostgres, RateLimiterRes } from "rate-limiter-flexible";
+import type { Sequelize } from "sequelize";
+import { db } from "../db/connection";
 import { AppError } from "./errors";
+import { LIMITS, type LimitKey, type LimitName } from "./limits";
 
-export interface BucketOptions {
-  /** Most requests in a burst. */
-  capacity: number;
-  /** Tokens regained per second. */
-  refillPerSecond: number;
-  /** Milliseconds since some epoch; default Date.now. */
-  now?: () => number;
+export { LIMITS, type LimitName };
+
+/** The table of the counters (migrations/20261215090000-sessions-limits-and-rights.mjs). */
+export const LIMITS_TABLE = "rate_limits";
+
+export type LimitStore = Record<LimitName, RateLimiterPostgres>;
+
+/** One limiter per limit on the given connection; the table must exist already. */
+export function createLimitStore(sequelize: Sequelize): LimitStore {
+  const entries = (Object.keys(LIMITS) as LimitName[]).map((name) => {
+    const rule = LIMITS[name];
+    const limiter = new RateLimiterPostgres({
+      storeClient: sequelize,
+      storeType: "sequelize",
+      tableName: LIMITS_TABLE,
+      tableCreated: true,
+      keyPrefix: name,
+      points: rule.points,
+      duration: rule.seconds,
+      // Expired rows are swept once per 5 minutes by the first limiter only.
+      clearExpiredByTimeout: name === "compile",
+    });
+    return [name, limiter] as const;
+  });
+  return Object.fromEntries(entries) as LimitStore;
 }
 
-export class RateLimiter {
-  private readonly buckets = new Map<string, { tokens: number; at: number }>();
-  private now: () => number;
-  constructor(private readonly options: BucketOptions) {
-    this.now = options.now ?? Date.now;
-  }
+const g = globalThis as unknown as { fanboundLimitStore?: LimitStore };
 
-  /** Takes one token for `key`; returns 0 when allowed, else the seconds to wait. */
-  take(key: string): number {
-    const t = this.now();
-    const { capacity, refillPerSecond } = this.options;
-    const b = this.buckets.get(key) ?? { tokens: capacity, at: t };
-    b.tokens = Math.min(capacity, b.tokens + ((t - b.at) / 1000) * refillPerSecond);
-    b.at = t;
-    if (b.tokens >= 1) {
-      b.tokens -= 1;
-      this.buckets.set(key, b);
-      if (this.buckets.size > 50_000) this.prune();
-      return 0;
-    }
-    this.buckets.set(key, b);
-    return (1 - b.tokens) / refillPerSecond;
-  }
+/** This process's store, on the app's connection. */
+export function limitStore(): LimitStore {
+  return (g.fanboundLimitStore ??= createLimitStore(db().sequelize));
+}
 
-  /** Throws a 429 AppError naming what was limited when the bucket is empty. */
-  enforce(key: string, what: string): void {
-    const wait = this.take(key);
-    if (wait > 0) {
-      const seconds = Math.max(1, Math.ceil(wait));
-      throw new AppError("rate_limited", `Too many ${what} requests; wait ${seconds} s and try again.`, { retryAfterSeconds: seconds }, seconds);
-    }
-  }
+/** What a request is counted by: its caller, its user and the e-mail address it is about. */
+export interface LimitSubject {
+  caller: string;
+  userId?: string | null;
+  email?: string | null;
+}
 
-  /** Replaces the clock (tests). */
-  setClock(now: () => number): void {
-    this.now = now;
-  }
+function keyOf(per: readonly LimitKey[], s: LimitSubject): string {
+  const parts = per.map((k) => {
+    if (k === "caller") return `c:${s.caller}`;
+    if (k === "user") return s.userId ? `u:${s.userId}` : `c:${s.caller}`;
+    return `e:${(s.email ?? "").trim().toLowerCase()}`;
+  });
+  return createHash("sha256").update(parts.join("\n"), "utf8").digest("hex");
+}
 
-  /** Forgets every bucket (tests). */
-  reset(): void {
-    this.buckets.clear();
-    this.now = this.options.now ?? Date.now;
+/**
+ * Counts one request against each named limit; throws a 429 AppError naming
+ * what was limited, with the seconds to wait, when any of them is used up.
+ */
+export async function enforceLimits(names: readonly LimitName[] | undefined, subject: LimitSubject, store: LimitStore = limitStore()): Promise<void> {
+  if (!names?.length) return;
+  const results = await Promise.allSettled(names.map((n) => store[n].consume(keyOf(LIMITS[n].per, subject))));
+  let refused: { name: LimitName; ms: number } | null = null;
+  for (const [i, r] of results.entries()) {
+    if (r.status === "fulfilled") continue;
+    if (!(r.reason instanceof RateLimiterRes)) throw r.reason;
+    if (!refused || r.reason.msBeforeNext > refused.ms) refused = { name: names[i]!, ms: r.reason.msBeforeNext };
   }
-
-  private prune() {
-    const t = this.now();
-    for (const [k, b] of this.buckets) {
-      if (b.tokens + ((t - b.at) / 1000) * this.options.refillPerSecond >= this.options.capacity) this.buckets.delete(k);
-    }
+  if (refused) {
+    const seconds = Math.max(1, Math.ceil(refused.ms / 1000));
+    const { what, points, seconds: window } = LIMITS[refused.name];
+    throw new AppError(
+      "rate_limited",
+      `Too many ${what} requests (at most ${points} in ${window >= 3600 ? `${window / 3600} h` : window >= 60 ? `${window / 60} min` : `${window} s`}); wait ${seconds} s and try again.`,
+      { limit: refused.name, retryAfterSeconds: seconds },
+      seconds,
+    );
   }
 }
 
-function make() {
-  return {
-    /** Password and link sign-ins, per IP and e-mail: 10 at once, then one per 6 s. */
-    signIn: new RateLimiter({ capacity: 10, refillPerSecond: 1 / 6 }),
-    /** Sign-ups per IP: 5 at once, then one per minute. */
-    signUp: new RateLimiter({ capacity: 5, refillPerSecond: 1 / 60 }),
-    /** Mails sent on request (links, resets), per IP and e-mail: 5 at once, then one per minute. */
-    mail: new RateLimiter({ capacity: 5, refillPerSecond: 1 / 60 }),
-    /**
-     * Compilations per user (including revision saves): 60 at once, then three per
-     * second — the workbench compiles after each pause in typing (350 ms), so
-     * steady typing stays inside the limit while a script hammering the API does not.
-     */
-    compile: new RateLimiter({ capacity: 60, refillPerSecond: 3 }),
-  };
+/** Forgets every counter (tests). */
+export async function resetLimits(): Promise<void> {
+  await db().sequelize.query(`DELETE FROM ${LIMITS_TABLE}`);
 }
-
-// One set per process even when the bundler duplicates this module across routes.
-const g = globalThis as unknown as { fanboundLimiters?: ReturnType<typeof make> };
-export const limiters = (g.fanboundLimiters ??= make());
 
 /**
  * The caller's address for rate limits. X-Forwarded-For is believed only when

@@ -4,6 +4,7 @@
  * builder describes them, so the document cannot drift from the handlers.
  */
 import type { z } from "zod";
+import type { LimitName } from "./limits";
 
 export type Method = "GET" | "POST" | "PUT" | "PATCH" | "DELETE";
 
@@ -33,6 +34,11 @@ export interface RouteSpec<
   maxBodyBytes?: number;
   /** Statuses this route may answer besides the success status. */
   errors: number[];
+  /**
+   * Rate limits the route is under (lib/api/limits.ts), counted by the handler
+   * wrapper after the body is read and before the implementation runs.
+   */
+  limits?: readonly LimitName[];
 }
 
 export const registry: RouteSpec[] = [];

@@ -4,6 +4,8 @@
  */
 import { z } from "zod";
 import { defineRoute } from "./registry";
+import type { LimitName } from "./limits";
+import { passwordProblem } from "../auth/password-policy";
 import { designSettingsSchema } from "../pipeline/settings";
 import { CompileResponse, CompileResultBody, Diagnostic } from "./compile-schema";
 import { IMPORT_MAX_CHARS } from "../import/truth-table";
@@ -19,7 +21,9 @@ const Slug = z.string().regex(/^[a-z0-9][a-z0-9-]{1,62}$/, "2–63 lower-case le
 const Id = z.uuid();
 const Email = z.string().trim().toLowerCase().pipe(z.email()).pipe(z.string().max(254));
 const Name = z.string().trim().min(1, "must not be empty").max(120);
+// Length here; what the password is made of is checked against the account in lib/auth/password-policy.ts.
 const Password = z.string().min(10, "use at least 10 characters").max(200);
+const Callback = z.string().max(500).optional();
 const Role = z.enum(ROLES);
 const Json = z.record(z.string(), z.unknown());
 const Source = z.string().max(200_000);
@@ -143,32 +147,61 @@ const WS = [400, 401, 403, 404];
 export const routes = {
   me: defineRoute({
     method: "GET", path: "/me", tag: "account", auth: "user", summary: "The caller and their workspaces",
-    response: z.object({ user: z.object({ id: z.string(), email: z.string(), name: z.string() }), workspaces: z.array(Workspace.omit({ settings: true })) }),
+    response: z.object({
+      user: z.object({ id: z.string(), email: z.string(), name: z.string(), emailConfirmed: z.boolean().describe("a link mailed to the address was followed") }),
+      workspaces: z.array(Workspace.omit({ settings: true })),
+    }),
     errors: [401],
   }),
   signUp: defineRoute({
-    method: "POST", path: "/auth/signup", tag: "account", auth: "none", summary: "Create an account with e-mail and password",
-    body: z.object({ email: Email, name: Name, password: Password }).strict(),
-    response: z.object({ user: z.object({ id: z.string(), email: z.string(), name: z.string() }) }),
-    status: 201, errors: [400, 409, 413, 415, 429],
+    method: "POST", path: "/auth/signup", tag: "account", auth: "none",
+    summary: "Create an account with e-mail and password, and mail a link that confirms the address (answers the same when the address has an account already: its owner gets a note instead)",
+    // The password is judged with the address and name it goes with, before any limit is counted.
+    body: z.object({ email: Email, name: Name, password: Password, callbackUrl: Callback }).strict().superRefine((b, ctx) => {
+      const problem = passwordProblem(b.password, b);
+      if (problem) ctx.addIssue({ code: "custom", path: ["password"], message: problem });
+    }),
+    response: Accepted, status: 202, errors: [400, 413, 415, 429],
+    limits: ["signUp", "mailAddress", "mailCaller"],
+  }),
+  verifyEmail: defineRoute({
+    method: "POST", path: "/auth/verify-email", tag: "account", auth: "none",
+    summary: "Confirm an account's e-mail address with the secret from the mail sent at sign-up",
+    body: z.object({ token: z.string().min(10).max(200) }).strict(),
+    response: z.object({ ok: z.literal(true), email: z.string() }), errors: [400, 413, 415, 429],
+    limits: ["mailSecret"],
   }),
   emailLink: defineRoute({
     method: "POST", path: "/auth/email-link", tag: "account", auth: "none",
-    summary: "Mail a one-time sign-in link (answers the same whether or not the address has an account)",
-    body: z.object({ email: Email, callbackUrl: z.string().max(500).optional() }).strict(),
+    summary: "Mail a one-time sign-in link, which also confirms the address (answers the same whether or not the address has an account)",
+    body: z.object({ email: Email, callbackUrl: Callback }).strict(),
     response: Accepted, status: 202, errors: [400, 413, 415, 429],
+    limits: ["mailAddress", "mailCaller"],
   }),
   passwordReset: defineRoute({
     method: "POST", path: "/auth/password-reset", tag: "account", auth: "none",
     summary: "Mail a password-reset link (answers the same whether or not the address has an account)",
     body: z.object({ email: Email }).strict(),
     response: Accepted, status: 202, errors: [400, 413, 415, 429],
+    limits: ["mailAddress", "mailCaller"],
   }),
   passwordResetComplete: defineRoute({
     method: "POST", path: "/auth/password-reset/complete", tag: "account", auth: "none",
-    summary: "Set a new password with the secret from the reset mail",
-    body: z.object({ token: z.string().min(10).max(200), password: Password }).strict(),
-    response: z.object({ ok: z.literal(true) }), errors: [400, 413, 415, 429],
+    summary: "Set a new password with the secret from the reset mail; every session of the account ends, and its API tokens too when revokeApiTokens is true",
+    body: z.object({
+      token: z.string().min(10).max(200),
+      password: Password,
+      revokeApiTokens: z.boolean().default(false).describe("also revoke every personal API token of the account"),
+    }).strict(),
+    response: z.object({ ok: z.literal(true), tokensRevoked: z.number() }), errors: [400, 413, 415, 429],
+    limits: ["mailSecret"],
+  }),
+  endSessions: defineRoute({
+    method: "POST", path: "/me/sessions/end", tag: "account", auth: "user",
+    summary: "Sign out everywhere: every session of the caller's account ends, this one included (API tokens stay)",
+    body: z.object({}).strict(),
+    response: z.object({ ok: z.literal(true) }), errors: [401, 413, 415, 429],
+    limits: ["sessions"],
   }),
   listTokens: defineRoute({
     method: "GET", path: "/tokens", tag: "tokens", auth: "user", summary: "The caller's personal API tokens",
@@ -298,6 +331,7 @@ export const routes = {
       .refine((b) => b.kind === "csv" || !b.outputs, { message: "outputs are for truth tables; a Verilog module declares its own", path: ["outputs"] }),
     response: z.object({ design: DesignDetail, diagnostics: z.array(ImportDiagnostic) }),
     status: 201, maxBodyBytes: IMPORT_BODY_BYTES, errors: [...WS, 409, 413, 415, 422],
+    limits: ["compile"],
   }),
   getDesign: defineRoute({
     method: "GET", path: "/workspaces/{ws}/designs/{designId}", tag: "designs", auth: "user", summary: "One design with its draft",
@@ -344,6 +378,7 @@ export const routes = {
       draftVersion: z.number().int().min(1).optional().describe("the draft version the source came from: the draft follows the revision only if it is still there"),
     }).strict(),
     response: z.object({ revision: RevisionDetail }), status: 201, errors: [...WS, 413, 415, 422, 429],
+    limits: ["compile"],
   }),
   getRevision: defineRoute({
     method: "GET", path: "/workspaces/{ws}/designs/{designId}/revisions/{number}", tag: "revisions", auth: "user", summary: "One revision",
@@ -353,7 +388,8 @@ export const routes = {
     method: "GET", path: "/workspaces/{ws}/designs/{designId}/revisions/{number}/export", tag: "revisions", auth: "user",
     summary: "The revision's netlist as a file: Verilog (IEEE 1364), VHDL (IEEE 1076), CSV or JSON",
     params: RevisionParams, query: z.object({ format: z.enum(["verilog", "vhdl", "csv", "json"]) }),
-    produces: "text/plain", errors: [...WS, 422],
+    produces: "text/plain", errors: [...WS, 422, 429],
+    limits: ["export"],
   }),
 
   revisionTable: defineRoute({
@@ -375,6 +411,7 @@ export const routes = {
     body: z.object(ImportRequest).strict()
       .refine((b) => b.kind === "csv" || !b.outputs, { message: "outputs are for truth tables; a Verilog module declares its own", path: ["outputs"] }),
     response: ImportOutcome, maxBodyBytes: IMPORT_BODY_BYTES, errors: [...R, 400, 413, 415],
+    limits: ["compile"],
   }),
 
   // ---- compile -------------------------------------------------------------------
@@ -390,6 +427,7 @@ export const routes = {
     }).strict().refine((b) => b.familyId || b.familyKey, { message: "give familyId or familyKey", path: ["familyId"] }),
     response: CompileResponse,
     errors: [...R, 400, 404, 413, 415, 422],
+    limits: ["compile"],
   }),
   // ---- compile jobs (long runs) ------------------------------------------------------
   createJob: defineRoute({
@@ -398,6 +436,7 @@ export const routes = {
     params: WsParams,
     body: z.object({ source: Source, familyId: Id, settings: CompileSettings.default({}), designId: Id.optional() }).strict(),
     response: z.object({ job: Job }), status: 202, errors: [...WS, 413, 415, 422, 429],
+    limits: ["compile"],
   }),
   listJobs: defineRoute({
     method: "GET", path: "/workspaces/{ws}/jobs", tag: "jobs", auth: "user", summary: "The workspace's latest compile jobs, newest first",
@@ -418,4 +457,13 @@ export const routes = {
     method: "GET", path: "/openapi.json", tag: "meta", auth: "none", summary: "This document",
     response: Json, errors: [],
   }),
+};
+
+/**
+ * Limits of next-auth's credential sign-ins (app/api/auth/[...nextauth]), which
+ * do not go through `handle` but are counted by the same enforceLimits.
+ */
+export const signInLimits: Record<"password" | "email-link", readonly LimitName[]> = {
+  password: ["signInAccount", "signInCaller"],
+  "email-link": ["signInCaller", "mailSecret"],
 };

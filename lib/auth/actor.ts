@@ -6,6 +6,7 @@ import "server-only";
  */
 import { decode } from "next-auth/jwt";
 import { resolveApiToken } from "../data/tokens";
+import { sessionIsCurrent } from "../data/users";
 import { unauthenticated } from "../api/errors";
 
 export interface Actor {
@@ -37,7 +38,9 @@ function sessionToken(jar: Map<string, string>): string | null {
 
 /**
  * The caller of a request, or null when anonymous. A Bearer header that is not
- * a live token is an error (401), never a fall-back to the cookie.
+ * a live token is an error (401), never a fall-back to the cookie. A session
+ * cookie counts only while the session version in it is the account's current
+ * one (sign-out, a reset or "sign out everywhere" end it).
  */
 export async function actorFromRequest(req: Request): Promise<Actor | null> {
   const auth = req.headers.get("authorization");
@@ -51,10 +54,12 @@ export async function actorFromRequest(req: Request): Promise<Actor | null> {
   const raw = sessionToken(cookies(req.headers.get("cookie")));
   const secret = process.env.NEXTAUTH_SECRET;
   if (!raw || !secret) return null;
+  let jwt: Awaited<ReturnType<typeof decode>>;
   try {
-    const jwt = await decode({ token: raw, secret });
-    return jwt?.sub ? { userId: jwt.sub, via: "session" } : null;
+    jwt = await decode({ token: raw, secret });
   } catch {
     return null;
   }
+  if (!jwt?.sub || !(await sessionIsCurrent(jwt.sub, jwt.sv))) return null;
+  return { userId: jwt.sub, via: "session" };
 }

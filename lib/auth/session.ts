@@ -5,7 +5,10 @@ import { redirect } from "next/navigation";
 import { authOptions } from "./options";
 import type { Actor } from "./actor";
 
-/** The signed-in caller, or null. */
+/**
+ * The signed-in caller, or null. next-auth's jwt callback (lib/auth/options.ts)
+ * refuses a session whose version is out of date, so an ended session is null here.
+ */
 export async function currentActor(): Promise<Actor | null> {
   const session = await getServerSession(authOptions);
   const id = (session?.user as { id?: string } | undefined)?.id;

@@ -112,9 +112,20 @@ export async function revokeInvitation(p: { actor: Actor | null; slug: string; i
   return view(row, { id: u.id, name: u.name });
 }
 
+/** 403 for an account whose address is not confirmed, saying how to confirm it. */
+export function unconfirmedAddress(email: string): AppError {
+  return new AppError(
+    "forbidden",
+    `Confirm that ${email} is your address before you accept: open the link in the mail we sent it when you signed up, ` +
+      `or sign out and sign in with "Link by e-mail" to ${email} (either link confirms it). Then open the invitation again.`,
+    { reason: "email_unconfirmed", email },
+  );
+}
+
 /**
  * Accepts an invitation for the signed-in caller, whose e-mail must be the
- * invited one. The token works once; expired or revoked ones are refused.
+ * invited one and confirmed (by a link mailed to it). The token works once;
+ * expired or revoked ones are refused.
  */
 export async function acceptInvitation(p: { actor: Actor | null; token: string }) {
   const userId = requireActor(p.actor);
@@ -133,11 +144,12 @@ export async function acceptInvitation(p: { actor: Actor | null; token: string }
     if (!user || user.email.toLowerCase() !== row.email.toLowerCase()) {
       throw forbidden(`accepting an invitation sent to ${row.email}; sign in with that address`);
     }
+    // Whoever signs up with an address has not shown it is theirs: only a link mailed to it does.
+    if (!user.emailVerifiedAt) throw unconfirmedAddress(user.email);
     const workspace = (await models.Workspace.findByPk(row.workspaceId, { transaction }))!;
     const existing = await models.Membership.findOne({ where: { workspaceId: workspace.id, userId }, transaction });
     if (!existing) await models.Membership.create({ workspaceId: workspace.id, userId, role: row.role }, { transaction });
     await row.update({ acceptedAt: new Date() }, { transaction });
-    if (!user.emailVerifiedAt) await user.update({ emailVerifiedAt: new Date() }, { transaction });
     return { workspace: { id: workspace.id, slug: workspace.slug, name: workspace.name, role: existing?.role ?? row.role } };
   });
 }

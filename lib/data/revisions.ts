@@ -14,7 +14,6 @@ import type { Family } from "../families";
 import { decodeCursor, encodeCursor, iso, requireAccess, type Actor } from "./access";
 import { familyOf } from "./families";
 import { usableFamily } from "./designs";
-import { limiters } from "../api/rate-limit";
 
 export interface RevisionSummary {
   id: string;
@@ -113,7 +112,6 @@ export async function createRevision(p: {
   const { workspace } = await requireAccess(p.actor, p.slug, "revision.save");
   await designIn(workspace.id, p.designId);
   const familyRow = await usableFamily(workspace.id, p.familyId);
-  limiters.compile.enforce(p.actor!.userId, "compile");
   const family = familyOf(familyRow);
   // The same path as the workbench's compiles: a result the designer just saw comes from the cache.
   const outcome = await compileOnServer({ source: p.source, family, settings: p.settings, userId: p.actor!.userId, workspaceId: workspace.id });
@@ -171,7 +169,7 @@ const EXT: Record<ExportFormat, [string, string]> = {
  * A revision's netlist as a file: rendered from the netlist saved with the
  * revision, so every download is the netlist that was reviewed. Rows saved
  * before netlists were kept are rebuilt from their own source, settings and
- * family snapshot (rate-limited like any compile).
+ * family snapshot.
  */
 export async function exportRevision(p: { actor: Actor | null; slug: string; designId: string; number: number; format: ExportFormat }) {
   const rev = await getRevision(p);
@@ -182,7 +180,6 @@ export async function exportRevision(p: { actor: Actor | null; slug: string; des
   if (saved?.model && saved.document) {
     body = renderSaved(saved, p.format, design.name, rev);
   } else {
-    limiters.compile.enforce(p.actor!.userId, "compile");
     const family = rev.familySnapshot as unknown as Family;
     const settings = CompileSettings.safeParse(rev.settings);
     const outcome = await compileOnServer({

@@ -1,5 +1,6 @@
 // Applies the migrations in migrations/ with umzug, recording them in the
-// SequelizeMeta table. `node lib/db/migrate.mjs [up|down]` uses DATABASE_URL.
+// SequelizeMeta table. `node lib/db/migrate.mjs [up|down]` runs as the role of
+// DATABASE_OWNER_URL (the one that owns the tables), else of DATABASE_URL.
 import { Sequelize } from "sequelize";
 import { Umzug, SequelizeStorage } from "umzug";
 import path from "node:path";
@@ -35,9 +36,9 @@ export async function migrate(url, direction = "up") {
 }
 
 if (import.meta.url === pathToFileURL(process.argv[1] ?? "").href) {
-  const url = process.env.DATABASE_URL;
+  const url = process.env.DATABASE_OWNER_URL || process.env.DATABASE_URL;
   if (!url) {
-    console.error("DATABASE_URL is not set");
+    console.error("DATABASE_OWNER_URL or DATABASE_URL must be set");
     process.exit(2);
   }
   const names = await migrate(url, process.argv[2] ?? "up");

@@ -16,7 +16,7 @@ const worker = workerName();
 const pool = new CompilePool({ threads: 2, perCaller: 1, queuePerCaller: 1, memoryMb: Number(process.env.FANBOUND_JOB_MEMORY_MB ?? 4096) });
 
 async function main() {
-  const b = await boss();
+  const b = await boss(true);
   let busy: string | null = null;
   await b.work<{ jobId: string }>(QUEUE, { batchSize: 1, pollingIntervalSeconds: 1 }, async ([job]) => {
     if (!job) return;

@@ -27,12 +27,16 @@ export const MAX_ATTEMPTS = 3;
 
 const g = globalThis as unknown as { fanboundBoss?: Promise<PgBoss> };
 
-/** This process's pg-boss client (the schema and the queue come from the migrations). */
-export function boss(): Promise<PgBoss> {
+/**
+ * This process's pg-boss client (the schema and the queue come from the
+ * migrations). Workers pass `supervise` so that one of them archives and
+ * expires old queue entries; the web server only sends.
+ */
+export function boss(supervise = false): Promise<PgBoss> {
   g.fanboundBoss ??= (async () => {
     const url = process.env.DATABASE_URL;
     if (!url) throw new Error("DATABASE_URL is not set: start the app with `npm start`");
-    const b = new PgBoss({ connectionString: url, schema: "pgboss", migrate: false, schedule: false, supervise: false, max: 2 });
+    const b = new PgBoss({ connectionString: url, schema: "pgboss", migrate: false, schedule: false, supervise, max: 2 });
     b.on("error", (e: unknown) => console.error("job queue:", e));
     await b.start();
     return b;

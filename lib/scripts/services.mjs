@@ -18,9 +18,20 @@ export const PORT_OFFSET = Number(process.env.FANBOUND_PORT_OFFSET ?? 0);
 export const PG_PORT = Number(process.env.FANBOUND_PG_PORT ?? 54329 + PORT_OFFSET);
 const isRoot = typeof process.getuid === "function" && process.getuid() === 0;
 
+/**
+ * Each profile's database, ports and mail folder. The mail catcher shows what
+ * it caught on its own loopback port (mailViewPort: the SMTP port + 100), never
+ * through the app.
+ */
 export const profiles = {
-  dev: { database: "fanbound", smtpPort: 2525 + PORT_OFFSET, webPort: 3000 + PORT_OFFSET, mailDir: path.join(dataDir, "mail") },
-  test: { database: "fanbound_test", smtpPort: 2526 + PORT_OFFSET, webPort: 3100 + PORT_OFFSET, mailDir: path.join(dataDir, "mail-test") },
+  dev: {
+    database: "fanbound", smtpPort: 2525 + PORT_OFFSET, mailViewPort: 2625 + PORT_OFFSET, webPort: 3000 + PORT_OFFSET,
+    mailDir: path.join(dataDir, "mail"),
+  },
+  test: {
+    database: "fanbound_test", smtpPort: 2526 + PORT_OFFSET, mailViewPort: 2626 + PORT_OFFSET, webPort: 3100 + PORT_OFFSET,
+    mailDir: path.join(dataDir, "mail-test"),
+  },
 };
 
 export function log(msg) {
@@ -111,8 +122,26 @@ export function externalDatabaseUrl() {
   return process.env.DATABASE_URL || null;
 }
 
+/** The project's own server as its superuser (set-up only: roles, databases). */
+export function adminUrl(database = "postgres") {
+  return `postgres://postgres@127.0.0.1:${PG_PORT}/${database}`;
+}
+
+/**
+ * Where the app connects: DATABASE_URL when given, else the app role
+ * (fanbound_app, no superuser, owns nothing) on the project's own server.
+ */
 export function databaseUrl(database) {
-  return externalDatabaseUrl() ?? `postgres://postgres@127.0.0.1:${PG_PORT}/${database}`;
+  return externalDatabaseUrl() ?? `postgres://fanbound_app@127.0.0.1:${PG_PORT}/${database}`;
+}
+
+/**
+ * Where migrations run: DATABASE_OWNER_URL when given, else DATABASE_URL when
+ * given (one role for both), else the owner role (fanbound_owner) of the
+ * project's own server.
+ */
+export function ownerDatabaseUrl(database) {
+  return process.env.DATABASE_OWNER_URL || externalDatabaseUrl() || `postgres://fanbound_owner@127.0.0.1:${PG_PORT}/${database}`;
 }
 
 /**
@@ -170,21 +199,17 @@ export function stopPostgres() {
   pgRun("pg_ctl", ["-D", pgDir, "-m", "fast", "-w", "stop"], { stdio: ["ignore", "ignore", "inherit"] });
 }
 
-/** Creates the database when it does not exist (needs the pg package, so call after ensureDependencies). */
+/**
+ * Creates the owner and app roles and the database when missing, and sets the
+ * app role's grants (lib/db/roles.mjs). Needs the pg package, so call after
+ * ensureDependencies. Does nothing when DATABASE_URL is set.
+ */
 export async function ensureDatabase(database) {
   if (externalDatabaseUrl()) return;
-  const { default: pg } = await import("pg");
-  const client = new pg.Client({ connectionString: databaseUrl("postgres") });
-  await client.connect();
-  try {
-    const r = await client.query("SELECT 1 FROM pg_database WHERE datname = $1", [database]);
-    if (r.rowCount === 0) {
-      log(`creating database ${database}`);
-      await client.query(`CREATE DATABASE "${database}"`);
-    }
-  } finally {
-    await client.end();
-  }
+  const { prepareDatabase } = await import("../db/roles.mjs");
+  const { created, adopted } = await prepareDatabase(adminUrl(), database);
+  if (created) log(`created database ${database} (owner fanbound_owner, app role fanbound_app)`);
+  if (adopted) log(`handed ${adopted} objects of ${database} to fanbound_owner and granted fanbound_app its rights`);
 }
 
 function pidFile(name) {
@@ -260,27 +285,53 @@ export function stopDaemon(name) {
   return true;
 }
 
-/** The local mail catcher for a profile: SMTP on loopback, messages kept as files. */
+/**
+ * The local mail catcher for a profile: SMTP on loopback, messages kept as
+ * files, and a read-only page of them on its own loopback port.
+ */
 export async function ensureMailCatcher(profile) {
-  await ensureDaemon(`mail-${profile.smtpPort}`, [path.join(root, "lib/scripts/mail-catcher.mjs")], {
+  const name = `mail-${profile.smtpPort}`;
+  await ensureDaemon(name, [path.join(root, "lib/scripts/mail-catcher.mjs")], {
     port: profile.smtpPort,
-    env: { MAIL_PORT: String(profile.smtpPort), MAIL_DIR: profile.mailDir },
+    env: { MAIL_PORT: String(profile.smtpPort), MAIL_VIEW_PORT: String(profile.mailViewPort), MAIL_DIR: profile.mailDir },
   });
+  // A catcher started before it served its page is replaced by one that does.
+  if (!(await portOpen(profile.mailViewPort))) {
+    stopDaemon(name);
+    await new Promise((r) => setTimeout(r, 300));
+    await ensureDaemon(name, [path.join(root, "lib/scripts/mail-catcher.mjs")], {
+      port: profile.smtpPort,
+      env: { MAIL_PORT: String(profile.smtpPort), MAIL_VIEW_PORT: String(profile.mailViewPort), MAIL_DIR: profile.mailDir },
+    });
+  }
 }
 
-/** Environment for the app, the migrations and the tests of one profile. */
+/** The address of the catcher's page of captured mail. */
+export function mailViewUrl(profile) {
+  return `http://127.0.0.1:${profile.mailViewPort}/`;
+}
+
+/**
+ * Environment for the app, the seed and the tests of one profile: the app's
+ * database role, never the owner's. The captured mail is not in it.
+ */
 export function appEnv(profile, extra = {}) {
-  return {
+  const env = {
     ...process.env,
     DATABASE_URL: databaseUrl(profile.database),
     SMTP_URL: `smtp://127.0.0.1:${profile.smtpPort}`,
-    MAIL_DIR: profile.mailDir,
     NEXTAUTH_URL: `http://127.0.0.1:${profile.webPort}`,
     NEXTAUTH_SECRET: process.env.NEXTAUTH_SECRET ?? localSecret(),
-    // The local mail catcher runs with every profile, so the captured-mail page (/dev/mail) may show.
-    FANBOUND_MAIL_CATCHER: "1",
     ...extra,
   };
+  delete env.DATABASE_OWNER_URL;
+  delete env.MAIL_DIR;
+  return env;
+}
+
+/** Environment for the migrations: the owner role's connection. */
+export function migrationEnv(profile) {
+  return { ...appEnv(profile), DATABASE_URL: ownerDatabaseUrl(profile.database) };
 }
 
 /** A secret made once per checkout and kept in .data, so sessions survive restarts. */

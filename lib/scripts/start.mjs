@@ -5,7 +5,7 @@ import { writeFileSync, rmSync } from "node:fs";
 import path from "node:path";
 import {
   root, dataDir, profiles, log, fail, run, ensureDependencies, ensurePostgres, ensureDatabase,
-  ensureMailCatcher, appEnv, portFree, readPid, ensureProcess, stopDaemon,
+  ensureMailCatcher, appEnv, migrationEnv, mailViewUrl, portFree, readPid, ensureProcess, stopDaemon,
 } from "./services.mjs";
 
 const profile = profiles.dev;
@@ -15,7 +15,8 @@ await ensureDatabase(profile.database);
 await ensureMailCatcher(profile);
 const env = appEnv(profile, { NODE_ENV: "production", FANBOUND_DEMO: "1" });
 run(process.execPath, ["lib/scripts/build.mjs"], { env });
-run(process.execPath, ["lib/db/migrate.mjs", "up"], { env });
+// Migrations run as the owner role; the seed and the server as the app role.
+run(process.execPath, ["lib/db/migrate.mjs", "up"], { env: { ...migrationEnv(profile), NODE_ENV: "production" } });
 run(process.execPath, [".build/seed.mjs"], { env });
 
 if (readPid("web")) fail("Fanbound is already being served (see .data/web.pid); run `npm run stop` first");
@@ -41,7 +42,7 @@ log("");
 log(`Fanbound is served at http://127.0.0.1:${profile.webPort}`);
 log(`demo sign-ins (password ${DEMO_PASSWORD}):`);
 for (const [role, email] of DEMO_ACCOUNTS) log(`  ${role.padEnd(9)} ${email}`);
-log(`captured mail: http://127.0.0.1:${profile.webPort}/dev/mail`);
+log(`captured mail (sign-in links, resets, invitations; this machine only): ${mailViewUrl(profile)}`);
 log("one job worker runs beside it (.data/jobs-worker.log); start more with `npm run worker`");
 log("stop with Ctrl+C, or `npm run stop` to stop the database, the mail catcher and the job worker too");
 const stop = () => {

@@ -6,8 +6,8 @@ import { existsSync, readFileSync, rmSync, mkdirSync } from "node:fs";
 import path from "node:path";
 import {
   root, dataDir, profiles, log, run, ensureDependencies, ensurePostgres, ensureDatabase,
-  ensureMailCatcher, appEnv, aptInstall, hasCommand, ensureDaemon, stopDaemon, externalDatabaseUrl,
-  databaseUrl,
+  ensureMailCatcher, appEnv, migrationEnv, aptInstall, hasCommand, ensureDaemon, stopDaemon, externalDatabaseUrl,
+  adminUrl, ownerDatabaseUrl, mailViewUrl,
 } from "./services.mjs";
 
 const profile = profiles.test;
@@ -24,11 +24,19 @@ await ensureMailCatcher(profile);
 const distDir = ".next-test";
 const env = appEnv(profile, { FANBOUND_DIST_DIR: distDir, NEXT_TELEMETRY_DISABLED: "1" });
 run(process.execPath, ["lib/scripts/build.mjs"], { env });
-run(process.execPath, ["lib/db/migrate.mjs", "up"], { env });
+// Migrations run as the owner role; the seed and the server as the app role.
+run(process.execPath, ["lib/db/migrate.mjs", "up"], { env: { ...migrationEnv(profile), FANBOUND_DIST_DIR: distDir } });
 run(process.execPath, [".build/seed.mjs"], { env });
 
 const failures = [];
 const counts = { passed: 0, failed: 0, skipped: 0 };
+// What only the tests get: the captured mail (files and the catcher's page) and
+// the owner role's connection (to check what the app role may not do).
+const testEnv = {
+  MAIL_DIR: profile.mailDir,
+  FANBOUND_MAIL_VIEW_URL: mailViewUrl(profile),
+  DATABASE_OWNER_URL: ownerDatabaseUrl(profile.database),
+};
 function step(name, cmd, args, extraEnv = {}) {
   log(`— ${name}`);
   const r = spawnSync(cmd, args, { stdio: "inherit", cwd: root, env: { ...env, ...extraEnv } });
@@ -53,7 +61,7 @@ function vitest(name, project, extraEnv = {}) {
 step("type-check (tsc)", process.execPath, ["node_modules/typescript/bin/tsc", "--noEmit", "-p", "tsconfig.json"]);
 step("lint (eslint)", process.execPath, ["node_modules/eslint/bin/eslint.js", "--max-warnings=0", "."]);
 vitest("unit tests", "unit");
-vitest("integration tests (PostgreSQL)", "integration");
+vitest("integration tests (PostgreSQL)", "integration", testEnv);
 
 log("— production build for the browser tests");
 rmSync(path.join(root, distDir), { recursive: true, force: true });
@@ -63,7 +71,8 @@ if (step("next build", process.execPath, ["node_modules/next/dist/bin/next", "bu
     "node_modules/next/dist/bin/next", "start", "-H", "127.0.0.1", "-p", String(profile.webPort),
   ], { port: profile.webPort, env: { ...env, NODE_ENV: "production" } });
   mkdirSync(path.join(root, "test-results"), { recursive: true });
-  vitest("browser tests (chromium)", "browser", { FANBOUND_BASE_URL: `http://127.0.0.1:${profile.webPort}` });
+  await clearRateLimits();
+  vitest("browser tests (chromium)", "browser", { ...testEnv, FANBOUND_BASE_URL: `http://127.0.0.1:${profile.webPort}` });
   stopDaemon("web-test");
 }
 
@@ -79,7 +88,7 @@ async function recreateTestDatabase() {
     return;
   }
   const { default: pg } = await import("pg");
-  const client = new pg.Client({ connectionString: databaseUrl("postgres") });
+  const client = new pg.Client({ connectionString: adminUrl() });
   await client.connect();
   try {
     await client.query(`DROP DATABASE IF EXISTS "${profile.database}" WITH (FORCE)`);
@@ -87,4 +96,16 @@ async function recreateTestDatabase() {
     await client.end();
   }
   await ensureDatabase(profile.database);
+}
+
+/** The browser tests start with no rate-limit counters left over from the integration tests. */
+async function clearRateLimits() {
+  const { default: pg } = await import("pg");
+  const client = new pg.Client({ connectionString: env.DATABASE_URL });
+  await client.connect();
+  try {
+    await client.query("DELETE FROM rate_limits");
+  } finally {
+    await client.end();
+  }
 }

@@ -27,6 +27,7 @@ describe("landing and sign-in pages in chromium", () => {
     const file = await screenshot(s.page, "landing");
     expect(statSync(file).size).toBeGreaterThan(10_000);
     expect(s.outside).toEqual([]);
+    expect(await s.cspViolations()).toEqual([]);
   });
 
   it("serves the sign-in page and rejects a wrong password with a clear message", async () => {

@@ -69,6 +69,9 @@ describe("the designer's workbench in chromium", () => {
     await expect.poll(() => page.locator('[data-testid="settings"] [role=alert]').innerText()).toMatch(/from 2 to 64/);
     await page.getByLabel("Fan-in override").fill("");
     expect(s.outside).toEqual([]);
+    // The Content-Security-Policy (proxy.ts) lets the editor, its worker and the app run: nothing was blocked.
+    expect(await page.locator(".monaco-editor .view-lines").count()).toBeGreaterThan(0);
+    expect(await s.cspViolations()).toEqual([]);
   });
 
   it("lets the designer rename and archive a design from the workspace home", async () => {

@@ -4,7 +4,10 @@
  */
 import { beforeAll, beforeEach, describe, expect, it } from "vitest";
 import { db } from "@/lib/db/connection";
-import { limiters, RateLimiter } from "@/lib/api/rate-limit";
+import { Sequelize } from "sequelize";
+import pg from "pg";
+import { LIMITS, createLimitStore, enforceLimits } from "@/lib/api/rate-limit";
+import { MAX_JSON_DEPTH } from "@/lib/api/body";
 import { createToken, revokeToken } from "@/lib/data/tokens";
 import { registry } from "@/lib/api/registry";
 import * as me from "@/app/api/v1/me/route";
@@ -15,13 +18,17 @@ import * as revisions from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revi
 import * as families from "@/app/api/v1/workspaces/[ws]/families/route";
 import * as tokensRoute from "@/app/api/v1/tokens/route";
 import * as signup from "@/app/api/v1/auth/signup/route";
+import * as reset from "@/app/api/v1/auth/password-reset/route";
+import * as emailLink from "@/app/api/v1/auth/email-link/route";
 import * as compile from "@/app/api/v1/compile/route";
 import * as openapi from "@/app/api/v1/openapi.json/route";
 import * as nextauth from "@/app/api/auth/[...nextauth]/route";
 import * as member from "@/app/api/v1/workspaces/[ws]/members/[userId]/route";
+import * as workspace from "@/app/api/v1/workspaces/[ws]/route";
+import * as revision from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/[number]/route";
 import * as exporter from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/[number]/export/route";
 import { encode } from "next-auth/jwt";
-import { BASE, SOURCE, builtinFamily, call, counts, makeUser, makeWorkspace, tag, type TestUser, addMember } from "./helpers";
+import { BASE, SOURCE, builtinFamily, call, counts, makeUser, makeWorkspace, resetLimits, tag, type TestUser, addMember } from "./helpers";
 
 let owner: TestUser;
 let ws: { id: string; slug: string };
@@ -37,8 +44,8 @@ beforeAll(async () => {
   designId = r.json.design.id;
 });
 
-beforeEach(() => {
-  for (const l of Object.values(limiters)) l.reset();
+beforeEach(async () => {
+  await resetLimits();
 });
 
 describe("bad bodies are refused in the error shape and change nothing", () => {
@@ -65,6 +72,51 @@ describe("bad bodies are refused in the error shape and change nothing", () => {
       expect(await counts()).toEqual(before);
     });
   }
+
+  it("NUL anywhere in a JSON body → 400 naming the field; nothing stored", async () => {
+    const before = await counts();
+    const settingsNul = await call(workspace.PATCH, "PATCH", "/w", { token: owner.token, params: { ws: ws.slug }, body: { settings: { note: "lock\u0000gate" } } });
+    expect(settingsNul.status).toBe(400);
+    expect(settingsNul.json.error.message).toContain("body.settings.note");
+    expect(settingsNul.json.error.details[0]).toMatchObject({ path: "settings.note", code: "nul_character" });
+    const deep = await call(workspace.PATCH, "PATCH", "/w", { token: owner.token, params: { ws: ws.slug }, body: { settings: { list: [{ a: "x" }, { b: "\u0000" }] } } });
+    expect(deep.json.error.details[0]).toMatchObject({ path: "settings.list.1.b" });
+    const inKey = await call(workspace.PATCH, "PATCH", "/w", { token: owner.token, params: { ws: ws.slug }, body: { settings: { "a\u0000b": 1 } } });
+    expect(inKey.status).toBe(400);
+    const family = await call(families.POST, "POST", "/f", { token: owner.token, params: { ws: ws.slug }, body: { key: "nul-fam", name: "Weir\u0000", data: {} } });
+    expect(family.status).toBe(400);
+    expect(family.json.error.message).toContain("body.name");
+    const source = await call(revisions.POST, "POST", "/r", { token: owner.token, params: { ws: ws.slug, designId }, body: { message: "m", source: `${SOURCE}// \u0000`, familyId, settings: {} } });
+    expect(source.status).toBe(400);
+    expect(source.json.error.message).toContain("body.source");
+    const surrogate = await call(workspace.PATCH, "PATCH", "/w", { token: owner.token, params: { ws: ws.slug }, rawBody: '{"name":"Weir \\ud800"}', headers: { "content-type": "application/json" } });
+    expect(surrogate.status).toBe(400);
+    expect(surrogate.json.error.details[0]).toMatchObject({ path: "name", code: "lone_surrogate" });
+    const query = await call(designs.GET, "GET", "/d", { token: owner.token, params: { ws: ws.slug }, query: { q: "a\u0000" } });
+    expect(query.status).toBe(400);
+    expect(query.json.error.message).toContain("query.q");
+    expect(await counts()).toEqual(before);
+  });
+
+  it(`JSON nested deeper than ${MAX_JSON_DEPTH} levels → 400 before parsing; at the limit it is read`, async () => {
+    const nest = (n: number) => `${"[".repeat(n)}${"]".repeat(n)}`;
+    const tooDeep = await call(workspace.PATCH, "PATCH", "/w", {
+      token: owner.token, params: { ws: ws.slug }, rawBody: `{"settings":{"x":${nest(5000)}}}`, headers: { "content-type": "application/json" },
+    });
+    expect(tooDeep.status).toBe(400);
+    expect(tooDeep.json.error.message).toMatch(new RegExp(`more than ${MAX_JSON_DEPTH} levels`));
+    // The body's object and settings are two levels: 30 more make exactly the limit.
+    const atLimit = await call(workspace.PATCH, "PATCH", "/w", {
+      token: owner.token, params: { ws: ws.slug }, rawBody: `{"settings":{"x":${nest(MAX_JSON_DEPTH - 2)}, "s": "[[[[ brackets in a string do not count"}}`, headers: { "content-type": "application/json" },
+    });
+    expect(atLimit.status).toBe(200);
+  });
+
+  it("a query parameter given twice → 400", async () => {
+    const r = await call(designs.GET, "GET", `/d?sort=name&sort=gates`, { token: owner.token, params: { ws: ws.slug } });
+    expect(r.status).toBe(400);
+    expect(r.json.error.message).toMatch(/sort more than once/);
+  });
 
   it("a streamed body over the limit is cut off without trusting any Content-Length → 413", async () => {
     const before = await counts();
@@ -163,12 +215,15 @@ describe("personal API tokens", () => {
 describe("session cookie", () => {
   it("a next-auth JWT in the session cookie authenticates; one signed with another secret does not", async () => {
     const u = await makeUser("cookie");
-    const good = await encode({ token: { sub: u.id, email: u.email }, secret: process.env.NEXTAUTH_SECRET! });
+    const good = await encode({ token: { sub: u.id, email: u.email, sv: 0 }, secret: process.env.NEXTAUTH_SECRET! });
     const ok = await call(me.GET, "GET", "/me", { headers: { cookie: `next-auth.session-token=${good}` } });
     expect(ok.status).toBe(200);
     expect(ok.json.user.id).toBe(u.id);
-    const forged = await encode({ token: { sub: u.id }, secret: "not-the-server-secret" });
+    const forged = await encode({ token: { sub: u.id, sv: 0 }, secret: "not-the-server-secret" });
     expect((await call(me.GET, "GET", "/me", { headers: { cookie: `next-auth.session-token=${forged}` } })).status).toBe(401);
+    // A JWT without a session version (or an older one) is a session that has ended.
+    const old = await encode({ token: { sub: u.id }, secret: process.env.NEXTAUTH_SECRET! });
+    expect((await call(me.GET, "GET", "/me", { headers: { cookie: `next-auth.session-token=${old}` } })).status).toBe(401);
   });
 });
 
@@ -199,55 +254,121 @@ describe("members", () => {
 });
 
 describe("rate limits", () => {
-  it("the token bucket refills with its injected clock", () => {
-    let now = 0;
-    const l = new RateLimiter({ capacity: 2, refillPerSecond: 0.5, now: () => now });
-    expect(l.take("k")).toBe(0);
-    expect(l.take("k")).toBe(0);
-    expect(l.take("k")).toBe(2); // one token at 0.5 per second takes 2 s (by hand)
-    now = 2000;
-    expect(l.take("k")).toBe(0);
-    expect(l.take("other")).toBe(0);
+  /** Counts `n` requests of `subject` against one limit, as a route would. */
+  async function spend(name: keyof typeof LIMITS, subject: Parameters<typeof enforceLimits>[1], n: number) {
+    for (let i = 0; i < n; i++) await enforceLimits([name], subject);
+  }
+
+  /** A sign-in POST the way next-auth's client sends it. */
+  function signInRequest(fields: Array<[string, string]>, provider = "password") {
+    return nextauth.POST(
+      new Request(`${BASE}/api/auth/callback/${provider}`, {
+        method: "POST",
+        headers: { "content-type": "application/x-www-form-urlencoded" },
+        body: new URLSearchParams(fields).toString(),
+      }),
+      { params: Promise.resolve({ nextauth: ["callback", provider] }) },
+    );
+  }
+
+  it("two server processes share one limit: counters live in PostgreSQL, not in a process", async () => {
+    // A second process, as far as the limiter can tell: its own connection pool and its own limiter objects.
+    const other = new Sequelize(process.env.DATABASE_URL!, { dialect: "postgres", dialectModule: pg, logging: false });
+    try {
+      const elsewhere = createLimitStore(other);
+      const u = await makeUser("shared");
+      for (let i = 0; i < LIMITS.compile.points; i++) await enforceLimits(["compile"], { caller: "direct", userId: u.id }, elsewhere);
+      // This process's route handler now refuses the user.
+      const r = await call(compile.POST, "POST", "/compile", { token: u.token, body: { source: SOURCE, familyKey: "cmos-hc-5v" } });
+      expect(r.status).toBe(429);
+      expect(r.json.error).toMatchObject({ code: "rate_limited", details: { limit: "compile" } });
+      const wait = Number(r.headers.get("retry-after"));
+      expect(wait).toBeGreaterThanOrEqual(1);
+      expect(wait).toBeLessThanOrEqual(LIMITS.compile.seconds);
+      // Another user is not affected, and the first is let through again once the window is over (here: forgotten).
+      const v = await makeUser("shared-other");
+      expect((await call(compile.POST, "POST", "/compile", { token: v.token, body: { source: SOURCE, familyKey: "cmos-hc-5v" } })).status).toBe(200);
+      await resetLimits();
+      expect((await call(compile.POST, "POST", "/compile", { token: u.token, body: { source: SOURCE, familyKey: "cmos-hc-5v" } })).status).toBe(200);
+    } finally {
+      await other.close();
+    }
   });
 
-  it("compile: 429 with Retry-After once the user's bucket is empty, then allowed again", async () => {
-    let now = 1_000_000;
-    limiters.compile.setClock(() => now);
-    const u = await makeUser("limits");
-    // Empty the user's bucket, whatever its capacity (take answers 0 while a token was left).
-    for (let i = 0; i < 10_000 && limiters.compile.take(u.id) === 0; i++);
-    const r = await call(compile.POST, "POST", "/compile", { token: u.token, body: { source: SOURCE, familyKey: "cmos-hc-5v" } });
+  it("the counters hold no addresses: keys are hashes", async () => {
+    const email = `private-${tag()}@test.ferrow.example`;
+    await enforceLimits(["mailAddress"], { caller: "direct", email });
+    const [rows] = await db().sequelize.query("SELECT key FROM rate_limits");
+    expect((rows as Array<{ key: string }>).map((r) => r.key).join(" ")).not.toContain(email);
+    expect((rows as Array<{ key: string }>)[0]!.key).toMatch(/^mailAddress:[0-9a-f]{64}$/);
+  });
+
+  it("saving revisions counts against the compile limit, declared on the route", async () => {
+    const u = await makeUser("saver");
+    const w = await makeWorkspace("saver", u);
+    const d = await call(designs.POST, "POST", "/d", { token: u.token, params: { ws: w.slug }, body: { name: "Lamp", familyId } });
+    await spend("compile", { caller: "direct", userId: u.id }, LIMITS.compile.points);
+    const r = await call(revisions.POST, "POST", "/r", {
+      token: u.token, params: { ws: w.slug, designId: d.json.design.id }, body: { message: "x", source: SOURCE, familyId, settings: {} },
+    });
     expect(r.status).toBe(429);
-    expect(r.json.error.code).toBe("rate_limited");
-    expect(Number(r.headers.get("retry-after"))).toBeGreaterThanOrEqual(1);
-    now += 1000;
-    const ok = await call(compile.POST, "POST", "/compile", { token: u.token, body: { source: SOURCE, familyKey: "cmos-hc-5v" } });
-    expect(ok.status).toBe(200);
   });
 
-  it("sign-up: 429 per IP after five; a forged X-Forwarded-For does not open a new bucket", async () => {
+  it("sign-up: 429 per caller once its limit is used; a forged X-Forwarded-For does not open a new window", async () => {
     const statuses: number[] = [];
-    for (let i = 0; i < 6; i++) {
+    for (let i = 0; i <= LIMITS.signUp.points; i++) {
       const ip = { "x-forwarded-for": `203.0.113.${i + 1}` }; // documentation range, RFC 5737
       const r = await call(signup.POST, "POST", "/auth/signup", { headers: ip, body: { email: `s${i}-${tag()}@test.ferrow.example`, name: "Sam", password: "lock-keeper-pass" } });
       statuses.push(r.status);
       if (r.status === 429) expect(r.headers.get("retry-after")).toMatch(/^\d+$/);
     }
-    expect(statuses).toEqual([201, 201, 201, 201, 201, 429]);
+    expect(statuses).toEqual([...Array(LIMITS.signUp.points).fill(202), 429]);
   });
 
-  it("sign-in: the next-auth callback answers 429 before checking the password once the bucket is empty", async () => {
-    const email = `victim-${tag()}@test.ferrow.example`;
-    const key = `direct|password|${email}`;
-    for (let i = 0; i < 10; i++) limiters.signIn.take(key);
-    const req = new Request(`${BASE}/api/auth/callback/password`, {
-      method: "POST",
-      headers: { "content-type": "application/x-www-form-urlencoded" },
-      body: new URLSearchParams({ email, password: "guess", csrfToken: "x" }),
-    });
-    const res = await nextauth.POST(req, { params: Promise.resolve({ nextauth: ["callback", "password"] }) });
+  it("mail to one address is limited whoever asks; each caller is limited whatever the address", async () => {
+    const u = await makeUser("inbox");
+    await spend("mailAddress", { caller: "elsewhere", email: u.email }, LIMITS.mailAddress.points);
+    const r = await call(reset.POST, "POST", "/auth/password-reset", { body: { email: u.email.toUpperCase() } });
+    expect(r.status).toBe(429);
+    expect(r.json.error.details.limit).toBe("mailAddress");
+    await resetLimits();
+    await spend("mailCaller", { caller: "direct" }, LIMITS.mailCaller.points);
+    const fresh = await call(emailLink.POST, "POST", "/auth/email-link", { body: { email: `new-${tag()}@test.ferrow.example` } });
+    expect(fresh.status).toBe(429);
+    expect(fresh.json.error.details.limit).toBe("mailCaller");
+  });
+
+  it("sign-in: a duplicated form field is refused (400) before any counting or checking", async () => {
+    const victim = await makeUser("victim");
+    const decoy = `decoy-${tag()}@test.ferrow.example`;
+    const res = await signInRequest([["email", decoy], ["email", victim.email], ["password", "guess-1"], ["csrfToken", "x"]]);
+    expect(res.status).toBe(400);
+    const body = await res.json();
+    expect(body.error.message).toMatch(/email more than once/);
+    expect(new URL(body.url).searchParams.get("error")).toBe("BadRequest");
+    const json = await nextauth.POST(
+      new Request(`${BASE}/api/auth/callback/password`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ email: victim.email, password: "x" }) }),
+      { params: Promise.resolve({ nextauth: ["callback", "password"] }) },
+    );
+    expect(json.status).toBe(415);
+  });
+
+  it("sign-in: the limit counts the address the password is checked against, from any spelling of it", async () => {
+    const victim = await makeUser("victim");
+    // The per-account window of this caller is used up by guesses at the address in another spelling.
+    await spend("signInAccount", { caller: "direct", email: `  ${victim.email.toUpperCase()} ` }, LIMITS.signInAccount.points);
+    const res = await signInRequest([["email", victim.email], ["password", "guess"], ["csrfToken", "x"]]);
     expect(res.status).toBe(429);
     expect(res.headers.get("retry-after")).toMatch(/^\d+$/);
+    expect(new URL((await res.json()).url).searchParams.get("error")).toBe("RateLimited");
+  });
+
+  it("sign-in: one caller guessing at many accounts is limited too", async () => {
+    await spend("signInCaller", { caller: "direct" }, LIMITS.signInCaller.points);
+    const res = await signInRequest([["email", `someone-${tag()}@test.ferrow.example`], ["password", "guess"], ["csrfToken", "x"]]);
+    expect(res.status).toBe(429);
+    const link = await signInRequest([["token", "x".repeat(40)], ["csrfToken", "x"]], "email-link");
+    expect(link.status).toBe(429);
   });
 });
 
@@ -301,10 +422,73 @@ describe("designs and revisions", () => {
     await expect(rev!.update({ message: "rewritten" })).rejects.toThrow(/immutable/);
     await expect(rev!.destroy()).rejects.toThrow(/immutable/);
     const { sequelize } = db();
-    await expect(sequelize.query("UPDATE revisions SET message = 'rewritten' WHERE id = :id", { replacements: { id: rev!.id } })).rejects.toThrow(/immutable/);
-    await expect(sequelize.query("DELETE FROM revisions WHERE id = :id", { replacements: { id: rev!.id } })).rejects.toThrow(/immutable/);
+    // The app's role has no right to change a revision at all; the owner's is stopped by the trigger (below).
+    await expect(sequelize.query("UPDATE revisions SET message = 'rewritten' WHERE id = :id", { replacements: { id: rev!.id } })).rejects.toThrow(/permission denied|immutable/);
+    await expect(sequelize.query("DELETE FROM revisions WHERE id = :id", { replacements: { id: rev!.id } })).rejects.toThrow(/permission denied|immutable/);
     const again = await db().models.Revision.findByPk(rev!.id);
     expect(again!.message).toBe(original);
+  });
+
+  it("the app's database role cannot get past the immutability: no TRUNCATE, no replication role, no superuser", async () => {
+    const { sequelize } = db();
+    const [[who]] = (await sequelize.query("SELECT current_user AS name, rolsuper, rolbypassrls FROM pg_roles WHERE rolname = current_user")) as [Array<{ name: string; rolsuper: boolean; rolbypassrls: boolean }>, unknown];
+    expect(who).toMatchObject({ rolsuper: false, rolbypassrls: false });
+    const before = await db().models.Revision.count();
+    await expect(sequelize.query("TRUNCATE revisions")).rejects.toThrow(/permission denied|immutable/);
+    await expect(sequelize.query("SET session_replication_role = replica")).rejects.toThrow(/permission denied/);
+    await expect(sequelize.query("ALTER TABLE revisions DISABLE TRIGGER revisions_immutable")).rejects.toThrow(/must be owner/);
+    await expect(sequelize.query("CREATE TABLE sneaky (id int)")).rejects.toThrow(/permission denied/);
+    const [[rights]] = (await sequelize.query(
+      `SELECT has_table_privilege(current_user, 'revisions', 'UPDATE') AS u, has_table_privilege(current_user, 'revisions', 'DELETE') AS d,
+              has_table_privilege(current_user, 'revisions', 'TRUNCATE') AS t, has_table_privilege(current_user, 'revisions', 'INSERT') AS i,
+              has_table_privilege(current_user, 'designs', 'TRUNCATE') AS dt, has_table_privilege(current_user, '"SequelizeMeta"', 'SELECT') AS m`,
+    )) as [Array<Record<string, boolean>>, unknown];
+    expect(rights).toEqual({ u: false, d: false, t: false, i: true, dt: false, m: false });
+    expect(await db().models.Revision.count()).toBe(before);
+  });
+
+  it.skipIf(!process.env.DATABASE_OWNER_URL)("as the owner role too, TRUNCATE, UPDATE and DELETE of revisions are refused by triggers; new tables get the app's grants", async () => {
+    const ownerDb = new Sequelize(process.env.DATABASE_OWNER_URL!, { dialect: "postgres", dialectModule: pg, logging: false });
+    try {
+      const rev = await db().models.Revision.findOne({ where: { designId } });
+      await expect(ownerDb.query("TRUNCATE revisions")).rejects.toThrow(/immutable: TRUNCATE refused/);
+      await expect(ownerDb.query("UPDATE revisions SET message = 'x' WHERE id = :id", { replacements: { id: rev!.id } })).rejects.toThrow(/immutable/);
+      await expect(ownerDb.query("DELETE FROM revisions WHERE id = :id", { replacements: { id: rev!.id } })).rejects.toThrow(/immutable/);
+      const appRole = decodeURIComponent(new URL(process.env.DATABASE_URL!).username);
+      // A table a later migration adds is usable by the app at once (ALTER DEFAULT PRIVILEGES), without TRUNCATE.
+      await ownerDb.transaction(async (transaction) => {
+        await ownerDb.query("CREATE TABLE later_feature (id int)", { transaction });
+        const [[r]] = (await ownerDb.query(
+          `SELECT has_table_privilege(:role, 'later_feature', 'SELECT, INSERT, UPDATE, DELETE') AS rw, has_table_privilege(:role, 'later_feature', 'TRUNCATE') AS t`,
+          { replacements: { role: appRole }, transaction },
+        )) as [Array<{ rw: boolean; t: boolean }>, unknown];
+        expect(r).toEqual({ rw: true, t: false });
+        await ownerDb.query("DROP TABLE later_feature", { transaction });
+      });
+    } finally {
+      await ownerDb.close();
+    }
+  });
+
+  it("a revision stores its source byte for byte, unusual Unicode and all", async () => {
+    // Legal but unusual text: combining marks, a zero-width joiner sequence, characters outside the BMP,
+    // right-to-left text, U+2028/U+2029, a BOM, U+FFFD, tabs and CRLF line ends, a backslash-zero pair.
+    const note = "// Wehr \u0301e\u0301 \u{1F468}\u200D\u{1F527} \u{1D4D5} \u05E9\u05DC\u05D5\u05DD \u2028 \u2029 \uFEFF \uFFFD \\0 tab\there";
+    const source = `${note}\r\n${SOURCE.replace(/\n/g, "\r\n")}`;
+    const r = await call(revisions.POST, "POST", "/r", {
+      token: owner.token, params: { ws: ws.slug, designId }, body: { message: "Unicode \u{1F30A} check", source, familyId, settings: {} },
+    });
+    expect(r.status).toBe(201);
+    const bytes = (s: string) => Buffer.from(s, "utf8").toString("hex");
+    expect(bytes(r.json.revision.source)).toBe(bytes(source));
+    const read = await call(revision.GET, "GET", "/r", { token: owner.token, params: { ws: ws.slug, designId, number: String(r.json.revision.number) } });
+    expect(bytes(read.json.revision.source)).toBe(bytes(source));
+    expect(read.json.revision.message).toBe("Unicode \u{1F30A} check");
+    // What PostgreSQL holds, read back as its own bytes (convert_to), is the UTF-8 of what was sent.
+    const [[row]] = (await db().sequelize.query("SELECT encode(convert_to(source, 'UTF8'), 'hex') AS hex FROM revisions WHERE id = :id", {
+      replacements: { id: r.json.revision.id },
+    })) as [Array<{ hex: string }>, unknown];
+    expect(row!.hex).toBe(bytes(source));
   });
 
   it("lists page with a cursor, search and sort", async () => {

@@ -10,10 +10,9 @@ import { POST as compileRoute } from "@/app/api/v1/compile/route";
 import { GET as meRoute } from "@/app/api/v1/me/route";
 import { compileOnServer, compilePool } from "@/lib/api/compile";
 import { AppError } from "@/lib/api/errors";
-import { limiters } from "@/lib/api/rate-limit";
 import { BUILT_IN_FAMILIES } from "@/lib/families";
 import { paritySource } from "@/lib/bench/sources";
-import { BASE, makeUser, makeWorkspace, tag, type TestUser } from "./helpers";
+import { BASE, makeUser, makeWorkspace, resetLimits, tag, type TestUser } from "./helpers";
 
 // Four products over disjoint inputs: each is a prime that alone covers its own
 // minterms, so all four are essential and the cover is minimum (Boolean algebra;
@@ -44,7 +43,7 @@ beforeAll(async () => {
   user = await makeUser("pool");
   other = await makeUser("pool-other");
   ws = await makeWorkspace("pool", user);
-  for (const l of Object.values(limiters)) l.reset();
+  await resetLimits();
 });
 
 describe("compiles on the worker pool", () => {

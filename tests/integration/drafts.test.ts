@@ -8,12 +8,11 @@
  */
 import { beforeAll, beforeEach, describe, expect, it } from "vitest";
 import { db } from "@/lib/db/connection";
-import { limiters } from "@/lib/api/rate-limit";
 import * as designs from "@/app/api/v1/workspaces/[ws]/designs/route";
 import * as design from "@/app/api/v1/workspaces/[ws]/designs/[designId]/route";
 import * as draft from "@/app/api/v1/workspaces/[ws]/designs/[designId]/draft/route";
 import * as revisions from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/route";
-import { SOURCE, addMember, builtinFamily, call, makeUser, makeWorkspace, tag, type TestUser } from "./helpers";
+import { SOURCE, addMember, builtinFamily, call, makeUser, makeWorkspace, resetLimits, tag, type TestUser } from "./helpers";
 
 let owner: TestUser;
 let designer: TestUser;
@@ -28,8 +27,8 @@ beforeAll(async () => {
   familyId = (await builtinFamily()).id;
 });
 
-beforeEach(() => {
-  for (const l of Object.values(limiters)) l.reset();
+beforeEach(async () => {
+  await resetLimits();
 });
 
 async function newDesign() {

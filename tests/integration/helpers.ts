@@ -9,6 +9,9 @@ import path from "node:path";
 import { Op } from "sequelize";
 import { db } from "@/lib/db/connection";
 import { createToken } from "@/lib/data/tokens";
+import { resetLimits } from "@/lib/api/rate-limit";
+
+export { resetLimits };
 import { randomSecret, sha256 } from "@/lib/auth/secrets";
 import type { Role } from "@/models";
 
@@ -28,11 +31,14 @@ export interface TestUser {
   token: string;
 }
 
-/** A user without a password (matrix actors sign in by token only). */
-export async function makeUser(label: string, passwordHash: string | null = null): Promise<TestUser> {
+/**
+ * A user without a password (matrix actors sign in by token only), its
+ * address confirmed unless `confirmed` is false.
+ */
+export async function makeUser(label: string, passwordHash: string | null = null, { confirmed = true } = {}): Promise<TestUser> {
   const t = tag();
   const email = `${label}-${t}@test.ferrow.example`;
-  const u = await db().models.User.create({ email, name: `${label} ${t}`, passwordHash, emailVerifiedAt: null });
+  const u = await db().models.User.create({ email, name: `${label} ${t}`, passwordHash, emailVerifiedAt: confirmed ? new Date() : null });
   const { secret } = await createToken({ actor: { userId: u.id, via: "token" }, name: "test", expiresAt: new Date(Date.now() + 86_400_000) });
   return { id: u.id, email, name: u.name, token: secret };
 }
@@ -106,19 +112,41 @@ export async function makeInvitation(workspaceId: string, inviter: TestUser, ema
   return { id: row.id, secret };
 }
 
-const MAIL_DIR = process.env.MAIL_DIR ?? ".data/mail-test";
+/** Where the local mail catcher keeps what it caught (npm test passes it to the tests only; the app never reads it). */
+export const MAIL_DIR = process.env.MAIL_DIR ?? ".data/mail-test";
+/** The catcher's own read-only page of captured mail. */
+export const MAIL_VIEW_URL = process.env.FANBOUND_MAIL_VIEW_URL ?? `http://127.0.0.1:${2626 + Number(process.env.FANBOUND_PORT_OFFSET ?? 0)}/`;
 
-/** The newest captured message to `to`, waiting up to ~10 s for the catcher to write it. */
-export async function mailTo(to: string): Promise<{ subject: string; text: string; html: string }> {
-  for (let i = 0; i < 100; i++) {
-    const files = readdirSync(MAIL_DIR).filter((f) => f.endsWith(".json")).sort();
-    for (const f of files.reverse()) {
-      const m = JSON.parse(readFileSync(path.join(MAIL_DIR, f), "utf8"));
-      if ((m.to as string[]).includes(to)) return m;
+export interface CapturedMail {
+  id: string;
+  to: string[];
+  subject: string;
+  text: string;
+  html: string;
+}
+
+/** Every captured message to `to`, newest first. */
+export function mailsTo(to: string): CapturedMail[] {
+  const out: CapturedMail[] = [];
+  for (const f of readdirSync(MAIL_DIR).filter((n) => n.endsWith(".json")).sort().reverse()) {
+    try {
+      const m = JSON.parse(readFileSync(path.join(MAIL_DIR, f), "utf8")) as CapturedMail;
+      if (m.to.includes(to)) out.push(m);
+    } catch {
+      // being written
     }
+  }
+  return out;
+}
+
+/** The newest captured message to `to` (whose subject matches, if given), waiting up to ~10 s for the catcher to write it. */
+export async function mailTo(to: string, subject?: RegExp): Promise<CapturedMail> {
+  for (let i = 0; i < 100; i++) {
+    const m = mailsTo(to).find((x) => !subject || subject.test(x.subject));
+    if (m) return m;
     await new Promise((r) => setTimeout(r, 100));
   }
-  throw new Error(`no mail to ${to} in ${MAIL_DIR}`);
+  throw new Error(`no mail to ${to}${subject ? ` about ${subject}` : ""} in ${MAIL_DIR}`);
 }
 
 /** The first link in a message's text that starts with the site's address. */

@@ -7,7 +7,7 @@
 import { readFileSync } from "node:fs";
 import { beforeAll, beforeEach, describe, expect, it } from "vitest";
 import { db } from "@/lib/db/connection";
-import { limiters } from "@/lib/api/rate-limit";
+import { resetLimits } from "@/lib/api/rate-limit";
 import { createRevision } from "@/lib/data/revisions";
 import { importTruthTable } from "@/lib/import";
 import * as importDesign from "@/app/api/v1/workspaces/[ws]/designs/import/route";
@@ -31,8 +31,8 @@ beforeAll(async () => {
   familyId = (await builtinFamily()).id;
 });
 
-beforeEach(() => {
-  for (const l of Object.values(limiters)) l.reset();
+beforeEach(async () => {
+  await resetLimits();
 });
 
 const post = (token: string, body: Record<string, unknown>) =>

@@ -8,7 +8,7 @@ import { spawn, type ChildProcess } from "node:child_process";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import * as jobsRoute from "@/app/api/v1/workspaces/[ws]/jobs/route";
 import * as jobRoute from "@/app/api/v1/workspaces/[ws]/jobs/[jobId]/route";
-import { limiters } from "@/lib/api/rate-limit";
+import { resetLimits } from "@/lib/api/rate-limit";
 import { compileNow } from "@/lib/pipeline";
 import { BUILT_IN_FAMILIES } from "@/lib/families";
 import { paritySource } from "@/lib/bench/sources";
@@ -29,7 +29,7 @@ beforeAll(async () => {
   owner = await makeUser("jobs");
   ws = await makeWorkspace("jobs", owner);
   familyId = (await builtinFamily("ttl-std-5v")).id;
-  for (const l of Object.values(limiters)) l.reset();
+  await resetLimits();
 });
 
 afterAll(() => {

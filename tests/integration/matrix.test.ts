@@ -8,7 +8,6 @@
  */
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
 import { db } from "@/lib/db/connection";
-import { limiters } from "@/lib/api/rate-limit";
 import { createRevision } from "@/lib/data/revisions";
 import * as me from "@/app/api/v1/me/route";
 import * as tokens from "@/app/api/v1/tokens/route";
@@ -32,8 +31,10 @@ import * as compile from "@/app/api/v1/compile/route";
 import * as importDesign from "@/app/api/v1/workspaces/[ws]/designs/import/route";
 import * as importPreview from "@/app/api/v1/import/route";
 import * as table from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/[number]/table/route";
+import * as endSessions from "@/app/api/v1/me/sessions/end/route";
+import * as verifyEmail from "@/app/api/v1/auth/verify-email/route";
 import * as openapi from "@/app/api/v1/openapi.json/route";
-import { SOURCE, addMember, builtinFamily, call, makeInvitation, makeUser, makeWorkspace, tag, type TestUser } from "./helpers";
+import { SOURCE, addMember, builtinFamily, call, makeInvitation, makeUser, makeWorkspace, resetLimits, tag, type TestUser } from "./helpers";
 
 const ACTORS = ["anonymous", "other", "viewer", "reviewer", "designer", "owner"] as const;
 type ActorName = (typeof ACTORS)[number];
@@ -84,8 +85,8 @@ beforeAll(async () => {
   await createRevision({ actor: { userId: owner.id, via: "token" }, slug: ws.slug, designId, message: "first", source: SOURCE, familyId, settings: {} });
 });
 
-beforeEach(() => {
-  for (const l of Object.values(limiters)) l.reset();
+beforeEach(async () => {
+  await resetLimits();
 });
 
 afterAll(async () => {
@@ -103,6 +104,18 @@ const dp = () => ({ ws: ws.slug, designId });
 
 const rows: Row[] = [
   { name: "GET /me", run: (_w, t) => call(me.GET, "GET", "/me", { token: t }), expect: [401, 200, 200, 200, 200, 200] },
+  {
+    // Ends the sessions of the caller's own account only; the matrix actors use API tokens, which stay.
+    name: "POST /me/sessions/end",
+    run: (_w, t) => call(endSessions.POST, "POST", "/me/sessions/end", { token: t, body: {} }),
+    expect: [401, 200, 200, 200, 200, 200],
+  },
+  {
+    // Public: the secret from the mail is the only credential, so everyone gets the same 400 for a wrong one.
+    name: "POST /auth/verify-email (unknown secret)",
+    run: (_w, t) => call(verifyEmail.POST, "POST", "/auth/verify-email", { token: t, body: { token: `x${tag()}${tag()}` } }),
+    expect: [400, 400, 400, 400, 400, 400],
+  },
   { name: "GET /tokens", run: (_w, t) => call(tokens.GET, "GET", "/tokens", { token: t }), expect: [401, 200, 200, 200, 200, 200] },
   {
     name: "POST /tokens",

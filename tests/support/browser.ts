@@ -11,9 +11,39 @@ import { launchChromium, type ChromiumSession } from "../../lib/bench/chromium";
 export const BASE_URL = process.env.FANBOUND_BASE_URL ?? "http://127.0.0.1:3100";
 export const ARTEFACTS = path.resolve("test-results");
 
-export type Session = ChromiumSession;
+export interface Session extends ChromiumSession {
+  /** Content-Security-Policy violations the pages reported, and console errors that mention the policy. */
+  cspViolations(): Promise<string[]>;
+}
 
-export const openBrowser = launchChromium;
+/** Chromium as lib/bench/chromium.ts starts it, with every policy violation of its pages kept for the test. */
+export async function openBrowser(): Promise<Session> {
+  const session = await launchChromium();
+  const { context, page } = session;
+  // Every document reports policy violations as events; keep them on the window.
+  await context.addInitScript(() => {
+    const w = window as unknown as { __csp?: string[] };
+    w.__csp = [];
+    document.addEventListener("securitypolicyviolation", (e) => {
+      w.__csp!.push(`${e.violatedDirective} blocked ${e.blockedURI || "inline"} at ${e.sourceFile}:${e.lineNumber}`);
+    });
+  });
+  // Chromium also logs each violation (workers' included) as a console error, across navigations.
+  const consoleCsp: string[] = [];
+  const watch = (p: Page) =>
+    p.on("console", (m) => {
+      if (m.type() === "error" && /Content Security Policy/i.test(m.text())) consoleCsp.push(m.text());
+    });
+  context.pages().forEach(watch);
+  context.on("page", watch);
+  return {
+    ...session,
+    async cspViolations() {
+      const reported = await page.evaluate(() => (window as unknown as { __csp?: string[] }).__csp ?? []).catch(() => []);
+      return [...reported, ...consoleCsp];
+    },
+  };
+}
 
 export async function screenshot(page: Page, name: string): Promise<string> {
   mkdirSync(ARTEFACTS, { recursive: true });

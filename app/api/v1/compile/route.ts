@@ -1,12 +1,10 @@
 import { handle } from "@/lib/api/handler";
 import { routes } from "@/lib/api/routes";
-import { limiters } from "@/lib/api/rate-limit";
 import { compileOnServer, resultBody } from "@/lib/api/compile";
 import { resolveCompileFamily } from "@/lib/data/families";
 
 export const POST = handle(routes.compile, async ({ req, actor, body }) => {
   const { record, family, workspaceId } = await resolveCompileFamily({ actor, slug: body.workspace, familyId: body.familyId, familyKey: body.familyKey });
-  limiters.compile.enforce(actor.userId, "compile");
   // A client that cancels (or goes away) stops the run with it.
   const out = await compileOnServer({
     source: body.source, family, settings: body.settings, userId: actor.userId, workspaceId, signal: req.signal,
