@@ -1,6 +1,8 @@
 import js from "@eslint/js";
 import tseslint from "typescript-eslint";
 import reactHooks from "eslint-plugin-react-hooks";
+import importX from "eslint-plugin-import-x";
+import { createTypeScriptImportResolver } from "eslint-import-resolver-typescript";
 
 // The pipeline stages are pure: data in, data out. These folders may not reach
 // the web framework, the database or the process environment.
@@ -22,8 +24,14 @@ export default tseslint.config(
         crypto: "readonly", Worker: "readonly", navigator: "readonly", localStorage: "readonly",
         queueMicrotask: "readonly", globalThis: "readonly" },
     },
-    plugins: { "react-hooks": reactHooks },
+    plugins: { "react-hooks": reactHooks, "import-x": importX },
+    settings: {
+      "import-x/parsers": { "@typescript-eslint/parser": [".ts", ".tsx"] },
+      "import-x/resolver-next": [createTypeScriptImportResolver({ project: "tsconfig.json" })],
+    },
     rules: {
+      // No module may reach itself again through its imports (type-only imports included).
+      "import-x/no-cycle": ["error", { ignoreExternal: true }],
       "react-hooks/rules-of-hooks": "error",
       "react-hooks/exhaustive-deps": "warn",
       "@typescript-eslint/no-unused-vars": ["error", { argsIgnorePattern: "^_", varsIgnorePattern: "^_" }],
@@ -40,6 +48,19 @@ export default tseslint.config(
         ],
       }],
       "no-restricted-properties": ["error", { object: "process", property: "env", message: "the pipeline core takes settings as arguments, not from the environment" }],
+    },
+  },
+  // The layers, bottom up: lib/errors and lib/auth (primitives) → lib/runtime and lib/data → lib/identity
+  // (who a request acts for) → lib/api (HTTP). A lower layer never imports a higher one.
+  {
+    files: ["lib/errors.ts", "lib/auth/**/*.ts", "lib/runtime/**/*.ts", "lib/data/**/*.ts", "lib/db/**/*.ts"],
+    rules: {
+      "no-restricted-imports": ["error", {
+        patterns: [
+          { group: ["**/api/*", "@/lib/api/*"], message: "lib/api is the HTTP layer, above this one: take errors from lib/errors and schemas from lib/pipeline" },
+          { group: ["**/identity/*", "@/lib/identity/*"], message: "lib/identity (request identity) sits above the data layer: take the Actor type from lib/auth/identity" },
+        ],
+      }],
     },
   },
 );

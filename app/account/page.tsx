@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { SiteHeader } from "@/components/ui/SiteHeader";
-import { requireSignedIn } from "@/lib/auth/session";
+import { requireSignedIn } from "@/lib/identity/session";
 import { getMe } from "@/lib/data/users";
 import { listTokens } from "@/lib/data/tokens";
 import { SignOutButton } from "@/components/ui/SignOutButton";

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { AuthCard } from "@/app/signin/AuthCard";
-import { currentActor } from "@/lib/auth/session";
+import { currentActor } from "@/lib/identity/session";
 import { getMe } from "@/lib/data/users";
 import { AcceptInvitation } from "./AcceptInvitation";
 

@@ -5,7 +5,7 @@
  * change there that the schema does not follow fails the type check below.
  */
 import { z } from "zod";
-import type { resultBody } from "./compile";
+import type { resultBody } from "../runtime/compile";
 
 const GateType = z.enum(["AND", "OR", "NAND", "NOR", "XOR", "XNOR", "NOT", "BUF"]);
 const Cube = z.object({ value: z.number(), mask: z.number() });

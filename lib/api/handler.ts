@@ -5,7 +5,7 @@ import "server-only";
  * error shape. Implementations read as guard-free business steps.
  */
 import type { z } from "zod";
-import { actorFromRequest, type Actor } from "../auth/actor";
+import { actorFromRequest, type Actor } from "../identity/actor";
 import { findUnstorableText, readJsonBody, unstorableTextError } from "./body";
 import { AppError, errorResponse, unauthenticated } from "./errors";
 import { clientIp, enforceLimits } from "./rate-limit";

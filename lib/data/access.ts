@@ -7,8 +7,8 @@ import "server-only";
  */
 import { db } from "../db/connection";
 import { can, type Action, type Role } from "../auth/permissions";
-import type { Actor } from "../auth/actor";
-import { forbidden, notFound, unauthenticated } from "../api/errors";
+import type { Actor } from "../auth/identity";
+import { forbidden, notFound, unauthenticated } from "../errors";
 import type { Workspace } from "../../models";
 
 export type { Actor };

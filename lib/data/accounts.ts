@@ -9,7 +9,7 @@ import "server-only";
  */
 import { Op, Sequelize, type Transaction } from "sequelize";
 import { db } from "../db/connection";
-import { AppError } from "../api/errors";
+import { AppError } from "../errors";
 import { hashPassword } from "../auth/password";
 import { passwordProblem } from "../auth/password-policy";
 import { randomSecret, sha256 } from "../auth/secrets";

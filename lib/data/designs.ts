@@ -5,8 +5,8 @@ import "server-only";
  */
 import { QueryTypes } from "sequelize";
 import { db } from "../db/connection";
-import { conflict, invalid, notFound } from "../api/errors";
-import { storedSettings, type CompileSettings } from "../api/compile";
+import { conflict, invalid, notFound } from "../errors";
+import { storedSettings, type CompileSettings } from "../runtime/compile";
 import { decodeCursor, encodeCursor, iso, requireAccess, type Actor } from "./access";
 
 export interface DesignSummary {

@@ -5,7 +5,7 @@ import "server-only";
  */
 import { Op } from "sequelize";
 import { db } from "../db/connection";
-import { conflict, invalid, notFound, unauthenticated } from "../api/errors";
+import { conflict, invalid, notFound, unauthenticated } from "../errors";
 import { deriveFamily, familyFanOut, validateFamily, type Family } from "../families";
 import { requireAccess, type Actor } from "./access";
 

@@ -5,7 +5,7 @@ import "server-only";
  * the workspace, and one refusal shape (422 import_refused with the located
  * diagnostics in details) so that nothing is created from a refused text.
  */
-import { AppError } from "../api/errors";
+import { AppError } from "../errors";
 import { importDesign, TABLE_CSV_MAX_INPUTS, TableReader, truthTableCsv, type ImportKind, type ImportResult } from "../import";
 import { compileSource } from "../lang";
 import { requireAccess, requireActor, type Actor } from "./access";

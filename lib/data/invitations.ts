@@ -5,7 +5,7 @@ import "server-only";
  */
 import { Op, Sequelize } from "sequelize";
 import { db } from "../db/connection";
-import { conflict, forbidden, notFound, AppError } from "../api/errors";
+import { conflict, forbidden, notFound, AppError } from "../errors";
 import type { Role } from "../auth/permissions";
 import { randomSecret, sha256 } from "../auth/secrets";
 import { sendMail, siteUrl } from "../auth/mail";

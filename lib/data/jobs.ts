@@ -7,8 +7,8 @@ import "server-only";
  */
 import { QueryTypes } from "sequelize";
 import { db } from "../db/connection";
-import { AppError, forbidden, notFound } from "../api/errors";
-import { resultBody, type CompileSettings } from "../api/compile";
+import { AppError, forbidden, notFound } from "../errors";
+import { resultBody, type CompileSettings } from "../runtime/compile";
 import { prepare, resolveSettings, type PipelineError } from "../pipeline";
 import { cacheKey, cachedResult } from "./compile-cache";
 import { enqueue, JOB_BUDGET_MS } from "../runtime/jobs";

@@ -1,7 +1,7 @@
 import "server-only";
 import type { Transaction } from "sequelize";
 import { db } from "../db/connection";
-import { conflict, notFound } from "../api/errors";
+import { conflict, notFound } from "../errors";
 import type { Role } from "../auth/permissions";
 import { iso, requireAccess, type Actor } from "./access";
 

@@ -6,10 +6,10 @@ import "server-only";
  * get consecutive numbers instead of colliding.
  */
 import { db } from "../db/connection";
-import { AppError, notFound } from "../api/errors";
-import { compileOnServer, storedSettings, type CompileSettings as Settings, type SavedNetlist } from "../api/compile";
+import { AppError, notFound } from "../errors";
+import { compileOnServer, storedSettings, type CompileSettings as Settings, type SavedNetlist } from "../runtime/compile";
 import { toCsv, toVerilog, toVhdl } from "../export";
-import { CompileSettings } from "../api/routes";
+import { designSettingsSchema } from "../pipeline/settings";
 import type { Family } from "../families";
 import { decodeCursor, encodeCursor, iso, requireAccess, type Actor } from "./access";
 import { familyOf } from "./families";
@@ -181,7 +181,7 @@ export async function exportRevision(p: { actor: Actor | null; slug: string; des
     body = renderSaved(saved, p.format, design.name, rev);
   } else {
     const family = rev.familySnapshot as unknown as Family;
-    const settings = CompileSettings.safeParse(rev.settings);
+    const settings = designSettingsSchema.safeParse(rev.settings);
     const outcome = await compileOnServer({
       source: rev.source, family, settings: settings.success ? settings.data : {}, userId: p.actor!.userId,
       workspaceId: design.workspaceId, exports: [p.format], unitName: design.name,

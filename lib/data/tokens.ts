@@ -6,7 +6,7 @@ import "server-only";
 import { Op } from "sequelize";
 import { db } from "../db/connection";
 import { randomSecret, sha256 } from "../auth/secrets";
-import { invalid, notFound } from "../api/errors";
+import { invalid, notFound } from "../errors";
 import { iso, requireActor, type Actor } from "./access";
 
 /** Longest allowed token life: 365 days. */

@@ -4,7 +4,7 @@ import { QueryTypes, Sequelize } from "sequelize";
 import { db } from "../db/connection";
 import { hashPassword, verifyPassword } from "../auth/password";
 import { passwordProblem } from "../auth/password-policy";
-import { invalid, unauthenticated } from "../api/errors";
+import { invalid, unauthenticated } from "../errors";
 import { requireActor, type Actor } from "./access";
 
 export interface UserSummary {

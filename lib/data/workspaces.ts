@@ -1,6 +1,6 @@
 import "server-only";
 import { db } from "../db/connection";
-import { conflict } from "../api/errors";
+import { conflict } from "../errors";
 import { requireAccess, requireActor, type Actor } from "./access";
 import type { Role } from "../auth/permissions";
 

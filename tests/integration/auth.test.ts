@@ -10,7 +10,7 @@ import { beforeEach, describe, expect, it } from "vitest";
 import { encode } from "next-auth/jwt";
 import { db } from "@/lib/db/connection";
 import { hashPassword } from "@/lib/auth/password";
-import { authOptions, authorizeEmailLink, authorizePassword } from "@/lib/auth/options";
+import { authOptions, authorizeEmailLink, authorizePassword } from "@/lib/identity/options";
 import { holdTasks, settled } from "@/lib/api/after";
 import { randomSecret, sha256 } from "@/lib/auth/secrets";
 import * as emailLink from "@/app/api/v1/auth/email-link/route";

@@ -8,7 +8,7 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { POST as compileRoute } from "@/app/api/v1/compile/route";
 import { GET as meRoute } from "@/app/api/v1/me/route";
-import { compileOnServer, compilePool } from "@/lib/api/compile";
+import { compileOnServer, compilePool } from "@/lib/runtime/compile";
 import { AppError } from "@/lib/api/errors";
 import { BUILT_IN_FAMILIES } from "@/lib/families";
 import { paritySource } from "@/lib/bench/sources";

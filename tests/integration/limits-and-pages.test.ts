@@ -3,7 +3,7 @@ import { existsSync } from "node:fs";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { LimitError } from "@/lib/minimize";
-import { asAppError } from "@/lib/api/compile";
+import { asAppError } from "@/lib/runtime/compile";
 import { limitError } from "@/lib/pipeline";
 import { AppError, errorResponse } from "@/lib/api/errors";
 

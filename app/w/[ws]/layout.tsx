@@ -1,7 +1,7 @@
 import { getServerSession } from "next-auth";
 import Link from "next/link";
-import { authOptions } from "@/lib/auth/options";
-import { currentActor } from "@/lib/auth/session";
+import { authOptions } from "@/lib/identity/options";
+import { currentActor } from "@/lib/identity/session";
 import { SignInRedirect } from "@/components/ui/SignInRedirect";
 import { SiteHeader } from "@/components/ui/SiteHeader";
 import { SignOutButton } from "@/components/ui/SignOutButton";

@@ -1,6 +1,6 @@
 import NextAuth from "next-auth";
 import { NextRequest } from "next/server";
-import { authOptions } from "@/lib/auth/options";
+import { authOptions } from "@/lib/identity/options";
 import { clientIp, enforceLimits } from "@/lib/api/rate-limit";
 import { signInLimits } from "@/lib/api/routes";
 import { findUnstorableText, readBodyText, unstorableTextError } from "@/lib/api/body";
@@ -50,7 +50,7 @@ async function POST(req: Request, ctx: Ctx) {
   let form: URLSearchParams;
   try {
     form = await readSignInForm(req);
-    // The same normalisation as the password provider's schema (lib/auth/options.ts).
+    // The same normalisation as the password provider's schema (lib/identity/options.ts).
     const email = provider === "password" ? (form.get("email") ?? "").trim().toLowerCase() : null;
     await enforceLimits(signInLimits[provider], { caller: clientIp(req), email });
   } catch (e) {

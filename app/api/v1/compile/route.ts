@@ -1,6 +1,6 @@
 import { handle } from "@/lib/api/handler";
 import { routes } from "@/lib/api/routes";
-import { compileOnServer, resultBody } from "@/lib/api/compile";
+import { compileOnServer, resultBody } from "@/lib/runtime/compile";
 import { resolveCompileFamily } from "@/lib/data/families";
 
 export const POST = handle(routes.compile, async ({ req, actor, body }) => {

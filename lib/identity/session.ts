@@ -6,7 +6,7 @@ import { authOptions } from "./options";
 import type { Actor } from "./actor";
 
 /**
- * The signed-in caller, or null. next-auth's jwt callback (lib/auth/options.ts)
+ * The signed-in caller, or null. next-auth's jwt callback (lib/identity/options.ts)
  * refuses a session whose version is out of date, so an ended session is null here.
  */
 export async function currentActor(): Promise<Actor | null> {

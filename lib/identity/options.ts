@@ -39,7 +39,7 @@ export async function authorizeEmailLink(raw: unknown): Promise<SignedIn | null>
  * next-auth 4 with JWT sessions; the user id travels in the token as `sub`,
  * the account's session version at sign-in as `sv`. A session lives while
  * `sv` equals users.session_version: sign-out, a password reset and "sign out
- * everywhere" raise it. lib/auth/actor.ts checks the same for API requests.
+ * everywhere" raise it. lib/identity/actor.ts checks the same for API requests.
  * Rate limits on sign-in sit in the route (app/api/auth/[...nextauth]).
  */
 export const authOptions: NextAuthOptions = {

@@ -1,18 +1,17 @@
 import "server-only";
 /**
  * Who is calling: a personal API token in `Authorization: Bearer`, else the
- * next-auth session cookie. The data layer takes the resulting Actor and
- * re-checks membership and role itself.
+ * next-auth session cookie. This is the request-identity layer: it sits
+ * above the data layer (it looks tokens and sessions up there); the data
+ * layer takes the resulting Actor and re-checks membership and role itself.
  */
 import { decode } from "next-auth/jwt";
 import { resolveApiToken } from "../data/tokens";
 import { sessionIsCurrent } from "../data/users";
-import { unauthenticated } from "../api/errors";
+import { unauthenticated } from "../errors";
+import type { Actor } from "../auth/identity";
 
-export interface Actor {
-  userId: string;
-  via: "session" | "token";
-}
+export type { Actor };
 
 const SESSION_COOKIES = ["__Secure-next-auth.session-token", "next-auth.session-token"];
 

@@ -6,17 +6,17 @@ import "server-only";
  * pipeline's errors turned into the API's: a limit or a mapping failure is a
  * 422 whose details say what was reached and what to change.
  */
-import type { z } from "zod";
 import { prepare, resolveSettings, type CompileResult, type Compiled, type ExportFormat, type PipelineError, type StageOutcome } from "../pipeline";
 import type { Family } from "../families";
 import type { Netlist } from "../map";
 import type { NetlistDocument } from "../export";
 import { CompilePool, QueueFull } from "../runtime/pool";
 import { cacheKey, cachedResult, keepResult } from "../data/compile-cache";
-import { AppError } from "./errors";
-import type { CompileSettings as CompileSettingsSchema } from "./routes";
+import { AppError } from "../errors";
+import type { DesignSettings } from "../pipeline";
 
-export type CompileSettings = z.infer<typeof CompileSettingsSchema>;
+/** Settings as the API takes and stores them (the pipeline's design settings; the family travels apart). */
+export type CompileSettings = DesignSettings;
 
 /** Wall-clock budget of one interactive compile, waiting for a thread included: 10 000 ms. */
 export const COMPILE_BUDGET_MS = 10_000;
