@@ -5,7 +5,8 @@
  * encoded for the logic-solver SAT solver, which is asked for a minterm in
  * ON \ netlist or in netlist \ (ON ∪ DC).
  */
-import Logic, { type Formula } from "logic-solver";
+import type { Formula } from "logic-solver";
+import { logicSolver } from "../verify/index";
 import type { Cube } from "../logic/index";
 import { TRUTH_TABLE_MAX_INPUTS, emptyTable, fullMask, tableFromCubes, cubeToString } from "../logic/index";
 import type { Netlist } from "./netlist";
@@ -99,6 +100,7 @@ function verifyExhaustive(netlist: Netlist, inputs: string[], targets: VerifyTar
 }
 
 function cubeFormula(c: Cube, vars: string[]): Formula {
+  const Logic = logicSolver();
   const n = vars.length;
   const lits: Formula[] = [];
   for (let i = 0; i < n; i++) {
@@ -109,6 +111,7 @@ function cubeFormula(c: Cube, vars: string[]): Formula {
 }
 
 function verifySat(netlist: Netlist, inputs: string[], targets: VerifyTarget[]): VerifyResult {
+  const Logic = logicSolver();
   const vars = inputs.map((_, i) => `x${i}`);
   const f = new Map<string, Formula>();
   f.set(CONST0, Logic.FALSE);

@@ -8,13 +8,31 @@
  * e.g. a gate netlist, given as a bit-parallel simulator and/or a SAT
  * encoder (verifyImplementation).
  */
-import Logic from "logic-solver";
+import type LogicSolver from "logic-solver";
 import type { Formula } from "logic-solver";
 import type { Cube, FunctionSpec } from "../logic";
 import { TRUTH_TABLE_MAX_INPUTS, fullMask } from "../logic";
 
 export type { Formula } from "logic-solver";
-export type LogicModule = typeof Logic;
+export type LogicModule = typeof LogicSolver;
+
+let loaded: LogicModule | null = null;
+
+/**
+ * The SAT solver, loaded on first use: only designs above
+ * TRUTH_TABLE_MAX_INPUTS inputs need it, and loading it costs a command-line
+ * run a large part of its start-up. Loaded through Node's require (the solver
+ * is a CommonJS package), which the pure core reaches without importing a
+ * Node module.
+ */
+export function logicSolver(): LogicModule {
+  if (loaded) return loaded;
+  const mod = (globalThis.process as unknown as { getBuiltinModule(id: string): unknown }).getBuiltinModule("node:module") as {
+    createRequire(from: string): (id: string) => unknown;
+  };
+  loaded = mod.createRequire(import.meta.url)("logic-solver") as LogicModule;
+  return loaded;
+}
 
 export type Verdict =
   | { ok: true; method: "exhaustive" | "sat" }
@@ -104,6 +122,7 @@ function cubesTable(cubes: readonly Cube[], n: number, inverted: boolean): Uint3
 }
 
 function cubeFormula(c: Cube, n: number, vars: Formula[]): Formula {
+  const Logic = logicSolver();
   const lits: Formula[] = [];
   for (let i = 0; i < n; i++) {
     const bit = 1 << (n - 1 - i);
@@ -114,6 +133,7 @@ function cubeFormula(c: Cube, n: number, vars: Formula[]): Formula {
 
 /** logic-solver formula of a sum of products over the input formulas. */
 export function sopFormula(cubes: readonly Cube[], n: number, vars: Formula[]): Formula {
+  const Logic = logicSolver();
   if (cubes.length === 0) return Logic.FALSE;
   return Logic.or(cubes.map((c) => cubeFormula(c, n, vars)));
 }
@@ -165,6 +185,7 @@ function exhaustiveCheck(spec: FunctionSpec, simulate: NonNullable<Implementatio
 function satCheck(spec: FunctionSpec, encode: NonNullable<Implementation["encode"]>): Verdict {
   const n = spec.inputs.length;
   const names = spec.inputs.map((_, i) => `x${i}`);
+  const Logic = logicSolver();
   const outs = encode(Logic, names);
   for (let j = 0; j < spec.outputs.length; j++) {
     const o = spec.outputs[j]!;
