@@ -38,6 +38,16 @@ export default tseslint.config(
     },
   },
   {
+    // Type-aware checks of the TypeScript sources (the .mjs scripts run before the packages are installed).
+    files: ["**/*.{ts,tsx}"],
+    languageOptions: { parserOptions: { projectService: true, tsconfigRootDir: import.meta.dirname } },
+    rules: {
+      // A promise nobody awaits loses its error: await it, return it, or mark it with void.
+      "@typescript-eslint/no-floating-promises": "error",
+      "@typescript-eslint/no-misused-promises": ["error", { checksVoidReturn: { attributes: false } }],
+    },
+  },
+  {
     files: pureCore.map((g) => g.replace("**", "**/*.ts")),
     rules: {
       "no-restricted-imports": ["error", {

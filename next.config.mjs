@@ -43,8 +43,6 @@ const nextConfig = {
   poweredByHeader: false,
   reactStrictMode: true,
   typedRoutes: false,
-  // `npm test` runs tsc over the whole project as its own step.
-  typescript: { ignoreBuildErrors: true },
   outputFileTracingRoot: import.meta.dirname,
   // The test command builds into its own folder so a running `npm start` keeps its build.
   distDir: process.env.FANBOUND_DIST_DIR || ".next",

@@ -66,14 +66,24 @@ vitest("integration tests (PostgreSQL)", "integration", testEnv);
 log("— production build for the browser tests");
 rmSync(path.join(root, distDir), { recursive: true, force: true });
 if (step("next build", process.execPath, ["node_modules/next/dist/bin/next", "build"], { NODE_ENV: "production" })) {
-  stopDaemon("web-test");
-  await ensureDaemon("web-test", [
-    "node_modules/next/dist/bin/next", "start", "-H", "127.0.0.1", "-p", String(profile.webPort),
-  ], { port: profile.webPort, env: { ...env, NODE_ENV: "production" } });
+  // Two servers of the same build on two ports: the tests check that they share
+  // what must be shared (rate limits live in PostgreSQL, not in a process).
+  const secondPort = profile.webPort + 5;
+  for (const [name, port] of [["web-test", profile.webPort], ["web-test-2", secondPort]]) {
+    stopDaemon(name);
+    await ensureDaemon(name, [
+      "node_modules/next/dist/bin/next", "start", "-H", "127.0.0.1", "-p", String(port),
+    ], { port, env: { ...env, NODE_ENV: "production" } });
+  }
   mkdirSync(path.join(root, "test-results"), { recursive: true });
   await clearRateLimits();
-  vitest("browser tests (chromium)", "browser", { ...testEnv, FANBOUND_BASE_URL: `http://127.0.0.1:${profile.webPort}` });
+  vitest("browser tests (chromium)", "browser", {
+    ...testEnv,
+    FANBOUND_BASE_URL: `http://127.0.0.1:${profile.webPort}`,
+    FANBOUND_SECOND_BASE_URL: `http://127.0.0.1:${secondPort}`,
+  });
   stopDaemon("web-test");
+  stopDaemon("web-test-2");
 }
 
 log("");

@@ -29,16 +29,19 @@ function linkIn(text: string): string {
 }
 
 /** next-auth's CSRF token and the cookie that goes with it. */
-async function csrf(): Promise<{ token: string; cookie: string }> {
-  const r = await fetch(`${BASE_URL}/api/auth/csrf`);
+async function csrf(base = BASE_URL): Promise<{ token: string; cookie: string }> {
+  const r = await fetch(`${base}/api/auth/csrf`);
   const cookie = r.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
   return { token: ((await r.json()) as { csrfToken: string }).csrfToken, cookie };
 }
 
-/** A password sign-in POST as next-auth's client sends it, with the fields given. */
-async function signInPost(fields: Array<[string, string]>) {
-  const { token, cookie } = await csrf();
-  return fetch(`${BASE_URL}/api/auth/callback/password`, {
+/** A second server process of the same build on another port (lib/scripts/test.mjs starts it). */
+const SECOND_URL = process.env.FANBOUND_SECOND_BASE_URL;
+
+/** A password sign-in POST as next-auth's client sends it, with the fields given, to the server at `base`. */
+async function signInPost(fields: Array<[string, string]>, base = BASE_URL) {
+  const { token, cookie } = await csrf(base);
+  return fetch(`${base}/api/auth/callback/password`, {
     method: "POST",
     redirect: "manual",
     headers: { "content-type": "application/x-www-form-urlencoded", cookie },
@@ -82,6 +85,22 @@ describe("sign-in through next-auth", () => {
     }
     expect(statuses.slice(0, 10).every((s) => s !== 429)).toBe(true);
     expect(statuses[10]).toBe(429);
+  });
+
+  it("two server processes on two ports count against one limit", async () => {
+    if (!SECOND_URL) throw new Error("FANBOUND_SECOND_BASE_URL is not set: run the browser tests through npm test");
+    const victim = `shared-${tag()}@test.ferrow.example`;
+    const statuses: Array<[string, number]> = [];
+    for (let i = 1; i <= 11; i++) {
+      // Guesses alternate between the servers; each process alone saw at most six.
+      const base = i % 2 ? BASE_URL : SECOND_URL;
+      statuses.push([base, (await signInPost([["email", victim], ["password", `guess-${i}`]], base)).status]);
+    }
+    expect(statuses.slice(0, 10).every(([, s]) => s !== 429)).toBe(true);
+    // The eleventh guess reaches the first server, which had seen only five: the sixth it refuses is the shared count.
+    expect(statuses[10]).toEqual([BASE_URL, 429]);
+    // And the second server refuses the account too.
+    expect((await signInPost([["email", victim], ["password", "guess-12"]], SECOND_URL)).status).toBe(429);
   });
 });
 
