@@ -131,25 +131,42 @@ async function wideCase(page: Page, id: string) {
 }
 
 const TYPING = () => {
-  const w = window as unknown as { __typing: { key: number; starts: number[]; done: number[] } };
-  w.__typing = { key: 0, starts: [], done: [] };
+  const w = window as unknown as { __typing: { key: number; starts: number[]; answered: number; done: number[] } };
+  w.__typing = { key: 0, starts: [], answered: -1, done: [] };
   addEventListener("keydown", () => { w.__typing.key = performance.now(); }, true);
-  new PerformanceObserver((list) => {
-    for (const e of list.getEntries()) if (e.name.endsWith("/api/v1/compile")) w.__typing.starts.push(e.startTime);
-  }).observe({ type: "resource", buffered: true });
+  // When each compile request leaves and when its answer is in.
+  const fetch0 = window.fetch.bind(window);
+  window.fetch = async (input: RequestInfo | URL, init?: RequestInit) => {
+    const url = typeof input === "string" ? input : input instanceof URL ? input.href : input.url;
+    if (!url.endsWith("/api/v1/compile")) return fetch0(input, init);
+    w.__typing.starts.push(performance.now());
+    const r = await fetch0(input, init);
+    w.__typing.answered = performance.now();
+    return r;
+  };
+  // The result is on screen at the first change of the page after an answer to
+  // a compile asked after the keystroke, once the status says "up to date".
   new MutationObserver(() => {
+    const t = w.__typing;
     const s = document.querySelector('[data-testid="compile-status"]');
-    if (s?.textContent?.startsWith("up to date")) {
-      const last = w.__typing.done.at(-1) ?? -1;
-      if (last < w.__typing.key) w.__typing.done.push(performance.now());
-    }
-  }).observe(document.documentElement, { subtree: true, childList: true, characterData: true });
+    if (t.answered > t.key && s?.textContent?.startsWith("up to date") && (t.done.at(-1) ?? -1) < t.answered) t.done.push(performance.now());
+    // The document itself: an init script runs before it has an element.
+  }).observe(document, { subtree: true, childList: true, characterData: true });
 };
+
+/** Waits for `p`; a failure says which step of the bench it was. */
+async function step<T>(what: string, p: Promise<T>): Promise<T> {
+  try {
+    return await p;
+  } catch (e) {
+    throw new Error(`${what}: ${e instanceof Error ? e.message : String(e)}`);
+  }
+}
 
 /** Types single characters into a demo design, each after the last result arrived; returns [pause, update] pairs in ms. */
 async function typingCase(page: Page, url: string): Promise<Array<[number, number]>> {
   await page.goto(url);
-  await page.waitForFunction(() => document.querySelector('[data-testid="compile-status"]')?.textContent?.startsWith("up to date"), null, { timeout: 60_000 });
+  await step(`${url}: first result`, page.waitForFunction(() => document.querySelector('[data-testid="compile-status"]')?.textContent?.startsWith("up to date"), null, { timeout: 60_000 }));
   await page.click(".monaco-editor .view-lines");
   await page.keyboard.press("Control+End");
   await page.keyboard.press("Enter");
@@ -160,7 +177,7 @@ async function typingCase(page: Page, url: string): Promise<Array<[number, numbe
   for (let i = 0; i < KEYSTROKES_PER_DESIGN; i++) {
     const before = await page.evaluate(() => (window as unknown as { __typing: { done: number[] } }).__typing.done.length);
     await page.keyboard.type("x");
-    await page.waitForFunction((n) => (window as unknown as { __typing: { done: number[] } }).__typing.done.length > n, before, { timeout: 30_000, polling: "raf" });
+    await step(`${url}: result after keystroke ${i + 1}`, page.waitForFunction((n) => (window as unknown as { __typing: { done: number[] } }).__typing.done.length > n, before, { timeout: 30_000, polling: "raf" }));
     const t = await page.evaluate(() => (window as unknown as { __typing: { key: number; starts: number[]; done: number[] } }).__typing);
     const start = t.starts.filter((s) => s >= t.key).at(0);
     const done = t.done.at(-1)!;
@@ -169,7 +186,7 @@ async function typingCase(page: Page, url: string): Promise<Array<[number, numbe
   }
   // Put the text back as it was, so the demo draft is unchanged.
   for (let i = 0; i < KEYSTROKES_PER_DESIGN + "// bench ".length + 1; i++) await page.keyboard.press("Backspace");
-  await page.waitForFunction(() => document.querySelector('[data-testid="draft-state"]')?.getAttribute("data-status") === "kept", null, { timeout: 30_000 });
+  await step(`${url}: draft kept after the text was put back`, page.waitForFunction(() => document.querySelector('[data-testid="draft-state"]')?.getAttribute("data-status") === "kept", null, { timeout: 30_000 }));
   return pairs;
 }
 
@@ -186,7 +203,8 @@ async function main() {
   const s = await launchChromium();
   try {
     await signIn(s.page);
-    const designs = await prepareWideDesigns(s.page);
+    // `-- --typing`: the typing part only.
+    const designs = process.argv.includes("--typing") ? [] : await prepareWideDesigns(s.page);
 
     console.log(`\nworkbench in Chromium against ${BASE}\n`);
     console.log("wide results: longest main-thread task while the result loads, draws and its tables are used (target: none over 200 ms up to 5,000 gates)");
