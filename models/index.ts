@@ -93,6 +93,52 @@ export class Revision extends Model<InferAttributes<Revision>, InferCreationAttr
   declare createdAt: CreationOptional<Date>;
 }
 
+export const REVIEW_STATES = ["open", "approved", "changes-asked", "withdrawn", "superseded"] as const;
+export type ReviewState = (typeof REVIEW_STATES)[number];
+export const REVIEW_VERDICTS = ["approved", "changes-asked", "withdrawn", "superseded"] as const;
+export type ReviewVerdict = (typeof REVIEW_VERDICTS)[number];
+
+/** A request to review one revision; only its state changes, once, out of "open". */
+export class Review extends Model<InferAttributes<Review>, InferCreationAttributes<Review>> {
+  declare id: CreationOptional<string>;
+  declare designId: ForeignKey<Design["id"]>;
+  declare revisionId: ForeignKey<Revision["id"]>;
+  declare requestedBy: ForeignKey<User["id"]>;
+  declare message: CreationOptional<string>;
+  declare state: CreationOptional<ReviewState>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+/** A member asked to review. */
+export class ReviewReviewer extends Model<InferAttributes<ReviewReviewer>, InferCreationAttributes<ReviewReviewer>> {
+  declare id: CreationOptional<string>;
+  declare reviewId: ForeignKey<Review["id"]>;
+  declare userId: ForeignKey<User["id"]>;
+  declare createdAt: CreationOptional<Date>;
+}
+
+/** A comment in a review's thread: general, or on a line of the reviewed revision's source. */
+export class ReviewComment extends Model<InferAttributes<ReviewComment>, InferCreationAttributes<ReviewComment>> {
+  declare id: CreationOptional<string>;
+  declare reviewId: ForeignKey<Review["id"]>;
+  declare authorId: ForeignKey<User["id"]>;
+  declare body: string;
+  declare line: number | null;
+  declare createdAt: CreationOptional<Date>;
+}
+
+/** Who decided what on which revision, and when: history, never changed. */
+export class ReviewDecision extends Model<InferAttributes<ReviewDecision>, InferCreationAttributes<ReviewDecision>> {
+  declare id: CreationOptional<string>;
+  declare reviewId: ForeignKey<Review["id"]>;
+  declare revisionId: ForeignKey<Revision["id"]>;
+  declare userId: ForeignKey<User["id"]>;
+  declare verdict: ReviewVerdict;
+  declare note: CreationOptional<string>;
+  declare createdAt: CreationOptional<Date>;
+}
+
 const uuid = { type: DataTypes.UUID, primaryKey: true, defaultValue: DataTypes.UUIDV4 };
 const json = (allowNull = false) => ({ type: DataTypes.JSONB, allowNull });
 
@@ -253,7 +299,68 @@ export function initModels(sequelize: Sequelize) {
   Invitation.belongsTo(User, { foreignKey: "invitedBy", as: "inviter" });
   ApiToken.belongsTo(User, { foreignKey: "userId", as: "user" });
 
-  return { User, Workspace, Membership, LogicFamilyRecord, Design, Revision, EmailToken, Invitation, ApiToken };
+  // The database triggers are the authority on review history; these hooks say so first.
+  const history = (what: string) => ({
+    beforeUpdate: () => {
+      throw new Error(`${what} are history: they cannot be changed`);
+    },
+    beforeDestroy: () => {
+      throw new Error(`${what} are history: they cannot be deleted`);
+    },
+    beforeBulkUpdate: () => {
+      throw new Error(`${what} are history: they cannot be changed`);
+    },
+    beforeBulkDestroy: () => {
+      throw new Error(`${what} are history: they cannot be deleted`);
+    },
+  });
+  Review.init(
+    {
+      id: uuid,
+      message: { type: DataTypes.TEXT, allowNull: false, defaultValue: "" },
+      state: { type: DataTypes.ENUM(...REVIEW_STATES), allowNull: false, defaultValue: "open" },
+      createdAt: DataTypes.DATE,
+      updatedAt: DataTypes.DATE,
+    },
+    { ...base, tableName: "reviews" },
+  );
+  ReviewReviewer.init(
+    { id: uuid, createdAt: DataTypes.DATE },
+    { ...base, tableName: "review_reviewers", updatedAt: false, hooks: history("the reviewers asked") },
+  );
+  ReviewComment.init(
+    {
+      id: uuid,
+      body: { type: DataTypes.TEXT, allowNull: false },
+      line: { type: DataTypes.INTEGER, allowNull: true },
+      createdAt: DataTypes.DATE,
+    },
+    { ...base, tableName: "review_comments", updatedAt: false, hooks: history("review comments") },
+  );
+  ReviewDecision.init(
+    {
+      id: uuid,
+      verdict: { type: DataTypes.ENUM(...REVIEW_VERDICTS), allowNull: false },
+      note: { type: DataTypes.TEXT, allowNull: false, defaultValue: "" },
+      createdAt: DataTypes.DATE,
+    },
+    { ...base, tableName: "review_decisions", updatedAt: false, hooks: history("review decisions") },
+  );
+  Review.belongsTo(Design, { foreignKey: "designId", as: "design" });
+  Review.belongsTo(Revision, { foreignKey: "revisionId", as: "revision" });
+  Review.belongsTo(User, { foreignKey: "requestedBy", as: "requester" });
+  Review.hasMany(ReviewReviewer, { foreignKey: "reviewId", as: "reviewers" });
+  Review.hasMany(ReviewComment, { foreignKey: "reviewId", as: "comments" });
+  Review.hasMany(ReviewDecision, { foreignKey: "reviewId", as: "decisions" });
+  ReviewReviewer.belongsTo(User, { foreignKey: "userId", as: "user" });
+  ReviewComment.belongsTo(User, { foreignKey: "authorId", as: "author" });
+  ReviewDecision.belongsTo(User, { foreignKey: "userId", as: "user" });
+  ReviewDecision.belongsTo(Revision, { foreignKey: "revisionId", as: "revision" });
+
+  return {
+    User, Workspace, Membership, LogicFamilyRecord, Design, Revision, EmailToken, Invitation, ApiToken,
+    Review, ReviewReviewer, ReviewComment, ReviewDecision,
+  };
 }
 
 export class EmailToken extends Model<InferAttributes<EmailToken>, InferCreationAttributes<EmailToken>> {

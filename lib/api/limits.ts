@@ -46,6 +46,8 @@ export const LIMITS = {
   compile: { points: 180, seconds: 60, per: ["user"], what: "compile" },
   /** Downloads of revision files per user: 120 per minute. */
   export: { points: 120, seconds: 60, per: ["user"], what: "export" },
+  /** Review writes per user (asking, which mails each member asked; comments; decisions; withdrawals): 60 per 10 minutes. */
+  review: { points: 60, seconds: 600, per: ["user"], what: "review" },
   /** "Sign out everywhere" per user: 10 per 10 minutes. */
   sessions: { points: 10, seconds: 600, per: ["user"], what: "sign-out" },
 } as const satisfies Record<string, LimitRule>;

@@ -139,6 +139,72 @@ const Job = z.object({
 });
 const Accepted = z.object({ ok: z.literal(true), message: z.string() });
 
+// ---- review shapes -------------------------------------------------------------
+const REVIEW_STATES = ["open", "approved", "changes-asked", "withdrawn", "superseded"] as const;
+const REVIEW_VERDICTS = ["approved", "changes-asked", "withdrawn", "superseded"] as const;
+const ReviewText = z.string().max(4000, "keep it under 4000 characters");
+const ReviewParams = WsParams.extend({ reviewId: Id });
+const Reviewer = Ref.extend({ verdict: z.enum(["approved", "changes-asked"]).nullable(), decidedAt: z.string().nullable() });
+const ReviewSummary = z.object({
+  id: z.string(),
+  design: z.object({ id: z.string(), name: z.string() }),
+  revision: z.object({ number: z.number(), message: z.string(), author: Ref }),
+  state: z.enum(REVIEW_STATES),
+  message: z.string(),
+  requestedBy: Ref,
+  reviewers: z.array(Reviewer),
+  commentCount: z.number(),
+  createdAt: z.string(),
+  updatedAt: z.string(),
+});
+const Decision = z.object({
+  id: z.string(),
+  reviewId: z.string(),
+  design: z.object({ id: z.string(), name: z.string() }),
+  revision: z.number().describe("number of the revision decided on"),
+  verdict: z.enum(REVIEW_VERDICTS),
+  note: z.string(),
+  user: Ref,
+  createdAt: z.string(),
+});
+const ReviewDetail = ReviewSummary.extend({
+  comments: z.array(z.object({ id: z.string(), author: Ref, body: z.string(), line: z.number().nullable(), createdAt: z.string() })),
+  decisions: z.array(Decision),
+  compareFrom: z.number().nullable(),
+});
+const Figures = z.object({
+  gates: z.number(), depth: z.number(), packages: z.number().nullable(), transistors: z.number().nullable(),
+  delayNs: z.number().nullable().describe("estimate, ns"), staticMw: z.number().nullable().describe("estimate, mW"),
+  dynamicMw: z.number().nullable().describe("estimate, mW"), maxLoad: z.number().describe("unit loads"),
+  fanOut: z.number().nullable().describe("the limit maxLoad is held against, unit loads"),
+  products: z.number(), literals: z.number(), exact: z.boolean(),
+  outputs: z.array(z.object({ name: z.string(), products: z.number(), literals: z.number(), exact: z.boolean() })).nullable(),
+  byTypeWidth: z.array(z.object({ type: z.string(), width: z.number(), count: z.number() })),
+  family: z.object({ id: z.string(), name: z.string() }),
+  settings: Json,
+});
+const RevisionSide = z.object({
+  revision: z.object({ number: z.number(), message: z.string(), author: Ref, createdAt: z.string() }),
+  figures: Figures,
+  source: z.string(),
+  netlist: Json.nullable().describe("the JSON netlist document saved with the revision"),
+  critical: z.object({ nets: z.array(z.string()), gates: z.array(z.string()) }),
+});
+const Direction = z.enum(["better", "worse", "same", "mixed", "unknown"]);
+const Comparison = z.object({
+  figures: z.array(z.object({ key: z.string(), from: z.number().nullable(), to: z.number().nullable(), delta: z.number().nullable(), direction: Direction })),
+  load: z.object({ from: Json, to: Json, delta: z.number(), direction: Direction }),
+  exact: z.object({ from: z.boolean(), to: z.boolean(), direction: Direction }),
+  outputs: z.array(Json).nullable(),
+  family: z.object({ from: Json, to: Json }).nullable(),
+  settings: z.array(z.object({ key: z.string(), from: z.unknown(), to: z.unknown() })),
+  netlist: z.object({
+    rows: z.array(z.object({ type: z.string(), width: z.number(), from: z.number(), to: z.number(), added: z.number(), removed: z.number() })),
+    added: z.number(),
+    removed: z.number(),
+  }),
+});
+
 const R = [401, 429];
 const WS = [400, 401, 403, 404];
 
@@ -412,6 +478,77 @@ export const routes = {
       .refine((b) => b.kind === "csv" || !b.outputs, { message: "outputs are for truth tables; a Verilog module declares its own", path: ["outputs"] }),
     response: ImportOutcome, maxBodyBytes: IMPORT_BODY_BYTES, errors: [...R, 400, 413, 415],
     limits: ["compile"],
+  }),
+
+  // ---- comparing and reviewing ------------------------------------------------------
+  compareRevisions: defineRoute({
+    method: "GET", path: "/workspaces/{ws}/designs/{designId}/compare", tag: "reviews", auth: "user",
+    summary: "Two revisions side by side, from their stored figures and netlists: signed deltas (to − from), the source as a line diff, gates added and removed by type and width. Defaults: to the latest, from the one before",
+    params: DesignParams,
+    query: z.object({ from: z.coerce.number().int().positive().optional(), to: z.coerce.number().int().positive().optional() }),
+    response: z.object({
+      from: RevisionSide,
+      to: RevisionSide,
+      comparison: Comparison,
+      source: z.object({
+        lines: z.array(z.object({ kind: z.enum(["same", "removed", "added"]), from: z.number().nullable(), to: z.number().nullable(), text: z.string() })),
+        added: z.number(),
+        removed: z.number(),
+      }),
+    }),
+    errors: WS,
+  }),
+  revisionFigures: defineRoute({
+    method: "GET", path: "/workspaces/{ws}/designs/{designId}/revisions/{number}/figures", tag: "reviews", auth: "user",
+    summary: "One revision's stored figures, source, netlist and critical path (one side of a comparison, e.g. against the unsaved draft)",
+    params: RevisionParams, response: z.object({ side: RevisionSide }), errors: WS,
+  }),
+  listDesignReviews: defineRoute({
+    method: "GET", path: "/workspaces/{ws}/designs/{designId}/reviews", tag: "reviews", auth: "user", summary: "A design's reviews, newest first",
+    params: DesignParams, response: z.object({ items: z.array(ReviewSummary) }), errors: WS,
+  }),
+  requestReview: defineRoute({
+    method: "POST", path: "/workspaces/{ws}/designs/{designId}/reviews", tag: "reviews", auth: "user",
+    summary: "Ask members who may approve (reviewers, owners; not the revision's author) to review a revision (designer, owner); each gets an e-mail. Open reviews of earlier revisions become superseded",
+    params: DesignParams,
+    body: z.object({
+      revision: z.number().int().positive(),
+      reviewers: z.array(Id).min(1, "name at least one member").max(20),
+      message: ReviewText.optional(),
+    }).strict(),
+    response: z.object({ review: ReviewDetail, mailFailed: z.array(z.string()).describe("addresses the mail could not reach; the review stands") }),
+    status: 201, limits: ["review"], errors: [...WS, 409, 413, 415, 429],
+  }),
+  reviewInbox: defineRoute({
+    method: "GET", path: "/workspaces/{ws}/reviews", tag: "reviews", auth: "user",
+    summary: "Reviews waiting for the caller, reviews the caller asked for, and the workspace's recent decisions",
+    params: WsParams,
+    response: z.object({ waitingForMe: z.array(ReviewSummary), askedByMe: z.array(ReviewSummary), recentDecisions: z.array(Decision) }),
+    errors: WS,
+  }),
+  getReview: defineRoute({
+    method: "GET", path: "/workspaces/{ws}/reviews/{reviewId}", tag: "reviews", auth: "user", summary: "One review with its comments and decisions",
+    params: ReviewParams, response: z.object({ review: ReviewDetail }), errors: WS,
+  }),
+  addReviewComment: defineRoute({
+    method: "POST", path: "/workspaces/{ws}/reviews/{reviewId}/comments", tag: "reviews", auth: "user",
+    summary: "Comment on a review, generally or on a line of the reviewed revision's source (reviewer, designer, owner)",
+    params: ReviewParams,
+    body: z.object({ body: ReviewText, line: z.number().int().positive().nullable().optional() }).strict(),
+    response: z.object({ review: ReviewDetail }), status: 201, limits: ["review"], errors: [...WS, 413, 415, 429],
+  }),
+  decideReview: defineRoute({
+    method: "POST", path: "/workspaces/{ws}/reviews/{reviewId}/decisions", tag: "reviews", auth: "user",
+    summary: "Approve, or ask for changes with a note (a member asked to review; never the revision's author). Decisions are history and cannot be changed",
+    params: ReviewParams,
+    body: z.object({ verdict: z.enum(["approved", "changes-asked"]), note: ReviewText.optional() }).strict(),
+    response: z.object({ review: ReviewDetail }), status: 201, limits: ["review"], errors: [...WS, 409, 413, 415, 429],
+  }),
+  withdrawReview: defineRoute({
+    method: "POST", path: "/workspaces/{ws}/reviews/{reviewId}/withdraw", tag: "reviews", auth: "user",
+    summary: "Withdraw an open review (the member who asked, or an owner)",
+    params: ReviewParams, body: z.object({ note: ReviewText.optional() }).strict(),
+    response: z.object({ review: ReviewDetail }), limits: ["review"], errors: [...WS, 409, 413, 415, 429],
   }),
 
   // ---- compile -------------------------------------------------------------------

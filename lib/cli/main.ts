@@ -23,6 +23,7 @@ const COMMANDS: Record<string, () => Promise<Command>> = {
   table: () => import("./commands/table"),
   minimize: () => import("./commands/minimize"),
   map: () => import("./commands/map"),
+  compare: () => import("./commands/compare"),
   families: () => import("./commands/families"),
   import: () => import("./commands/import"),
 };

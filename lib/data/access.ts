@@ -25,7 +25,9 @@ const ACTION_WORDS: Record<Action, string> = {
   "design.edit": "creating or editing designs",
   "revision.read": "reading revisions",
   "revision.save": "saving revisions",
-  "review.comment": "commenting",
+  "review.request": "asking for reviews",
+  "review.manage": "withdrawing someone else's review",
+  "review.comment": "commenting on reviews",
   "review.approve": "approving revisions",
   "compile.run": "compiling",
 };

@@ -120,7 +120,8 @@ export async function createRevision(p: {
     throw new AppError("compile_errors", "The source has errors; fix them before saving a revision.", { diagnostics: outcome.diagnostics });
   }
   const stats = outcome.result.stats as unknown as Record<string, unknown>;
-  const saved: SavedNetlist = { model: outcome.result.model, document: outcome.result.document };
+  const cp = outcome.result.analysis.criticalPath;
+  const saved: SavedNetlist = { model: outcome.result.model, document: outcome.result.document, critical: { nets: cp.nets, gates: cp.gates } };
   const { sequelize, models } = db();
   const id = await sequelize.transaction(async (transaction) => {
     // The lock serialises saves of one design; numbers follow without gaps or collisions.

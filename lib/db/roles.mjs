@@ -73,6 +73,8 @@ export async function prepareDatabase(adminUrl, database, roles = ROLES) {
       await client.query(`GRANT SELECT, INSERT, UPDATE, DELETE ON ALL TABLES IN SCHEMA public TO ${app}`);
       await client.query(`GRANT USAGE ON ALL SEQUENCES IN SCHEMA public TO ${app}`);
       await client.query(`REVOKE UPDATE, DELETE, TRUNCATE ON TABLE revisions FROM ${app}`).catch(() => {});
+      await client.query(`REVOKE UPDATE, DELETE, TRUNCATE ON TABLE review_decisions, review_comments, review_reviewers FROM ${app}`).catch(() => {});
+      await client.query(`REVOKE DELETE, TRUNCATE ON TABLE reviews FROM ${app}`).catch(() => {});
       await client.query(`REVOKE ALL ON TABLE "SequelizeMeta" FROM ${app}`).catch(() => {});
     }
     return { created, adopted };

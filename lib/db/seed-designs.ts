@@ -162,7 +162,11 @@ export async function seedDemoDesigns(
         settings: { ...settings },
         stats: { ...stats },
         // The files of a revision come from the netlist saved with it.
-        netlist: { model: result.model, document: result.document } as unknown as Record<string, unknown>,
+        netlist: {
+          model: result.model,
+          document: result.document,
+          critical: { nets: result.analysis.criticalPath.nets, gates: result.analysis.criticalPath.gates },
+        } as unknown as Record<string, unknown>,
         authorId: users[step.author]!.id,
         message: step.message,
         // Spread the story over the past weeks, oldest first.

@@ -31,7 +31,11 @@ export interface RevisionStats {
   dynamicMw: number | null;
   /** Heaviest net load in unit loads. */
   maxLoad: number;
+  /** The fan-out limit the netlist was mapped and checked against, unit loads; null when no net was loaded. */
+  fanOut: number | null;
   verified: boolean;
+  /** Per output: its cover's terms and literals, and whether that cover is a proven minimum. */
+  byOutput: { name: string; products: number; literals: number; exact: boolean }[];
 }
 
 /** The stats of one run. */
@@ -53,7 +57,10 @@ export function revisionStats(spec: FunctionSpec, m: MinimizeResult, a: Analysis
     staticMw: a.staticPower.value,
     dynamicMw: a.dynamicPower.value,
     maxLoad: a.maxLoad,
+    // every net is held against the same limit (lib/analysis), so the first row tells it
+    fanOut: a.loads[0]?.limit ?? null,
     verified: verification?.ok ?? false,
+    byOutput: m.outputs.map((o) => ({ name: o.name, products: o.products, literals: o.literals, exact: o.exact })),
   };
 }
 

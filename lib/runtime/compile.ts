@@ -27,6 +27,8 @@ export const MINIMIZE_SHARE = 0.7;
 export interface SavedNetlist {
   model: Netlist;
   document: NetlistDocument;
+  /** The estimated critical path (nets and gates), so a compare view marks it without recomputing; absent on older rows. */
+  critical?: { nets: string[]; gates: string[] };
 }
 
 /** Settings as stored on designs and revisions: the schema's fields only. */

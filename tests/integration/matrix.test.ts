@@ -33,6 +33,15 @@ import * as importPreview from "@/app/api/v1/import/route";
 import * as table from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/[number]/table/route";
 import * as endSessions from "@/app/api/v1/me/sessions/end/route";
 import * as verifyEmail from "@/app/api/v1/auth/verify-email/route";
+import * as compareRoute from "@/app/api/v1/workspaces/[ws]/designs/[designId]/compare/route";
+import * as figuresRoute from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/[number]/figures/route";
+import * as designReviews from "@/app/api/v1/workspaces/[ws]/designs/[designId]/reviews/route";
+import * as inbox from "@/app/api/v1/workspaces/[ws]/reviews/route";
+import * as reviewRoute from "@/app/api/v1/workspaces/[ws]/reviews/[reviewId]/route";
+import * as commentsRoute from "@/app/api/v1/workspaces/[ws]/reviews/[reviewId]/comments/route";
+import * as decisionsRoute from "@/app/api/v1/workspaces/[ws]/reviews/[reviewId]/decisions/route";
+import * as withdrawRoute from "@/app/api/v1/workspaces/[ws]/reviews/[reviewId]/withdraw/route";
+import { requestReview } from "@/lib/data/reviews";
 import * as openapi from "@/app/api/v1/openapi.json/route";
 import { SOURCE, addMember, builtinFamily, call, makeInvitation, makeUser, makeWorkspace, resetLimits, tag, type TestUser } from "./helpers";
 
@@ -46,6 +55,7 @@ let otherWs: { id: string; slug: string };
 let familyId: string;
 let ownFamilyId: string;
 let designId: string;
+let reviewId: string;
 
 const FAMILY_DATA = {
   supplyV: 5, vohMin: 4.4, volMax: 0.1, vihMin: 3.5, vilMax: 1.5,
@@ -83,7 +93,23 @@ beforeAll(async () => {
   });
   designId = d.id;
   await createRevision({ actor: { userId: owner.id, via: "token" }, slug: ws.slug, designId, message: "first", source: SOURCE, familyId, settings: {} });
+  const r2 = await designerRevision("second");
+  reviewId = (await freshReview(r2, [users.reviewer.id])).id;
 });
+
+/** A new revision saved by the designer (so the reviewer and the owner may review it). */
+async function designerRevision(message: string) {
+  const r = await createRevision({
+    actor: { userId: users.designer.id, via: "token" }, slug: ws.slug, designId, message, source: `${SOURCE}// ${message} ${tag()}\n`, familyId, settings: {},
+  });
+  return r.number;
+}
+
+/** An open review of revision `number`, asked by the designer. */
+async function freshReview(number: number, reviewers: string[]) {
+  const { review } = await requestReview({ actor: { userId: users.designer.id, via: "token" }, slug: ws.slug, designId, number, reviewers });
+  return review;
+}
 
 beforeEach(async () => {
   await resetLimits();
@@ -262,6 +288,52 @@ const rows: Row[] = [
     expect: [401, 200, 200, 200, 200, 200],
   },
   {
+    name: "GET designs/{id}/compare",
+    run: (_w, t) => call(compareRoute.GET, "GET", "/c", { token: t, params: dp(), query: { from: "1", to: "2" } }),
+    expect: [401, 404, 200, 200, 200, 200],
+  },
+  {
+    name: "GET revisions/{n}/figures",
+    run: (_w, t) => call(figuresRoute.GET, "GET", "/r", { token: t, params: { ...dp(), number: "1" } }),
+    expect: [401, 404, 200, 200, 200, 200],
+  },
+  { name: "GET designs/{id}/reviews", run: (_w, t) => call(designReviews.GET, "GET", "/rv", { token: t, params: dp() }), expect: [401, 404, 200, 200, 200, 200] },
+  {
+    name: "POST designs/{id}/reviews (ask the reviewer)",
+    run: async (_w, t) => {
+      const n = await designerRevision("to review");
+      return call(designReviews.POST, "POST", "/rv", { token: t, params: dp(), body: { revision: n, reviewers: [users.reviewer.id], message: "please look" } });
+    },
+    expect: [401, 404, 403, 403, 201, 201],
+  },
+  { name: "GET reviews (inbox)", run: (_w, t) => call(inbox.GET, "GET", "/rv", { token: t, params: wsp() }), expect: [401, 404, 200, 200, 200, 200] },
+  {
+    name: "GET reviews/{id}",
+    run: (_w, t) => call(reviewRoute.GET, "GET", "/rv", { token: t, params: { ...wsp(), reviewId } }),
+    expect: [401, 404, 200, 200, 200, 200],
+  },
+  {
+    name: "POST reviews/{id}/comments",
+    run: (_w, t) => call(commentsRoute.POST, "POST", "/rv", { token: t, params: { ...wsp(), reviewId }, body: { body: "Why two levels here?", line: 2 } }),
+    expect: [401, 404, 403, 201, 201, 201],
+  },
+  {
+    name: "POST reviews/{id}/decisions (reviewer and owner asked; the designer wrote it)",
+    run: async (_w, t) => {
+      const r = await freshReview(await designerRevision("decide"), [users.reviewer.id, users.owner.id]);
+      return call(decisionsRoute.POST, "POST", "/rv", { token: t, params: { ...wsp(), reviewId: r.id }, body: { verdict: "approved", note: "fine" } });
+    },
+    expect: [401, 404, 403, 201, 403, 201],
+  },
+  {
+    name: "POST reviews/{id}/withdraw (asked by the designer)",
+    run: async (_w, t) => {
+      const r = await freshReview(await designerRevision("withdraw"), [users.reviewer.id]);
+      return call(withdrawRoute.POST, "POST", "/rv", { token: t, params: { ...wsp(), reviewId: r.id }, body: { note: "not ready" } });
+    },
+    expect: [401, 404, 403, 403, 200, 200],
+  },
+  {
     name: "POST /compile (built-in family by key)",
     run: (_w, t) => call(compile.POST, "POST", "/compile", { token: t, body: { source: SOURCE, familyKey: "cmos-hc-5v" } }),
     expect: [401, 200, 200, 200, 200, 200],
@@ -312,6 +384,14 @@ describe("records of another workspace are invisible (404) and unchanged", () =>
       await call(family.DELETE, "DELETE", "/f", { token: t, params: { ...op, familyId: ownFamilyId } }),
       await call(member.PATCH, "PATCH", "/m", { token: t, params: { ...op, userId: users.viewer.id }, body: { role: "owner" } }),
       await call(member.DELETE, "DELETE", "/m", { token: t, params: { ...op, userId: users.viewer.id } }),
+      await call(compareRoute.GET, "GET", "/c", { token: t, params: { ...op, designId } }),
+      await call(figuresRoute.GET, "GET", "/r", { token: t, params: { ...op, designId, number: "1" } }),
+      await call(designReviews.GET, "GET", "/rv", { token: t, params: { ...op, designId } }),
+      await call(designReviews.POST, "POST", "/rv", { token: t, params: { ...op, designId }, body: { revision: 1, reviewers: [users.other.id] } }),
+      await call(reviewRoute.GET, "GET", "/rv", { token: t, params: { ...op, reviewId } }),
+      await call(commentsRoute.POST, "POST", "/rv", { token: t, params: { ...op, reviewId }, body: { body: "stolen" } }),
+      await call(decisionsRoute.POST, "POST", "/rv", { token: t, params: { ...op, reviewId }, body: { verdict: "approved" } }),
+      await call(withdrawRoute.POST, "POST", "/rv", { token: t, params: { ...op, reviewId }, body: {} }),
     ];
     expect(results.map((r) => r.status)).toEqual(results.map(() => 404));
     const after = await db().models.Design.findByPk(designId);
