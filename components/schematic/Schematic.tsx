@@ -34,7 +34,7 @@ function layoutOffThread(netlist: Netlist, signal: AbortSignal): Promise<Layout>
  * distinctive shapes, the critical path in the accent colour, pan by dragging,
  * zoom with the wheel or the buttons, and a click on a gate to select it.
  */
-export function Schematic({ netlist, critical, selected, onSelect, height = 360, cut, caption }: {
+export function Schematic({ netlist, critical, selected, onSelect, height = 360, cut, caption, zoom, onZoomChange }: {
   netlist: DrawableNetlist;
   /** Nets and gates on the critical path. */
   critical: { nets: Set<string>; gates: Set<string> };
@@ -45,6 +45,10 @@ export function Schematic({ netlist, critical, selected, onSelect, height = 360,
   cut?: ReadonlySet<string>;
   /** Replaces the gate count in the line under the drawing. */
   caption?: string;
+  /** A zoom factor shared with other drawings (e.g. two revisions side by side); default: this drawing's own, fitted to its box. */
+  zoom?: number;
+  /** Called with the new factor when the user zooms and `zoom` is given. */
+  onZoomChange?: (k: number) => void;
 }) {
   const [layout, setLayout] = useState<Layout | null>(null);
   const [error, setError] = useState<string | null>(null);
@@ -88,19 +92,21 @@ export function Schematic({ netlist, critical, selected, onSelect, height = 360,
     );
   }
 
-  const zoom = (f: number) => setView((v) => ({ ...v, k: Math.min(4, Math.max(0.1, v.k * f)) }));
+  const k = zoom ?? view.k;
+  const zoomBy = (f: number) =>
+    onZoomChange ? onZoomChange(Math.min(4, Math.max(0.1, k * f))) : setView((v) => ({ ...v, k: Math.min(4, Math.max(0.1, v.k * f)) }));
   return (
     <div className="relative select-none" ref={box}>
       <div className="absolute right-2 top-2 z-10 flex gap-1">
-        <button type="button" onClick={() => zoom(1.25)} className="rounded border border-rule bg-sheet px-2 text-sm" aria-label="Zoom in">+</button>
-        <button type="button" onClick={() => zoom(0.8)} className="rounded border border-rule bg-sheet px-2 text-sm" aria-label="Zoom out">−</button>
-        <button type="button" onClick={() => setView({ x: 12, y: 12, k: 1 })} className="rounded border border-rule bg-sheet px-2 text-xs" aria-label="Actual size">1:1</button>
+        <button type="button" onClick={() => zoomBy(1.25)} className="rounded border border-rule bg-sheet px-2 text-sm" aria-label="Zoom in">+</button>
+        <button type="button" onClick={() => zoomBy(0.8)} className="rounded border border-rule bg-sheet px-2 text-sm" aria-label="Zoom out">−</button>
+        <button type="button" onClick={() => { setView({ x: 12, y: 12, k: 1 }); onZoomChange?.(1); }} className="rounded border border-rule bg-sheet px-2 text-xs" aria-label="Actual size">1:1</button>
       </div>
       <svg
         data-testid="schematic"
         className="sheet-grid w-full cursor-grab rounded border border-rule bg-paper active:cursor-grabbing"
         style={{ height }}
-        onWheel={(e) => zoom(e.deltaY < 0 ? 1.1 : 0.9)}
+        onWheel={(e) => zoomBy(e.deltaY < 0 ? 1.1 : 0.9)}
         onPointerDown={(e) => {
           drag.current = { x: e.clientX, y: e.clientY, vx: view.x, vy: view.y };
         }}
@@ -113,7 +119,7 @@ export function Schematic({ netlist, critical, selected, onSelect, height = 360,
         role="img"
         aria-label={`Schematic with ${netlist.gates.length} gates`}
       >
-        <g transform={`translate(${view.x},${view.y}) scale(${view.k})`}>
+        <g transform={`translate(${view.x},${view.y}) scale(${k})`}>
           {layout.edges.map((e) => (
             <polyline key={e.id} points={e.points.map((p) => `${p.x},${p.y}`).join(" ")} fill="none"
               className={critical.nets.has(e.net) ? "stroke-accent" : "stroke-graphite/70"}

@@ -1,6 +1,8 @@
 "use client";
 import Link from "next/link";
-import type { RevisionSummary } from "@/lib/client/types";
+import useSWR from "swr";
+import type { ReviewSummary, RevisionSummary } from "@/lib/client/types";
+import { StateBadge } from "@/components/review/ReviewPanel";
 import { RevisionChart } from "./RevisionChart";
 import { fmtInt, fmtNs, fmtWhen } from "@/components/workspace/format";
 
@@ -14,6 +16,11 @@ const formats = [
 /** The design's revisions, newest first, with their figures, a chart and the downloads. */
 export function RevisionsPanel({ ws, designId, revisions }: { ws: string; designId: string; revisions: RevisionSummary[] }) {
   const base = `/api/v1/workspaces/${ws}/designs/${designId}/revisions`;
+  const { data: reviews } = useSWR<{ items: ReviewSummary[] }>(`/api/v1/workspaces/${ws}/designs/${designId}/reviews`);
+  // The newest review of each revision (the list comes newest first).
+  const reviewOf = new Map<number, ReviewSummary>();
+  for (const r of reviews?.items ?? []) if (!reviewOf.has(r.revision.number)) reviewOf.set(r.revision.number, r);
+  const compare = `/w/${ws}/d/${designId}/compare`;
   return (
     <div className="grid gap-6 lg:grid-cols-[1fr_36rem]">
       <div className="overflow-x-auto">
@@ -27,6 +34,7 @@ export function RevisionsPanel({ ws, designId, revisions }: { ws: string; design
               <th className="px-2 py-1.5 text-right">Gates</th>
               <th className="px-2 py-1.5 text-right">Depth</th>
               <th className="px-2 py-1.5 text-right">Delay (est.)</th>
+              <th className="px-2 py-1.5">Review</th>
               <th className="px-2 py-1.5">Files</th>
             </tr>
           </thead>
@@ -42,6 +50,12 @@ export function RevisionsPanel({ ws, designId, revisions }: { ws: string; design
                 <td className="px-2 py-1 text-right font-mono">{fmtInt(r.stats.gates as number | undefined)}</td>
                 <td className="px-2 py-1 text-right font-mono">{fmtInt(r.stats.depth as number | undefined)}</td>
                 <td className="px-2 py-1 text-right font-mono">{fmtNs(r.stats.delayNs as number | null | undefined)}</td>
+                <td className="whitespace-nowrap px-2 py-1 text-xs" data-testid="revision-review">
+                  {reviewOf.has(r.number) && (
+                    <Link href={`${compare}?review=${reviewOf.get(r.number)!.id}`} className="mr-2"><StateBadge state={reviewOf.get(r.number)!.state} /></Link>
+                  )}
+                  {r.number > 1 && <Link href={`${compare}?from=${r.number - 1}&to=${r.number}`} className="text-accent hover:underline">compare</Link>}
+                </td>
                 <td className="whitespace-nowrap px-2 py-1 text-xs">
                   {formats.map(([f, label]) => (
                     <a key={f} href={`${base}/${r.number}/export?format=${f}`} className="mr-2 text-graphite hover:text-ink" download>
@@ -52,7 +66,7 @@ export function RevisionsPanel({ ws, designId, revisions }: { ws: string; design
               </tr>
             ))}
             {revisions.length === 0 && (
-              <tr><td colSpan={8} className="px-2 py-6 text-center text-graphite">No revisions yet — save one with Ctrl+S.</td></tr>
+              <tr><td colSpan={9} className="px-2 py-6 text-center text-graphite">No revisions yet — save one with Ctrl+S.</td></tr>
             )}
           </tbody>
         </table>

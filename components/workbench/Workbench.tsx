@@ -187,6 +187,12 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
         <span className="ml-auto flex items-center gap-3 text-sm">
           <CompileStatus phase={phase} onCancel={compile.cancel} onRetry={compile.retry} />
           {mayEdit && <DraftState status={draft.status} error={draft.error} />}
+          {latest && (
+            <Link href={`/w/${ws}/d/${designId}/compare?from=${latest.number}&to=draft`} className="text-xs text-graphite hover:text-ink"
+              title={`Compare the draft with r${latest.number}`}>
+              compare draft
+            </Link>
+          )}
           {maySave ? (
             <button type="button" onClick={() => setSaving(true)} disabled={phase.kind !== "done" || !source}
               className="rounded bg-accent px-3 py-1.5 font-semibold text-paper hover:opacity-90 disabled:opacity-50"

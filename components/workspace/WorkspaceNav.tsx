@@ -7,6 +7,8 @@ import { RoleBadge } from "@/components/ui/RoleBadge";
 
 export function WorkspaceNav({ ws }: { ws: string }) {
   const { data } = useSWR<{ workspace: WorkspaceInfo }>(`/api/v1/workspaces/${ws}`);
+  const { data: reviews } = useSWR<{ waitingForMe: unknown[] }>(`/api/v1/workspaces/${ws}/reviews`, { refreshInterval: 60_000 });
+  const waiting = reviews?.waitingForMe.length ?? 0;
   const path = usePathname();
   const link = (href: string, label: string) => (
     <Link href={href} className={path === href ? "text-ink" : "hover:text-ink"} aria-current={path === href ? "page" : undefined}>
@@ -19,6 +21,7 @@ export function WorkspaceNav({ ws }: { ws: string }) {
       {data && <RoleBadge role={data.workspace.role} />}
       {link(`/w/${ws}`, "Designs")}
       {link(`/w/${ws}/families`, "Families")}
+      {link(`/w/${ws}/reviews`, waiting ? `Reviews (${waiting})` : "Reviews")}
     </div>
   );
 }

@@ -196,6 +196,7 @@ const Comparison = z.object({
   load: z.object({ from: Json, to: Json, delta: z.number(), direction: Direction }),
   exact: z.object({ from: z.boolean(), to: z.boolean(), direction: Direction }),
   outputs: z.array(Json).nullable(),
+  outputsRecorded: z.object({ from: z.boolean(), to: z.boolean() }),
   family: z.object({ from: Json, to: Json }).nullable(),
   settings: z.array(z.object({ key: z.string(), from: z.unknown(), to: z.unknown() })),
   netlist: z.object({

@@ -74,3 +74,7 @@ export interface Page<T> {
   items: T[];
   nextCursor: string | null;
 }
+
+// Reviews and comparisons: the API's shapes, named once where the server builds them (type-only, erased in the bundle).
+export type { ReviewSummary, ReviewDetail, ReviewInbox, ReviewerView, CommentView, DecisionView, ReviewState } from "../data/reviews";
+export type { RevisionSide, RevisionComparison } from "../data/compare";

@@ -11,6 +11,7 @@ import { hashPassword } from "../auth/password";
 import { BUILT_IN_FAMILIES } from "../families";
 import { DEMO_PASSWORD, DEMO_USERS, DEMO_WORKSPACE } from "../scripts/demo.mjs";
 import { seedDemoDesigns } from "./seed-designs";
+import { seedDemoReviews } from "./seed-reviews";
 
 async function main() {
   const url = process.env.DATABASE_URL;
@@ -47,6 +48,7 @@ async function main() {
       });
     }
     await seedDemoDesigns(models, workspace, users);
+    await seedDemoReviews(models, workspace, users);
     console.log(`seeded: ${BUILT_IN_FAMILIES.length} built-in families, workspace "${workspace.name}"`);
   } finally {
     await sequelize.close();

@@ -72,6 +72,8 @@ export interface Comparison {
   exact: { from: boolean; to: boolean; direction: Direction };
   /** null when neither side recorded per-output figures. */
   outputs: OutputRow[] | null;
+  /** Which sides recorded per-output figures (revisions saved before they were kept did not). */
+  outputsRecorded: { from: boolean; to: boolean };
   /** Set when the family changed. */
   family: { from: { id: string; name: string }; to: { id: string; name: string } } | null;
   settings: SettingChange[];
@@ -159,6 +161,7 @@ export function compareFigures(from: Figures, to: Figures): Comparison {
     load: { from: lf, to: lt, delta: delta(lf.load, lt.load)!, direction: lf.over !== lt.over ? (lt.over ? "worse" : "better") : directionOf(share) },
     exact: { from: from.exact, to: to.exact, direction: exactDir },
     outputs: outputRows(from, to),
+    outputsRecorded: { from: from.outputs !== null, to: to.outputs !== null },
     family: from.family.id === to.family.id ? null : { from: from.family, to: to.family },
     settings: settingChanges(from.settings, to.settings),
     netlist: netlistChange(from, to),

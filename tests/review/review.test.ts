@@ -124,5 +124,8 @@ describe("figures set against each other", () => {
     expect(f.fanOut).toBe(8);
     expect(f.delayNs).toBeNull();
     expect(compareFigures(f, f).outputs).toBeNull();
+    // Set against a side that did record them, its outputs read as not recorded rather than added.
+    expect(compareFigures(f, base).outputsRecorded).toEqual({ from: false, to: true });
+    expect(compareFigures(f, base).outputs!.every((o) => o.from === null && o.direction === "unknown")).toBe(true);
   });
 });
