@@ -327,3 +327,27 @@ describe("comparing revisions from what they stored", () => {
     expect(none.status).toBe(404);
   });
 });
+
+describe("the demo workspace tells a review story", () => {
+  it("Ferrow controls holds an approved review and an open one whose line comments sit on the lines they discuss", async () => {
+    const rows = await db().sequelize.query<{ id: string; state: string; design: string; source: string }>(
+      `SELECT r.id, r.state::text AS state, d.name AS design, v.source FROM reviews r
+       JOIN designs d ON d.id = r.design_id JOIN revisions v ON v.id = r.revision_id
+       JOIN workspaces w ON w.id = d.workspace_id WHERE w.slug = 'ferrow-controls'`,
+      { type: QueryTypes.SELECT },
+    );
+    expect(rows.some((r) => r.state === "approved")).toBe(true);
+    const open = rows.find((r) => r.state === "open" && r.design === "Chamber interlock");
+    expect(open).toBeDefined();
+    const comments = await db().models.ReviewComment.findAll({ where: { reviewId: open!.id }, order: [["createdAt", "ASC"]] });
+    const lines = open!.source.split("\n");
+    const onLines = comments.filter((c) => c.line !== null);
+    expect(onLines.length).toBeGreaterThanOrEqual(2);
+    // The reviewer's question about the override key sits on the upper gate's permit.
+    const key = onLines.find((c) => /override key bypass/.test(c.body))!;
+    expect(lines[key.line! - 1]).toMatch(/^open_upper = .*override_key/);
+    // The demo's decisions are on record like any other.
+    const decided = rows.filter((r) => r.state !== "open");
+    for (const r of decided) expect(await db().models.ReviewDecision.count({ where: { reviewId: r.id } })).toBeGreaterThan(0);
+  });
+});
