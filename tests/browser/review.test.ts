@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Page } from "playwright-core";
-import { BASE_URL, openBrowser, screenshot, signIn, type Session } from "../support/browser";
+import { BASE_URL, openBrowser, screenshot, signIn, typeInEditor, type Session } from "../support/browser";
 import { linkTo, waitForMail } from "../support/mail";
 import { DEMO_PASSWORD } from "../../lib/scripts/demo.mjs";
 
@@ -27,9 +27,9 @@ async function api(page: Page, method: "GET" | "POST", path: string, data?: unkn
 }
 
 /**
- * Types the lines over the editor's text the way a person would. On a busy
- * machine a completion list can open late and take an Enter; the text on
- * screen is checked, and typed again when it is not what was meant.
+ * Types the lines over the editor's text the way a person would, and checks
+ * the text on screen: on a busy machine a keystroke can still go astray, and
+ * then the lines are typed again.
  */
 async function replaceText(page: Page, lines: string[]) {
   // Let the page settle first: the draft loaded and compiled.
@@ -40,11 +40,9 @@ async function replaceText(page: Page, lines: string[]) {
     await page.keyboard.press("Control+A");
     await page.keyboard.press("Delete");
     for (const [i, line] of lines.entries()) {
-      await page.keyboard.type(line);
-      await page.keyboard.press("Escape");
+      await typeInEditor(page, line);
       if (i < lines.length - 1) await page.keyboard.press("Enter");
     }
-    await page.keyboard.press("Escape");
     if ((await shown()) === lines.join("\n")) return;
   }
   expect(await shown()).toBe(lines.join("\n"));
