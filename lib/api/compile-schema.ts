@@ -97,7 +97,9 @@ export const RevisionStats = z.object({
   staticMw: z.number().nullable(),
   dynamicMw: z.number().nullable(),
   maxLoad: z.number(),
+  fanOut: z.number().nullable().describe("the fan-out limit maxLoad is held against, unit loads"),
   verified: z.boolean(),
+  byOutput: z.array(z.object({ name: z.string(), products: z.number(), literals: z.number(), exact: z.boolean() })),
 });
 
 export const CompileResultBody = z.object({
