@@ -6,9 +6,9 @@
  * the comparison's figures read back from what each revision stored.
  */
 import { beforeAll, beforeEach, describe, expect, it } from "vitest";
-import { QueryTypes } from "sequelize";
+import { QueryTypes, Sequelize } from "sequelize";
+import pg from "pg";
 import { db } from "@/lib/db/connection";
-import { limiters } from "@/lib/api/rate-limit";
 import { createRevision } from "@/lib/data/revisions";
 import * as compareRoute from "@/app/api/v1/workspaces/[ws]/designs/[designId]/compare/route";
 import * as figuresRoute from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/[number]/figures/route";
@@ -18,7 +18,7 @@ import * as reviewRoute from "@/app/api/v1/workspaces/[ws]/reviews/[reviewId]/ro
 import * as commentsRoute from "@/app/api/v1/workspaces/[ws]/reviews/[reviewId]/comments/route";
 import * as decisionsRoute from "@/app/api/v1/workspaces/[ws]/reviews/[reviewId]/decisions/route";
 import * as withdrawRoute from "@/app/api/v1/workspaces/[ws]/reviews/[reviewId]/withdraw/route";
-import { addMember, builtinFamily, call, linkIn, mailTo, makeUser, makeWorkspace, tag, type TestUser } from "./helpers";
+import { addMember, builtinFamily, call, linkIn, mailTo, makeUser, makeWorkspace, resetLimits, tag, type TestUser } from "./helpers";
 
 const V1 = `// Ferrow Lock & Weir: upper gate permit
 inputs lower_shut, level_upper, override_key, estop
@@ -71,8 +71,8 @@ beforeAll(async () => {
   designId = d.id;
 });
 
-beforeEach(() => {
-  for (const l of Object.values(limiters)) l.reset();
+beforeEach(async () => {
+  await resetLimits();
 });
 
 describe("a review from asking to approval", () => {
@@ -247,8 +247,9 @@ describe("decisions are history, guarded by the database", () => {
     await decide(reviewer, r.id, "changes-asked", "Rename the key input");
     return r.id as string;
   }
+  // The app's own connection: its role lacks the right (or, for the state of a review, a trigger refuses).
   const refused = async (sql: string, replacements: Record<string, unknown>) => {
-    await expect(db().sequelize.query(sql, { replacements })).rejects.toThrow(/history|does not reopen|without a decision/);
+    await expect(db().sequelize.query(sql, { replacements })).rejects.toThrow(/permission denied|history|does not reopen|without a decision/);
   };
 
   it("UPDATE and DELETE of a decision are refused by the database, and the row is unchanged", async () => {
@@ -274,6 +275,27 @@ describe("decisions are history, guarded by the database", () => {
     await refused("UPDATE reviews SET state = 'open' WHERE id = :id", { id });
     await refused("UPDATE reviews SET message = 'rewritten' WHERE id = :id", { id });
     expect((await getReview(reviewer, id)).json.review).toMatchObject({ state: "changes-asked", commentCount: 1 });
+  });
+
+  it.skipIf(!process.env.DATABASE_OWNER_URL)("as the owner role too, the triggers refuse changing, deleting or truncating the history", async () => {
+    const id = await decidedReview();
+    const owner = new Sequelize(process.env.DATABASE_OWNER_URL!, { dialect: "postgres", dialectModule: pg, logging: false });
+    try {
+      const q = (sql: string) => owner.query(sql, { replacements: { id } });
+      await expect(q("UPDATE review_decisions SET note = 'approved really' WHERE review_id = :id")).rejects.toThrow(/review_decisions are history: UPDATE refused/);
+      await expect(q("DELETE FROM review_decisions WHERE review_id = :id")).rejects.toThrow(/review_decisions are history: DELETE refused/);
+      await expect(q("UPDATE review_comments SET body = 'never said' WHERE review_id = :id")).rejects.toThrow(/review_comments are history/);
+      await expect(q("DELETE FROM review_reviewers WHERE review_id = :id")).rejects.toThrow(/review_reviewers are history/);
+      await expect(q("DELETE FROM reviews WHERE id = :id")).rejects.toThrow(/reviews are history: DELETE refused/);
+      await expect(q("UPDATE reviews SET state = 'open' WHERE id = :id")).rejects.toThrow(/does not reopen/);
+      await expect(q("UPDATE reviews SET message = 'rewritten' WHERE id = :id")).rejects.toThrow(/only the state/);
+      for (const t of ["reviews", "review_reviewers", "review_comments", "review_decisions"]) {
+        await expect(owner.query(`TRUNCATE ${t} CASCADE`)).rejects.toThrow(/TRUNCATE refused/);
+      }
+    } finally {
+      await owner.close();
+    }
+    expect((await getReview(reviewer, id)).json.review).toMatchObject({ state: "changes-asked", commentCount: 1, decisions: [expect.objectContaining({ note: "Rename the key input" })] });
   });
 
   it("an open review cannot be marked approved without an approval on record", async () => {

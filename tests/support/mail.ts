@@ -21,7 +21,12 @@ export async function waitForMail(to: string, subject: RegExp, timeoutMs = 15_00
   while (Date.now() < end) {
     const files = existsSync(MAIL_DIR) ? readdirSync(MAIL_DIR).filter((f) => f.endsWith(".json")).sort().reverse() : [];
     for (const f of files) {
-      const m = JSON.parse(readFileSync(path.join(MAIL_DIR, f), "utf8")) as CaughtMail;
+      let m: CaughtMail;
+      try {
+        m = JSON.parse(readFileSync(path.join(MAIL_DIR, f), "utf8")) as CaughtMail;
+      } catch {
+        continue; // being written
+      }
       if (m.to.includes(to) && subject.test(m.subject)) return m;
     }
     await new Promise((r) => setTimeout(r, 200));
