@@ -3,15 +3,14 @@ import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useMemo } from "react";
 import useSWR, { useSWRConfig } from "swr";
-import { api } from "@/lib/client/fetcher";
+import { api, ApiError } from "@/lib/client/fetcher";
 import { can } from "@/lib/auth/permissions";
-import { compareFigures, diffCounts, figuresOf, lineDiff, type Comparison, type DiffLine } from "@/lib/review";
+import type { Comparison, DiffLine } from "@/lib/review";
 import type { NetlistDocument } from "@/lib/export/json";
 import type {
-  DesignItem, Page, ReviewDetail, ReviewSummary, RevisionComparison, RevisionSide, RevisionSummary, WorkspaceInfo,
+  DesignItem, DraftComparison, Page, ReviewDetail, ReviewSummary, RevisionComparison, RevisionSummary, WorkspaceInfo,
 } from "@/lib/client/types";
-import type { WorkbenchSettings } from "@/components/workbench/types";
-import { useCompile } from "@/components/workbench/useCompile";
+import { fmtWhen } from "@/components/workspace/format";
 import { FiguresCompare } from "./FiguresCompare";
 import { SourceDiff } from "./SourceDiff";
 import { SchematicPair } from "./SchematicPair";
@@ -73,37 +72,25 @@ export function CompareView({ ws, designId, from: fromParam, to: toParam, review
   const pairKey = !waitingForReview && typeof to === "number" && from !== undefined ? `${dbase}/compare?from=${from}&to=${to}` : null;
   const { data: pair, error: pairError } = useSWR<RevisionComparison>(pairKey);
 
-  // The unsaved draft: its figures come from compiling it, the revision's from storage.
+  // The unsaved draft: the server compiles it (the workbench's compile path) and sets it against the stored revision.
   const design = designData?.design;
-  const draftSettings = useMemo(() => {
-    const { familyId: _f, ...rest } = (design?.settings ?? {}) as Record<string, unknown>;
-    return rest as WorkbenchSettings;
-  }, [design]);
   const draftMode = to === "draft";
-  const { data: fromSide, error: sideError } = useSWR<{ side: RevisionSide }>(draftMode && from !== undefined ? `${dbase}/revisions/${from}/figures` : null);
-  const compiled = useCompile(ws, draftMode ? (design?.draftSource ?? "") : "", draftMode ? design?.family.id : undefined, draftSettings);
+  const draftKey = draftMode && from !== undefined ? `${dbase}/draft/compare?from=${from}` : null;
+  const { data: draftPair, error: draftError } = useSWR<DraftComparison>(draftKey);
 
   const view: View | null = useMemo(() => {
     if (pair) return fromComparison(pair);
-    if (!draftMode || !fromSide || !design || !compiled.data?.result) return null;
-    const r = compiled.data.result;
-    const draftFigures = figuresOf({
-      stats: r.stats,
-      netlist: r.netlist,
-      family: { id: design.family.key, name: design.family.name },
-      settings: (design.settings ?? {}) as Record<string, unknown>,
-    });
-    const lines = lineDiff(fromSide.side.source, design.draftSource ?? "");
+    if (!draftMode || !draftPair) return null;
     return {
-      fromLabel: `r${fromSide.side.revision.number}`,
+      fromLabel: `r${draftPair.from.revision.number}`,
       toLabel: "draft",
-      comparison: compareFigures(fromSide.side.figures, draftFigures),
-      lines,
-      counts: diffCounts(lines),
-      from: fromSide.side,
-      to: { netlist: r.netlist, critical: { nets: r.analysis.criticalPath.nets, gates: r.analysis.criticalPath.gates } },
+      comparison: draftPair.comparison,
+      lines: draftPair.source.lines,
+      counts: { added: draftPair.source.added, removed: draftPair.source.removed },
+      from: draftPair.from,
+      to: draftPair.to,
     };
-  }, [pair, draftMode, fromSide, design, compiled.data]);
+  }, [pair, draftMode, draftPair]);
 
   const go = (f: number | undefined, t: number | "draft" | undefined, rv: string | undefined = reviewId) => {
     const q = new URLSearchParams();
@@ -120,8 +107,8 @@ export function CompareView({ ws, designId, from: fromParam, to: toParam, review
   const mayComment = role ? can(role, "review.comment") : false;
   const reviewsOfTo = typeof to === "number" ? (designReviews?.items ?? []).filter((r) => r.revision.number === to) : [];
   const openOfTo = reviewsOfTo.find((r) => r.state === "open");
-  const error = pairError ?? sideError ?? (draftMode ? compiled.error : null);
-  const compileErrors = draftMode && compiled.data && !compiled.data.result;
+  const compileErrors = draftMode && draftError instanceof ApiError && draftError.code === "compile_errors";
+  const error = pairError ?? (draftMode && !compileErrors ? draftError : null);
 
   return (
     <main className="mx-auto max-w-[100rem] px-4 py-4">
@@ -205,8 +192,12 @@ export function CompareView({ ws, designId, from: fromParam, to: toParam, review
               onAsked={(id) => { void mutateDesignReviews(); go(from, to, id); }} />
           )}
           {draftMode && (
-            <p className="rounded border border-rule bg-sheet p-3 text-sm text-graphite">
-              The draft is not a revision yet: save it in the workbench to ask for a review. Its figures here come from compiling it now.
+            <p className="rounded border border-rule bg-sheet p-3 text-sm text-graphite" data-testid="draft-note">
+              The draft is not a revision yet: save it in the workbench to ask for a review. Its figures here come from compiling it now
+              {draftPair?.to.draft.updatedAt
+                ? `, as last kept ${fmtWhen(draftPair.to.draft.updatedAt)}${draftPair.to.draft.updatedBy ? ` by ${draftPair.to.draft.updatedBy.name}` : ""}`
+                : ""}
+              .
             </p>
           )}
         </aside>

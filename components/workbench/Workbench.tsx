@@ -1,6 +1,7 @@
 "use client";
 import Link from "next/link";
 import dynamic from "next/dynamic";
+import { useRouter } from "next/navigation";
 import { useCallback, useEffect, useMemo, useState } from "react";
 import useSWR from "swr";
 import { api, ApiError } from "@/lib/client/fetcher";
@@ -61,6 +62,7 @@ function phaseOf(compile: CompileState, errors: number): Phase {
 
 /** The designer's page: equations on the left, what they become on the right, revisions below. */
 export function Workbench({ ws, designId }: { ws: string; designId: string }) {
+  const router = useRouter();
   const { data: wsData } = useSWR<{ workspace: WorkspaceInfo }>(`/api/v1/workspaces/${ws}`);
   const designUrl = `/api/v1/workspaces/${ws}/designs/${designId}`;
   const { data: designData, error: designError, mutate: mutateDesign } = useSWR<{ design: DesignItem }>(designUrl);
@@ -189,7 +191,13 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
           {mayEdit && <DraftState status={draft.status} error={draft.error} />}
           {latest && (
             <Link href={`/w/${ws}/d/${designId}/compare?from=${latest.number}&to=draft`} className="text-xs text-graphite hover:text-ink"
-              title={`Compare the draft with r${latest.number}`}>
+              title={`Compare the draft with r${latest.number}`}
+              onClick={async (e) => {
+                // The comparison compiles the draft the server keeps: send what is typed first.
+                e.preventDefault();
+                await draft.flush();
+                router.push(`/w/${ws}/d/${designId}/compare?from=${latest.number}&to=draft`);
+              }}>
               compare draft
             </Link>
           )}

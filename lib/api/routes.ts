@@ -190,6 +190,11 @@ const RevisionSide = z.object({
   netlist: Json.nullable().describe("the JSON netlist document saved with the revision"),
   critical: z.object({ nets: z.array(z.string()), gates: z.array(z.string()) }),
 });
+const SourceDiff = z.object({
+  lines: z.array(z.object({ kind: z.enum(["same", "removed", "added"]), from: z.number().nullable(), to: z.number().nullable(), text: z.string() })),
+  added: z.number(),
+  removed: z.number(),
+});
 const Direction = z.enum(["better", "worse", "same", "mixed", "unknown"]);
 const Comparison = z.object({
   figures: z.array(z.object({ key: z.string(), from: z.number().nullable(), to: z.number().nullable(), delta: z.number().nullable(), direction: Direction })),
@@ -491,13 +496,29 @@ export const routes = {
       from: RevisionSide,
       to: RevisionSide,
       comparison: Comparison,
-      source: z.object({
-        lines: z.array(z.object({ kind: z.enum(["same", "removed", "added"]), from: z.number().nullable(), to: z.number().nullable(), text: z.string() })),
-        added: z.number(),
-        removed: z.number(),
-      }),
+      source: SourceDiff,
     }),
     errors: WS,
+  }),
+  compareDraft: defineRoute({
+    method: "GET", path: "/workspaces/{ws}/designs/{designId}/draft/compare", tag: "reviews", auth: "user",
+    summary: "The unsaved draft (source, family and settings as last written) against a revision: the revision's stored figures, the draft's from compiling it on the server's compile path. Default: from the latest revision. 422 with the diagnostics when the draft has errors",
+    params: DesignParams,
+    query: z.object({ from: z.coerce.number().int().positive().optional() }),
+    response: z.object({
+      from: RevisionSide,
+      to: z.object({
+        draft: z.object({ version: z.number(), updatedAt: z.string().nullable(), updatedBy: Ref.nullable() }),
+        figures: Figures,
+        source: z.string(),
+        netlist: Json.describe("the JSON netlist document of the draft's run"),
+        critical: z.object({ nets: z.array(z.string()), gates: z.array(z.string()) }),
+      }),
+      comparison: Comparison,
+      source: SourceDiff,
+    }),
+    errors: [...WS, 422, 429],
+    limits: ["compile"],
   }),
   revisionFigures: defineRoute({
     method: "GET", path: "/workspaces/{ws}/designs/{designId}/revisions/{number}/figures", tag: "reviews", auth: "user",

@@ -77,4 +77,4 @@ export interface Page<T> {
 
 // Reviews and comparisons: the API's shapes, named once where the server builds them (type-only, erased in the bundle).
 export type { ReviewSummary, ReviewDetail, ReviewInbox, ReviewerView, CommentView, DecisionView, ReviewState } from "../data/reviews";
-export type { RevisionSide, RevisionComparison } from "../data/compare";
+export type { RevisionSide, RevisionComparison, DraftSide, DraftComparison } from "../data/compare";

@@ -2,17 +2,23 @@ import "server-only";
 /**
  * Two revisions of a design side by side. Every figure comes from what was
  * stored with each revision (its stats, its netlist, its family snapshot and
- * settings); nothing is minimized or mapped again.
+ * settings); nothing is minimized or mapped again. The unsaved draft, which
+ * has no stored figures, is compiled on the server's one compile path (the
+ * same run, and kept result, as the workbench's) and set against a stored
+ * revision.
  */
 import { db } from "../db/connection";
-import { invalid, notFound } from "../api/errors";
-import type { SavedNetlist } from "../api/compile";
+import { AppError, invalid, notFound } from "../errors";
+import { compileOnServer, type SavedNetlist } from "../runtime/compile";
 import type { NetlistDocument } from "../export";
 import type { Family } from "../families";
 import { familyFanOut } from "../families/derive";
 import { analyse } from "../analysis";
+import { resolveSettings, type DesignSettings } from "../pipeline";
 import { compareFigures, diffCounts, figuresOf, lineDiff, type Comparison, type DiffLine, type Figures } from "../review";
 import { iso, requireAccess, type Actor } from "./access";
+import { getDesign } from "./designs";
+import { familyOf } from "./families";
 
 export interface RevisionSide {
   revision: {
@@ -62,10 +68,14 @@ function fallbackFanOut(r: Rev): number | null {
 function criticalOf(r: Rev, saved: SavedNetlist | null): RevisionSide["critical"] {
   if (saved?.critical) return saved.critical;
   if (!saved?.model) return { nets: [], gates: [] };
-  const s = r.settings as { fanOut?: number; outputPinLoad?: number; clockMHz?: number; activity?: number };
+  // The options the pipeline's analysis stage gives (lib/pipeline runStages), from the stored settings.
+  const s = resolveSettings(r.settings as DesignSettings);
+  const fanOut = fallbackFanOut(r);
   const a = analyse(saved.model, r.familySnapshot as unknown as Family, {
-    ...(s.fanOut !== undefined ? { fanOut: s.fanOut } : {}),
-    ...(s.outputPinLoad !== undefined ? { outputPinLoad: s.outputPinLoad } : {}),
+    ...(fanOut !== null ? { fanOut } : {}),
+    outputPinLoad: s.outputPinLoad,
+    clockMHz: s.clockMHz,
+    activity: s.activity,
   });
   return { nets: a.criticalPath.nets, gates: a.criticalPath.gates };
 }
@@ -123,4 +133,70 @@ export async function compareRevisions(p: { actor: Actor | null; slug: string; d
   const [a, b] = await Promise.all([loadRevision(p.designId, from), loadRevision(p.designId, to)]);
   const lines = lineDiff(a.source, b.source);
   return { from: a, to: b, comparison: compareFigures(a.figures, b.figures), source: { lines, ...diffCounts(lines) } };
+}
+
+/** The design's draft as the `to` side of a comparison: figures from compiling it now. */
+export interface DraftSide {
+  draft: {
+    /** The draft's version (bumped by every write of its source, family or settings). */
+    version: number;
+    updatedAt: string | null;
+    updatedBy: { id: string; name: string } | null;
+  };
+  figures: Figures;
+  source: string;
+  netlist: NetlistDocument;
+  critical: { nets: string[]; gates: string[] };
+}
+
+export interface DraftComparison {
+  from: RevisionSide;
+  to: DraftSide;
+  comparison: Comparison;
+  source: { lines: DiffLine[]; added: number; removed: number };
+}
+
+/**
+ * Compares the design's draft (its source, family and settings as last
+ * written, not yet saved as a revision) with revision `from` (default: the
+ * latest). The revision's figures are the stored ones; the draft's come from
+ * the pipeline through the server's compile path. 400 when the design has no
+ * revision; 422 with the diagnostics when the draft has errors.
+ */
+export async function compareDraft(p: { actor: Actor | null; slug: string; designId: string; from?: number; signal?: AbortSignal }): Promise<DraftComparison> {
+  const { workspace } = await requireAccess(p.actor, p.slug, "compile.run");
+  const design = await getDesign({ actor: p.actor, slug: p.slug, designId: p.designId });
+  const latest = (await db().models.Revision.max("number", { where: { designId: design.id } })) as number | null;
+  if (!latest) throw invalid("This design has no revisions yet; save the draft as its first revision, then compare later drafts with it.");
+  const a = await loadRevision(design.id, p.from ?? latest);
+  const row = await db().models.LogicFamilyRecord.findByPk(design.family.id);
+  if (!row) throw notFound("family");
+  const family = familyOf(row);
+  const out = await compileOnServer({
+    source: design.draftSource, family, settings: design.settings, userId: p.actor!.userId, workspaceId: workspace.id,
+    ...(p.signal ? { signal: p.signal } : {}),
+  });
+  if (!out.result) {
+    throw new AppError("compile_errors", "The draft has errors, so it has no figures to compare; fix them in the workbench.", { diagnostics: out.diagnostics });
+  }
+  const r = out.result;
+  const figures = figuresOf({
+    stats: r.stats as unknown as Record<string, unknown>,
+    netlist: r.document,
+    family: { id: family.id, name: family.name },
+    settings: design.settings,
+  });
+  const lines = lineDiff(a.source, design.draftSource);
+  return {
+    from: a,
+    to: {
+      draft: { version: design.draftVersion, updatedAt: design.draftUpdatedAt, updatedBy: design.draftUpdatedBy },
+      figures,
+      source: design.draftSource,
+      netlist: r.document,
+      critical: { nets: r.analysis.criticalPath.nets, gates: r.analysis.criticalPath.gates },
+    },
+    comparison: compareFigures(a.figures, figures),
+    source: { lines, ...diffCounts(lines) },
+  };
 }

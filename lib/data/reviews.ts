@@ -20,7 +20,7 @@ import "server-only";
  */
 import { Op, QueryTypes, type Transaction } from "sequelize";
 import { db } from "../db/connection";
-import { AppError, conflict, invalid, notFound } from "../api/errors";
+import { AppError, conflict, invalid, notFound } from "../errors";
 import { can } from "../auth/permissions";
 import { sendMail, siteUrl } from "../auth/mail";
 import type { ReviewState, ReviewVerdict } from "../../models";

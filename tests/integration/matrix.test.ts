@@ -34,6 +34,7 @@ import * as table from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revision
 import * as endSessions from "@/app/api/v1/me/sessions/end/route";
 import * as verifyEmail from "@/app/api/v1/auth/verify-email/route";
 import * as compareRoute from "@/app/api/v1/workspaces/[ws]/designs/[designId]/compare/route";
+import * as draftCompareRoute from "@/app/api/v1/workspaces/[ws]/designs/[designId]/draft/compare/route";
 import * as figuresRoute from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/[number]/figures/route";
 import * as designReviews from "@/app/api/v1/workspaces/[ws]/designs/[designId]/reviews/route";
 import * as inbox from "@/app/api/v1/workspaces/[ws]/reviews/route";
@@ -293,6 +294,11 @@ const rows: Row[] = [
     expect: [401, 404, 200, 200, 200, 200],
   },
   {
+    name: "GET designs/{id}/draft/compare (the draft against r1, compiled)",
+    run: (_w, t) => call(draftCompareRoute.GET, "GET", "/c", { token: t, params: dp(), query: { from: "1" } }),
+    expect: [401, 404, 200, 200, 200, 200],
+  },
+  {
     name: "GET revisions/{n}/figures",
     run: (_w, t) => call(figuresRoute.GET, "GET", "/r", { token: t, params: { ...dp(), number: "1" } }),
     expect: [401, 404, 200, 200, 200, 200],
@@ -385,6 +391,7 @@ describe("records of another workspace are invisible (404) and unchanged", () =>
       await call(member.PATCH, "PATCH", "/m", { token: t, params: { ...op, userId: users.viewer.id }, body: { role: "owner" } }),
       await call(member.DELETE, "DELETE", "/m", { token: t, params: { ...op, userId: users.viewer.id } }),
       await call(compareRoute.GET, "GET", "/c", { token: t, params: { ...op, designId } }),
+      await call(draftCompareRoute.GET, "GET", "/c", { token: t, params: { ...op, designId } }),
       await call(figuresRoute.GET, "GET", "/r", { token: t, params: { ...op, designId, number: "1" } }),
       await call(designReviews.GET, "GET", "/rv", { token: t, params: { ...op, designId } }),
       await call(designReviews.POST, "POST", "/rv", { token: t, params: { ...op, designId }, body: { revision: 1, reviewers: [users.other.id] } }),

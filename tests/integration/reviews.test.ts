@@ -11,6 +11,7 @@ import pg from "pg";
 import { db } from "@/lib/db/connection";
 import { createRevision } from "@/lib/data/revisions";
 import * as compareRoute from "@/app/api/v1/workspaces/[ws]/designs/[designId]/compare/route";
+import * as draftCompareRoute from "@/app/api/v1/workspaces/[ws]/designs/[designId]/draft/compare/route";
 import * as figuresRoute from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/[number]/figures/route";
 import * as designReviews from "@/app/api/v1/workspaces/[ws]/designs/[designId]/reviews/route";
 import * as inbox from "@/app/api/v1/workspaces/[ws]/reviews/route";
@@ -339,6 +340,42 @@ describe("comparing revisions from what they stored", () => {
 
     const one = await call(figuresRoute.GET, "GET", "/f", { token: viewer.token, params: { ws: ws.slug, designId, number: String(a) } });
     expect(one.json.side).toEqual(res.json.from);
+  });
+
+  it("sets the unsaved draft against a stored revision, compiled on the one compile path", async () => {
+    const a = await save(designer, V1, "draft base a");
+    const b = await save(designer, V2, "draft base b");
+    await db().models.Design.update({ draftSource: V1 }, { where: { id: designId } });
+    const res = await call(draftCompareRoute.GET, "GET", "/c", { token: viewer.token, params: { ws: ws.slug, designId } });
+    expect(res.status, JSON.stringify(res.json)).toBe(200);
+    // Default: against the latest revision.
+    expect(res.json.from.revision.number).toBe(b);
+    expect(res.json.to.source).toBe(V1);
+    // The draft is r(a)'s text with the same family and settings, so its fresh figures are the ones r(a) stored.
+    const ra = (await db().models.Revision.findOne({ where: { designId, number: a } }))!;
+    for (const k of ["gates", "depth", "packages", "transistors", "delayNs", "staticMw", "dynamicMw", "products", "literals"]) {
+      expect(res.json.to.figures[k], k).toEqual(ra.stats[k]);
+    }
+    expect(res.json.to.figures.outputs).toEqual(ra.stats.byOutput);
+    expect(res.json.comparison.family).toBeNull();
+    expect(res.json.comparison.settings).toEqual([]);
+    // x·y → x·(y + k): back to two products (distributive law, any textbook).
+    expect(res.json.comparison.outputs).toEqual([expect.objectContaining({ name: "open_upper", from: expect.objectContaining({ products: 1 }), to: expect.objectContaining({ products: 2 }), direction: "worse" })]);
+    expect(res.json.source).toMatchObject({ added: 1, removed: 1 });
+    const pair = await call(compareRoute.GET, "GET", "/c", { token: viewer.token, params: { ws: ws.slug, designId }, query: { from: String(b), to: String(a) } });
+    expect(res.json.comparison.figures).toEqual(pair.json.comparison.figures);
+
+    const older = await call(draftCompareRoute.GET, "GET", "/c", { token: viewer.token, params: { ws: ws.slug, designId }, query: { from: String(a) } });
+    expect(older.json.from.revision.number).toBe(a);
+    expect(older.json.source).toMatchObject({ added: 0, removed: 0 });
+    expect(older.json.comparison.figures.every((f: { delta: number | null }) => f.delta === 0 || f.delta === null)).toBe(true);
+
+    await db().models.Design.update({ draftSource: V1.replace("outputs open_upper", "outputs open_upper\nopen_upper = nowhere") }, { where: { id: designId } });
+    const broken = await call(draftCompareRoute.GET, "GET", "/c", { token: viewer.token, params: { ws: ws.slug, designId } });
+    expect(broken.status).toBe(422);
+    expect(broken.json.error.message).toMatch(/draft has errors/);
+    expect(broken.json.error.details.diagnostics.length).toBeGreaterThan(0);
+    await db().models.Design.update({ draftSource: V1 }, { where: { id: designId } });
   });
 
   it("says what to change when there is nothing before, or no such revision", async () => {
