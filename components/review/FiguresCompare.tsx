@@ -1,6 +1,6 @@
 "use client";
 import { directionOf, type Comparison } from "@/lib/review";
-import { DIRECTION_WORDS, FIGURE_LABELS, SETTING_LABELS, directionClass, fmtDelta, fmtFigure, fmtSetting } from "./format";
+import { DIRECTION_WORDS, FIGURE_LABELS, SETTING_LABELS, directionClass, fmtDelta, fmtFigure, fmtSetting, powerUnit } from "./format";
 
 const th = "px-2 py-1.5";
 
@@ -18,19 +18,22 @@ export function FiguresCompare({ comparison: c, fromLabel, toLabel }: { comparis
           </tr>
         </thead>
         <tbody className="tabular">
-          {c.figures.map((r) => (
-            <tr key={r.key} className="border-b border-rule/50" data-figure={r.key} data-direction={r.direction}>
-              <td className="px-2 py-1">
-                {FIGURE_LABELS[r.key].label}
-                {FIGURE_LABELS[r.key].estimate && <span className="text-graphite"> (est.)</span>}
-              </td>
-              <td className="px-2 py-1 text-right font-mono">{fmtFigure(r.key, r.from)}</td>
-              <td className="px-2 py-1 text-right font-mono">{fmtFigure(r.key, r.to)}</td>
-              <td className={`px-2 py-1 text-right font-mono font-semibold ${directionClass(r.direction)}`} title={DIRECTION_WORDS[r.direction]}>
-                {fmtDelta(r.key, r.delta)}
-              </td>
-            </tr>
-          ))}
+          {c.figures.map((r) => {
+            const unit = r.key === "staticMw" || r.key === "dynamicMw" ? powerUnit(r.from, r.to) : undefined;
+            return (
+              <tr key={r.key} className="border-b border-rule/50" data-figure={r.key} data-direction={r.direction}>
+                <td className="px-2 py-1">
+                  {FIGURE_LABELS[r.key].label}
+                  {FIGURE_LABELS[r.key].estimate && <span className="text-graphite"> (est.)</span>}
+                </td>
+                <td className="px-2 py-1 text-right font-mono">{fmtFigure(r.key, r.from, unit)}</td>
+                <td className="px-2 py-1 text-right font-mono">{fmtFigure(r.key, r.to, unit)}</td>
+                <td className={`px-2 py-1 text-right font-mono font-semibold ${directionClass(r.direction)}`} title={DIRECTION_WORDS[r.direction]}>
+                  {fmtDelta(r.key, r.delta, unit)}
+                </td>
+              </tr>
+            );
+          })}
           <tr className="border-b border-rule/50" data-figure="load" data-direction={c.load.direction}>
             <td className="px-2 py-1">Heaviest load / fan-out limit <span className="text-graphite">(est.)</span></td>
             {[c.load.from, c.load.to].map((s, i) => (

@@ -1,7 +1,8 @@
 "use client";
 import Link from "next/link";
 import useSWR from "swr";
-import type { ReviewInbox, ReviewSummary } from "@/lib/client/types";
+import type { ReviewInbox, ReviewSummary, WorkspaceInfo } from "@/lib/client/types";
+import { can } from "@/lib/auth/permissions";
 import { fmtWhen } from "@/components/workspace/format";
 import { StateBadge } from "./ReviewPanel";
 
@@ -44,6 +45,9 @@ function ReviewTable({ ws, items, empty, testId }: { ws: string; items: ReviewSu
 /** The reviewer's page: what waits for me, what I asked for, and the workspace's recent decisions. */
 export function ReviewsInbox({ ws }: { ws: string }) {
   const { data, error } = useSWR<ReviewInbox>(`/api/v1/workspaces/${ws}/reviews`);
+  const { data: wsData } = useSWR<{ workspace: WorkspaceInfo }>(`/api/v1/workspaces/${ws}`);
+  // Reviewers and viewers do not ask for reviews: no empty "asked by me" list for them.
+  const mayAsk = wsData ? can(wsData.workspace.role, "review.request") : false;
   if (error) return <main className="p-8 text-vermilion" role="alert">{error.message}</main>;
   return (
     <main className="mx-auto max-w-[100rem] space-y-6 px-4 py-6">
@@ -56,10 +60,12 @@ export function ReviewsInbox({ ws }: { ws: string }) {
             <h2 className="mb-2 text-xs uppercase tracking-wide text-graphite">Waiting for me ({data.waitingForMe.length})</h2>
             <ReviewTable ws={ws} items={data.waitingForMe} testId="waiting-for-me" empty="Nothing waits for your decision." />
           </section>
-          <section className="rounded border border-rule bg-sheet p-3">
-            <h2 className="mb-2 text-xs uppercase tracking-wide text-graphite">Asked by me</h2>
-            <ReviewTable ws={ws} items={data.askedByMe} testId="asked-by-me" empty="You have not asked for a review here. Open a design's revisions and choose compare to ask." />
-          </section>
+          {(mayAsk || data.askedByMe.length > 0) && (
+            <section className="rounded border border-rule bg-sheet p-3">
+              <h2 className="mb-2 text-xs uppercase tracking-wide text-graphite">Asked by me</h2>
+              <ReviewTable ws={ws} items={data.askedByMe} testId="asked-by-me" empty="You have not asked for a review here. Open a design's revisions and choose compare to ask." />
+            </section>
+          )}
           <section className="rounded border border-rule bg-sheet p-3">
             <h2 className="mb-2 text-xs uppercase tracking-wide text-graphite">Recent decisions</h2>
             <ol className="space-y-1 text-sm" data-testid="recent-decisions">

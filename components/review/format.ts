@@ -15,23 +15,36 @@ export const FIGURE_LABELS: Record<FigureKey, { label: string; estimate?: boolea
   literals: { label: "Literals" },
 };
 
-export function fmtFigure(key: FigureKey, v: number | null): string {
+export type PowerUnit = "µW" | "mW";
+
+/** One unit for a row of power figures (both sides and the change), so they read alike: µW when all are under 1 mW. */
+export function powerUnit(...mw: Array<number | null>): PowerUnit {
+  return Math.max(0, ...mw.map((v) => Math.abs(v ?? 0))) < 1 ? "µW" : "mW";
+}
+
+function fmtPower(mw: number, unit: PowerUnit): string {
+  const v = unit === "µW" ? mw * 1000 : mw;
+  return unit === "µW" ? `${v.toFixed(v < 100 ? 1 : 0)} µW` : `${v.toFixed(v < 10 ? 2 : 1)} mW`;
+}
+
+/** A figure as the compare table shows it; power in `unit` when given (see {@link powerUnit}). */
+export function fmtFigure(key: FigureKey, v: number | null, unit?: PowerUnit): string {
   if (v === null) return "—";
   if (key === "delayNs") return fmtNs(v);
-  if (key === "staticMw" || key === "dynamicMw") return fmtMw(v);
+  if (key === "staticMw" || key === "dynamicMw") return unit ? fmtPower(v, unit) : fmtMw(v);
   return String(v);
 }
 
 const MINUS = "\u2212";
 
 /** A signed change: "+2", "−1.3 ns", "±0". */
-export function fmtDelta(key: FigureKey | "load", d: number | null): string {
+export function fmtDelta(key: FigureKey | "load", d: number | null, unit?: PowerUnit): string {
   if (d === null) return "—";
   if (d === 0) return "±0";
   const sign = d > 0 ? "+" : MINUS;
   const a = Math.abs(d);
   if (key === "delayNs") return `${sign}${fmtNs(a)}`;
-  if (key === "staticMw" || key === "dynamicMw") return `${sign}${fmtMw(a)}`;
+  if (key === "staticMw" || key === "dynamicMw") return `${sign}${unit ? fmtPower(a, unit) : fmtMw(a)}`;
   return `${sign}${Number.isInteger(a) ? a : a.toFixed(2)}`;
 }
 

@@ -48,6 +48,11 @@ async function replaceText(page: Page, lines: string[]) {
   expect(await shown()).toBe(lines.join("\n"));
 }
 
+/** Both schematics laid out (ELK runs off the main thread), so a screenshot shows them. */
+async function bothDrawn(page: Page) {
+  await expect.poll(() => page.locator('[data-testid="schematic-pair"] [data-testid="schematic"]').count(), { timeout: 20_000 }).toBe(2);
+}
+
 async function askForReview(page: Page, number: number, message: string) {
   await page.getByRole("button", { name: `Ask for review of r${number}` }).click();
   await page.getByLabel("Rhian Tull").check();
@@ -116,6 +121,7 @@ describe("a review in chromium: ask, mail, line comment, changes asked, new revi
     await page.getByRole("button", { name: "Add line comment" }).click();
     await expect.poll(() => page.locator('[data-testid="line-comments"][data-line="4"]').innerText(), { timeout: 15_000 }).toContain("head of water");
     expect(await page.locator('tr[data-line="4"] [data-testid="line-glyph"]').count()).toBe(1);
+    await bothDrawn(page);
     await screenshot(page, "review-line-comment");
 
     // The navigation counts what waits for the reviewer; deciding takes this review off it.
@@ -128,6 +134,7 @@ describe("a review in chromium: ask, mail, line comment, changes asked, new revi
     await expect.poll(waiting, { timeout: 15_000 }).toBe(before - 1);
     await expect.poll(() => page.locator('[data-testid="review-panel"] [data-state]').first().getAttribute("data-state"), { timeout: 15_000 }).toBe("changes-asked");
     expect(await page.locator('[data-testid="decisions"]').innerText()).toContain("Let the key work only with the paddles shut.");
+    await bothDrawn(page);
     await screenshot(page, "review-changes-asked");
     expect(reviewer.outside).toEqual([]);
   });
@@ -147,6 +154,21 @@ describe("a review in chromium: ask, mail, line comment, changes asked, new revi
     await page.goto(`${BASE_URL}/w/${WS}/d/${designId}`);
     await page.waitForSelector(".monaco-editor textarea");
     await replaceText(page, R3_LINES);
+    await expect.poll(() => page.getByTestId("compile-status").innerText(), { timeout: 30_000 }).toContain("up to date");
+
+    // Before saving, the unsaved draft against r2: the server compiles what was typed (the link sends it first).
+    await page.getByRole("link", { name: "compare draft" }).click();
+    await page.waitForURL(/\/compare\?from=2&to=draft/);
+    await page.waitForSelector('[data-testid="figures-compare"]', { timeout: 30_000 });
+    expect(await page.locator("#cmp-to").inputValue()).toBe("draft");
+    // Lines 2 (the new input) and 4 (the gated key term) changed; lines 1 and 3 kept.
+    expect(await page.locator('[data-testid="source-diff"] tr[data-kind="added"]').count()).toBe(2);
+    expect(await page.locator('[data-testid="source-diff"] tr[data-kind="removed"]').count()).toBe(2);
+    await expect.poll(() => page.locator('[data-testid="schematic-pair"] [data-testid="schematic"]').count(), { timeout: 20_000 }).toBe(2);
+    expect(await page.getByTestId("draft-note").innerText()).toMatch(/last kept .* by /);
+    await screenshot(page, "review-draft-compare");
+    await page.goto(`${BASE_URL}/w/${WS}/d/${designId}`);
+    await page.waitForSelector(".monaco-editor textarea");
     await expect.poll(() => page.getByTestId("compile-status").innerText(), { timeout: 30_000 }).toContain("up to date");
     await page.keyboard.press("Control+s");
     await page.fill("#rev-message", "The override key needs the paddles shut");
@@ -171,6 +193,7 @@ describe("a review in chromium: ask, mail, line comment, changes asked, new revi
     await page.fill("#decision-note", "The key is safe with the paddles shut. Approved.");
     await page.getByRole("button", { name: "Approve" }).click();
     await expect.poll(() => page.locator('[data-testid="review-panel"] [data-state]').first().getAttribute("data-state"), { timeout: 15_000 }).toBe("approved");
+    await bothDrawn(page);
     await screenshot(page, "review-approved");
 
     await page.goto(`${BASE_URL}/w/${WS}/reviews`);
@@ -179,6 +202,8 @@ describe("a review in chromium: ask, mail, line comment, changes asked, new revi
     await expect.poll(() => recent.count()).toBe(2);
     expect(await recent.first().innerText()).toMatch(/approved/);
     expect(await recent.nth(1).innerText()).toMatch(/changes asked/);
+    // A reviewer does not ask for reviews, so the page has no "asked by me" list for them.
+    expect(await page.getByTestId("asked-by-me").count()).toBe(0);
     await screenshot(page, "reviews-page");
 
     await page.goto(`${BASE_URL}/w/${WS}/d/${designId}`);
