@@ -28,7 +28,8 @@ export interface FamilyDerived {
 }
 
 const abs = Math.abs;
-const fmt = (x: number) => (Number.isInteger(x) ? String(x) : String(Number(x.toPrecision(6))));
+/** A number as the formulas show it: at most six significant digits. */
+export const fmtFigure = (x: number) => (Number.isInteger(x) ? String(x) : String(Number(x.toPrecision(6))));
 
 /** 10 %–90 % rise time of a single RC stage: t = R·C·ln 9 ≈ 2.2·R·C. R in Ω, C in pF, result in ns. */
 export function riseTimeNs(ohms: number, pf: number): number {
@@ -40,20 +41,23 @@ export const DEFAULT_FAN_OUT = 10;
 /** Default widest gate when a family gives neither gates nor a fan-in. */
 export const DEFAULT_FAN_IN = 4;
 
-function missing(unit: string, what: string): DerivedFigure {
+/** A figure that cannot be computed, saying what is missing. */
+export function missingFigure(unit: string, what: string): DerivedFigure {
   return { value: null, unit, formula: `not estimated: ${what}`, missing: what };
 }
 
-function dcLow(iolMa: number | undefined, iilMa: number | undefined): DerivedFigure {
-  if (iolMa === undefined || iilMa === undefined) return missing("unit loads", "IOL and IIL are needed");
+/** Inputs one output may hold low: floor(IOL / |IIL|). */
+export function dcFanOutLowFigure(iolMa: number | undefined, iilMa: number | undefined): DerivedFigure {
+  if (iolMa === undefined || iilMa === undefined) return missingFigure("unit loads", "IOL and IIL are needed");
   const v = Math.floor(abs(iolMa) / abs(iilMa) + 1e-9);
-  return { value: v, unit: "unit loads", formula: `floor(IOL / |IIL|) = floor(${fmt(abs(iolMa))} mA / ${fmt(abs(iilMa))} mA) = ${v}` };
+  return { value: v, unit: "unit loads", formula: `floor(IOL / |IIL|) = floor(${fmtFigure(abs(iolMa))} mA / ${fmtFigure(abs(iilMa))} mA) = ${v}` };
 }
 
-function dcHigh(iohMa: number | undefined, iihMa: number | undefined): DerivedFigure {
-  if (iohMa === undefined || iihMa === undefined) return missing("unit loads", "IOH and IIH are needed");
+/** Inputs one output may hold high: floor(|IOH| / IIH). */
+export function dcFanOutHighFigure(iohMa: number | undefined, iihMa: number | undefined): DerivedFigure {
+  if (iohMa === undefined || iihMa === undefined) return missingFigure("unit loads", "IOH and IIH are needed");
   const v = Math.floor(abs(iohMa) / abs(iihMa) + 1e-9);
-  return { value: v, unit: "unit loads", formula: `floor(|IOH| / IIH) = floor(${fmt(abs(iohMa))} mA / ${fmt(abs(iihMa))} mA) = ${v}` };
+  return { value: v, unit: "unit loads", formula: `floor(|IOH| / IIH) = floor(${fmtFigure(abs(iohMa))} mA / ${fmtFigure(abs(iihMa))} mA) = ${v}` };
 }
 
 /**
@@ -66,15 +70,15 @@ export function acFanOutFigure(
   inputCapPf: number | undefined,
   wiringPf = 0,
 ): DerivedFigure {
-  if (maxTransitionNs === undefined) return missing("unit loads", "no transition-time limit given");
-  if (ohms === undefined) return missing("unit loads", "output resistance is needed");
-  if (inputCapPf === undefined) return missing("unit loads", "input capacitance is needed");
+  if (maxTransitionNs === undefined) return missingFigure("unit loads", "no transition-time limit given");
+  if (ohms === undefined) return missingFigure("unit loads", "output resistance is needed");
+  if (inputCapPf === undefined) return missingFigure("unit loads", "input capacitance is needed");
   const cMax = (maxTransitionNs * 1000) / (2.2 * ohms);
   const v = Math.max(0, Math.floor((cMax - wiringPf) / inputCapPf + 1e-9));
   return {
     value: v,
     unit: "unit loads",
-    formula: `t ≈ 2.2·R·C with C = n·C_in + C_wire: n = floor((${fmt(maxTransitionNs)} ns / (2.2 · ${fmt(ohms)} Ω) − ${fmt(wiringPf)} pF) / ${fmt(inputCapPf)} pF) = ${v}`,
+    formula: `t ≈ 2.2·R·C with C = n·C_in + C_wire: n = floor((${fmtFigure(maxTransitionNs)} ns / (2.2 · ${fmtFigure(ohms)} Ω) − ${fmtFigure(wiringPf)} pF) / ${fmtFigure(inputCapPf)} pF) = ${v}`,
   };
 }
 
@@ -109,13 +113,13 @@ export function widthsOf(family: Family, type: GateType): number[] {
 
 /** Derived figures of a family, each with its formula. */
 export function deriveFamily(family: Family): FamilyDerived {
-  const lo = dcLow(family.iolMa, family.iilMa);
-  const hi = dcHigh(family.iohMa, family.iihMa);
+  const lo = dcFanOutLowFigure(family.iolMa, family.iilMa);
+  const hi = dcFanOutHighFigure(family.iohMa, family.iihMa);
   let dc: DerivedFigure;
   if (lo.value !== null && hi.value !== null) {
     const v = Math.min(lo.value, hi.value);
     dc = { value: v, unit: "unit loads", formula: `min(${lo.value}, ${hi.value}) = ${v}` };
-  } else dc = missing("unit loads", "IOL, IIL, IOH and IIH are needed");
+  } else dc = missingFigure("unit loads", "IOL, IIL, IOH and IIH are needed");
   const ac = acFanOutFigure(family.outputOhms, family.maxTransitionNs, family.inputCapPf, family.wiringPf ?? 0);
 
   let fanOut: DerivedFigure;
@@ -146,115 +150,22 @@ export function deriveFamily(family: Family): FamilyDerived {
 
   const nmh =
     family.vohMin !== undefined && family.vihMin !== undefined
-      ? { value: round(family.vohMin - family.vihMin), unit: "V", formula: `NMH = VOH(min) − VIH(min) = ${fmt(family.vohMin)} − ${fmt(family.vihMin)} = ${fmt(round(family.vohMin - family.vihMin))} V` }
-      : missing("V", "VOH(min) and VIH(min) are needed");
+      ? { value: roundFigure(family.vohMin - family.vihMin), unit: "V", formula: `NMH = VOH(min) − VIH(min) = ${fmtFigure(family.vohMin)} − ${fmtFigure(family.vihMin)} = ${fmtFigure(roundFigure(family.vohMin - family.vihMin))} V` }
+      : missingFigure("V", "VOH(min) and VIH(min) are needed");
   const nml =
     family.vilMax !== undefined && family.volMax !== undefined
-      ? { value: round(family.vilMax - family.volMax), unit: "V", formula: `NML = VIL(max) − VOL(max) = ${fmt(family.vilMax)} − ${fmt(family.volMax)} = ${fmt(round(family.vilMax - family.volMax))} V` }
-      : missing("V", "VIL(max) and VOL(max) are needed");
+      ? { value: roundFigure(family.vilMax - family.volMax), unit: "V", formula: `NML = VIL(max) − VOL(max) = ${fmtFigure(family.vilMax)} − ${fmtFigure(family.volMax)} = ${fmtFigure(roundFigure(family.vilMax - family.volMax))} V` }
+      : missingFigure("V", "VIL(max) and VOL(max) are needed");
 
   return { dcFanOutLow: lo, dcFanOutHigh: hi, dcFanOut: dc, acFanOut: ac, fanOut, fanIn, nmh, nml };
 }
 
-function round(x: number): number {
+/** Rounds to 1e-6, so that 2.4 − 2.0 shows as 0.4. */
+export function roundFigure(x: number): number {
   return Math.round(x * 1e6) / 1e6;
 }
 
 /** The fan-out the mapper uses, in unit loads (see deriveFamily). */
 export function familyFanOut(family: Family): number {
   return deriveFamily(family).fanOut.value ?? DEFAULT_FAN_OUT;
-}
-
-export interface Compatibility {
-  /** true / false when the levels are known, null when the figures are missing. */
-  compatible: boolean | null;
-  highOk: boolean | null;
-  lowOk: boolean | null;
-  /** Margins at the interface: driver VOH(min) − receiver VIH(min), receiver VIL(max) − driver VOL(max). */
-  nmh: DerivedFigure;
-  nml: DerivedFigure;
-  /** How many receiver inputs one driver output may feed (DC and AC limits), null when not known. */
-  receivers: DerivedFigure;
-  /** Which output operating point the figures use. */
-  point: "light" | "rated" | null;
-  messages: string[];
-}
-
-/**
- * Whether a driver family's output levels satisfy a receiver family's input
- * thresholds, and how many receiver inputs one driver output may feed. When
- * the driver gives a heavier rated point as well, the check uses the light
- * point if its levels pass and its current feeds at least one receiver, and
- * the rated point otherwise.
- */
-export function compatibility(driver: Family, receiver: Family): Compatibility {
-  const points: { name: "light" | "rated"; voh?: number; vol?: number; ioh?: number; iol?: number }[] = [
-    { name: "light", voh: driver.vohMin, vol: driver.volMax, ioh: driver.iohMa, iol: driver.iolMa },
-  ];
-  if (driver.ratedDrive) {
-    const r = driver.ratedDrive;
-    points.push({ name: "rated", voh: r.vohMin, vol: r.volMax, ioh: r.iohMa, iol: r.iolMa });
-  }
-  const messages: string[] = [];
-  let best: Compatibility | null = null;
-  let bestPoint = points[0]!;
-  for (const p of points) {
-    const highOk = p.voh !== undefined && receiver.vihMin !== undefined ? p.voh >= receiver.vihMin - 1e-9 : null;
-    const lowOk = p.vol !== undefined && receiver.vilMax !== undefined ? p.vol <= receiver.vilMax + 1e-9 : null;
-    const compatible = highOk === null || lowOk === null ? null : highOk && lowOk;
-    const nmh: DerivedFigure =
-      p.voh !== undefined && receiver.vihMin !== undefined
-        ? { value: round(p.voh - receiver.vihMin), unit: "V", formula: `VOH(min) − VIH(min) = ${fmt(p.voh)} − ${fmt(receiver.vihMin)} = ${fmt(round(p.voh - receiver.vihMin))} V` }
-        : missing("V", "driver VOH(min) and receiver VIH(min) are needed");
-    const nml: DerivedFigure =
-      p.vol !== undefined && receiver.vilMax !== undefined
-        ? { value: round(receiver.vilMax - p.vol), unit: "V", formula: `VIL(max) − VOL(max) = ${fmt(receiver.vilMax)} − ${fmt(p.vol)} = ${fmt(round(receiver.vilMax - p.vol))} V` }
-        : missing("V", "driver VOL(max) and receiver VIL(max) are needed");
-    const lo = dcLow(p.iol, receiver.iilMa);
-    const hi = dcHigh(p.ioh, receiver.iihMa);
-    const ac = acFanOutFigure(driver.outputOhms, receiver.maxTransitionNs, receiver.inputCapPf, receiver.wiringPf ?? driver.wiringPf ?? 0);
-    const known = [lo.value, hi.value, ac.value].filter((x): x is number => x !== null);
-    const receivers: DerivedFigure =
-      compatible === false
-        ? { value: 0, unit: "receivers", formula: "levels are not compatible" }
-        : known.length === 0
-          ? missing("receivers", "driver output currents and receiver input currents are needed")
-          : {
-              value: Math.min(...known),
-              unit: "receivers",
-              formula: `min(${[lo, hi, ac].filter((f) => f.value !== null).map((f) => f.formula).join("; ")}) = ${Math.min(...known)}`,
-            };
-    const c: Compatibility = { compatible, highOk, lowOk, nmh, nml, receivers, point: p.name, messages: [] };
-    if (best === null) best = c;
-    if (compatible === true && (receivers.value ?? 1) >= 1) {
-      best = c;
-      bestPoint = p;
-      break;
-    }
-  }
-  const c = best!;
-  if (c.highOk === false) messages.push(`${driver.name} guarantees a high of only ${bestPoint.voh} V, below the ${receiver.vihMin} V that ${receiver.name} needs to read a high`);
-  if (c.lowOk === false) messages.push(`${driver.name} may drive a low of up to ${bestPoint.vol} V, above the ${receiver.vilMax} V that ${receiver.name} reads as low`);
-  if (c.compatible === null) messages.push("levels not checked: the driver's output levels or the receiver's input thresholds are missing");
-  if (c.receivers.missing) messages.push(`receivers per output not estimated: ${c.receivers.missing}`);
-  c.messages = messages;
-  return c;
-}
-
-export interface CompatibilityCell {
-  driver: string;
-  receiver: string;
-  compatible: boolean | null;
-  receivers: number | null;
-}
-
-/** Every driver → receiver pair of the given families (row-major: drivers outer). */
-export function compatibilityMatrix(families: readonly Family[]): CompatibilityCell[] {
-  const out: CompatibilityCell[] = [];
-  for (const d of families)
-    for (const r of families) {
-      const c = compatibility(d, r);
-      out.push({ driver: d.id, receiver: r.id, compatible: c.compatible, receivers: c.receivers.value });
-    }
-  return out;
 }

@@ -2,4 +2,6 @@
 export * from "./types";
 export * from "./builtin";
 export * from "./derive";
+export * from "./compat";
+export * from "./figures";
 export * from "./validate";

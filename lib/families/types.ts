@@ -47,6 +47,12 @@ export interface FamilyFigures {
   vihMin?: number;
   /** Highest input level read as low, V. */
   vilMax?: number;
+  /**
+   * Highest voltage an input tolerates (its absolute maximum), V. A CMOS
+   * driver swings to its own supply, so one whose supply is higher cannot
+   * feed these inputs directly.
+   */
+  inputMaxV?: number;
   /** Output high current at which VOH(min) holds, mA (sourcing; sign ignored). */
   iohMa?: number;
   /** Output low current at which VOL(max) holds, mA. */

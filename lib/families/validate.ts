@@ -6,17 +6,13 @@
 import type { Family, FigureKey } from "./types";
 import { GATE_TYPES, MAX_FAN_OUT, MAX_GATE_WIDTH, MAX_PER_PACKAGE } from "./types";
 import { deriveFamily } from "./derive";
+import { FIGURES, rangeText } from "./figures";
 
 export interface FamilyProblem {
   field: string;
   message: string;
 }
 
-const POSITIVE: FigureKey[] = [
-  "supplyV", "inputCapPf", "outputOhms", "maxTransitionNs", "intrinsicNs",
-];
-const NON_NEGATIVE: FigureKey[] = ["vohMin", "volMax", "vihMin", "vilMax", "wiringPf", "perLoadNs", "staticMaPerGate", "powerCapPf", "ttlHighInputMa"];
-const CURRENTS: FigureKey[] = ["iohMa", "iolMa", "iihMa", "iilMa"];
 const TECHNOLOGIES = ["bipolar", "cmos", "other"];
 
 const isObject = (v: unknown): v is Record<string, unknown> => typeof v === "object" && v !== null && !Array.isArray(v);
@@ -54,49 +50,53 @@ export function validateFamily(input: unknown): FamilyProblem[] {
   if (f.description !== undefined && typeof f.description !== "string") add("description", "description must be text");
 
   // A figure that is present but not a finite number is reported once, and later checks skip it.
-  const figure = (k: string): number | undefined => {
+  const figure = (k: string, what = k): number | undefined => {
     const v = f[k];
     if (v === undefined) return undefined;
     if (!isNum(v)) {
-      add(k, `${k} must be a number, not ${show(v)}`);
+      add(k, `${what} must be a number, not ${show(v)}`);
       return undefined;
     }
     return v;
   };
   const fig: Partial<Record<FigureKey, number>> = {};
-  for (const k of POSITIVE) {
-    const v = figure(k);
-    if (v !== undefined && v <= 0) add(k, `${k} must be greater than 0`);
-    else if (v !== undefined) fig[k] = v;
-  }
-  for (const k of NON_NEGATIVE) {
-    const v = figure(k);
-    if (v !== undefined && v < 0) add(k, `${k} must not be negative`);
-    else if (v !== undefined) fig[k] = v;
-  }
-  for (const k of CURRENTS) {
-    const v = figure(k);
-    if (v === 0) add(k, `${k} must not be 0 (give its magnitude in mA)`);
-    else if (v !== undefined) fig[k] = v;
+  for (const spec of FIGURES) {
+    const v = figure(spec.key, `${spec.symbol} (${spec.label}) in ${spec.unit}`);
+    if (v === undefined) continue;
+    const m = spec.signed ? Math.abs(v) : v;
+    const low = spec.minExclusive ? m <= spec.min : m < spec.min;
+    if (low || m > spec.max) add(spec.key, `${spec.symbol} (${spec.label}) must be ${rangeText(spec)}; got ${v}`);
+    else fig[spec.key] = v;
   }
   if (f.fanIn !== undefined && (!isWhole(f.fanIn) || f.fanIn < 2 || f.fanIn > MAX_GATE_WIDTH)) {
-    add("fanIn", `fanIn must be a whole number from 2 to ${MAX_GATE_WIDTH}`);
+    add("fanIn", `the fan-in limit (fanIn) must be a whole number of inputs from 2 to ${MAX_GATE_WIDTH}; got ${show(f.fanIn)}`);
   }
   if (f.fanOut !== undefined && (!isWhole(f.fanOut) || f.fanOut < 2 || f.fanOut > MAX_FAN_OUT)) {
-    add("fanOut", `fanOut must be a whole number from 2 to ${MAX_FAN_OUT} (a buffer must be able to drive more than one load)`);
+    add("fanOut", `the fan-out (fanOut) must be a whole number of unit loads from 2 to ${MAX_FAN_OUT} (a buffer must be able to drive more than one load); got ${show(f.fanOut)}`);
   }
   const { vohMin, volMax, vihMin, vilMax, supplyV } = fig;
-  if (vohMin !== undefined && vihMin !== undefined && vohMin <= vihMin) add("vohMin", "VOH(min) must be above VIH(min), or the family cannot drive its own inputs high");
-  if (volMax !== undefined && vilMax !== undefined && volMax >= vilMax) add("volMax", "VOL(max) must be below VIL(max), or the family cannot drive its own inputs low");
-  if (vilMax !== undefined && vihMin !== undefined && vilMax >= vihMin) add("vilMax", "VIL(max) must be below VIH(min)");
-  if (supplyV !== undefined && vohMin !== undefined && vohMin > supplyV) add("vohMin", "VOH(min) cannot exceed the supply voltage");
+  if (vohMin !== undefined && vihMin !== undefined && vohMin <= vihMin) {
+    add("vohMin", `VOH(min) must be above VIH(min), or the family cannot drive its own inputs high: VOH(min) ${vohMin} V, VIH(min) ${vihMin} V`);
+  }
+  if (volMax !== undefined && vilMax !== undefined && volMax >= vilMax) {
+    add("volMax", `VOL(max) must be below VIL(max), or the family cannot drive its own inputs low: VOL(max) ${volMax} V, VIL(max) ${vilMax} V`);
+  }
+  if (vilMax !== undefined && vihMin !== undefined && vilMax >= vihMin) add("vilMax", `VIL(max) must be below VIH(min): VIL(max) ${vilMax} V, VIH(min) ${vihMin} V`);
+  if (supplyV !== undefined && vohMin !== undefined && vohMin > supplyV) add("vohMin", `VOH(min) ${vohMin} V cannot exceed the supply voltage ${supplyV} V`);
+  if (supplyV !== undefined && vihMin !== undefined && vihMin > supplyV) add("vihMin", `VIH(min) ${vihMin} V cannot exceed the supply voltage ${supplyV} V, or no input could ever read a high`);
 
   if (f.ratedDrive !== undefined) {
     const r = f.ratedDrive;
     if (!isObject(r)) add("ratedDrive", "ratedDrive must be an object with iohMa, iolMa, vohMin, volMax and source");
     else {
+      const RATED = { iohMa: "IOH", iolMa: "IOL", vohMin: "VOH(min)", volMax: "VOL(max)" } as const;
       for (const k of ["iohMa", "iolMa", "vohMin", "volMax"] as const) {
-        if (!isNum(r[k]) || r[k] < 0) add(`ratedDrive.${k}`, `ratedDrive.${k} must be a number of at least 0`);
+        const spec = FIGURES.find((x) => x.key === k)!;
+        const v = r[k];
+        const m = isNum(v) ? (spec.signed ? Math.abs(v) : v) : NaN;
+        if (!isNum(v) || m < spec.min || m > spec.max) {
+          add(`ratedDrive.${k}`, `the rated point's ${RATED[k]} must be a number ${rangeText(spec)}; got ${show(v)}`);
+        }
       }
       if (typeof r.source !== "string") add("ratedDrive.source", "ratedDrive.source must say where the rated point comes from");
       if (vohMin !== undefined && isNum(r.vohMin) && r.vohMin > vohMin) add("ratedDrive.vohMin", "the rated point's VOH(min) cannot exceed the light-load VOH(min)");

@@ -55,16 +55,19 @@ describe("low-power Schottky TTL", () => {
 });
 
 describe("driver to receiver compatibility", () => {
-  it("a standard TTL output cannot drive 5 V CMOS inputs whose VIH is 3.5 V", () => {
-    // handbook tables: TTL VOH(min) 2.4 V < CMOS VIH(min) 0.7 · 5 V = 3.5 V
+  it("a standard TTL output cannot drive CMOS inputs with CMOS thresholds", () => {
+    // JEDEC JESD7A (VCC = 4.5 V column): VIH(min) 3.15 V = 0.7 · 4.5 V; standard TTL handbook table: VOH(min) 2.4 V < 3.15 V
     const hc = fam("cmos-hc-5v");
-    expect(hc.vihMin).toBe(3.5);
+    expect(hc.vihMin).toBe(3.15);
     const c = compatibility(fam("ttl-std-5v"), hc);
     expect(c.compatible).toBe(false);
     expect(c.highOk).toBe(false);
     expect(c.lowOk).toBe(true);
     expect(c.receivers.value).toBe(0);
-    expect(c.messages.join(" ")).toMatch(/3\.5 V/);
+    expect(c.verdict).toBe("not-compatible");
+    expect(c.nmh.value).toBeCloseTo(2.4 - 3.15, 9);
+    expect(c.messages.join(" ")).toMatch(/3\.15 V/);
+    expect(c.messages.join(" ")).toMatch(/pull-up .*TTL-level inputs/);
   });
   it("CMOS with TTL-level inputs accepts a standard TTL output", () => {
     // handbook tables: TTL VOH 2.4 ≥ VIH 2.0 and VOL 0.4 ≤ VIL 0.8
@@ -81,11 +84,17 @@ describe("driver to receiver compatibility", () => {
     expect(c.receivers.value).toBe(174);
   });
   it("a 5 V CMOS output feeds TTL inputs at its rated current", () => {
-    // handbook table (from memory): 4 mA rated output, 0.26 V max; LS IIL 0.4 mA → 10 LS loads
+    // JEDEC JESD7A (VCC = 4.5 V, −40 to 85 °C): 4 mA rated output, VOL 0.33 V, VOH 3.84 V;
+    // low-power Schottky handbook table: IIL 0.4 mA, IIH 20 µA → floor(4 / 0.4) = 10, floor(4 / 0.02) = 200
     const c = compatibility(fam("cmos-hc-5v"), fam("ttl-ls-5v"));
     expect(c.compatible).toBe(true);
     expect(c.point).toBe("rated");
+    expect(c.fanOutLow.value).toBe(10);
+    expect(c.fanOutHigh.value).toBe(200);
     expect(c.receivers.value).toBe(10);
+    // NMH = 3.84 − 2.0 = 1.84 V; NML = 0.8 − 0.33 = 0.47 V
+    expect(c.nmh.value).toBeCloseTo(1.84, 9);
+    expect(c.nml.value).toBeCloseTo(0.47, 9);
   });
   it("says when figures are missing", () => {
     // common practice, no source: a family with only fan-in and fan-out gives no levels, so nothing can be compared
@@ -113,14 +122,16 @@ describe("transition time", () => {
     }
   });
   it("the family fan-out is the lower of DC and AC", () => {
-    // worked by hand from the high-speed CMOS figures (handbook table at |IO| = 20 µA; leakage and edge limit from memory):
+    // worked by hand from the high-speed CMOS figures (JEDEC JESD7A, VCC = 4.5 V column, −40 to 85 °C):
     //   DC low  floor(IOL 0.02 mA / |IIL| 0.001 mA) = 20;  DC high floor(|IOH| 0.02 mA / IIH 0.001 mA) = 20
-    //   AC      C_max = 500 ns / (2.2 · 65 Ω) = 500000 / 143 = 3496.5 pF; n = floor((3496.5 − 5) / 10) = floor(349.15) = 349
-    //   fan-out = min(20, 349) = 20
+    //   R_out = (4.5 − 3.84) V / 4 mA = 165 Ω (the standard's 4 mA point, high side)
+    //   AC      C_max = 500 ns / (2.2 · 165 Ω) = 500000 / 363 = 1377.4 pF; n = floor((1377.4 − 5) / 10) = floor(137.24) = 137
+    //   fan-out = min(20, 137) = 20
     const hc = fam("cmos-hc-5v");
     const d = deriveFamily(hc);
+    expect(hc.outputOhms).toBeCloseTo((4.5 - 3.84) / 4e-3, 6);
     expect(d.dcFanOut.value).toBe(20);
-    expect(d.acFanOut.value).toBe(349);
+    expect(d.acFanOut.value).toBe(137);
     expect(d.fanOut.value).toBe(20);
     // common practice, no source: a fan-out the user sets overrides the derived one
     expect(familyFanOut({ ...hc, fanOut: 7 })).toBe(7);
@@ -183,8 +194,8 @@ describe("compatibility matrix", () => {
     const m = compatibilityMatrix(BUILT_IN_FAMILIES);
     expect(m.length).toBe(BUILT_IN_FAMILIES.length ** 2);
     // handbook tables: TTL high level 2.4 V fails a 3.5 V CMOS threshold; each family drives itself
-    expect(m.find((c) => c.driver === "ttl-std-5v" && c.receiver === "cmos-hc-5v")?.compatible).toBe(false);
-    for (const f of BUILT_IN_FAMILIES) expect(m.find((c) => c.driver === f.id && c.receiver === f.id)?.compatible).toBe(true);
+    expect(m.find((c) => c.driver === "ttl-std-5v" && c.receiver === "cmos-hc-5v")?.verdict).toBe("not-compatible");
+    for (const f of BUILT_IN_FAMILIES) expect(m.find((c) => c.driver === f.id && c.receiver === f.id)?.verdict).toBe("compatible");
   });
 });
 
