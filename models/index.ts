@@ -55,6 +55,8 @@ export class LogicFamilyRecord extends Model<
   declare name: string;
   declare builtin: CreationOptional<boolean>;
   declare data: Record<string, unknown>;
+  /** Set when an owner archives the family: kept for what used it, not offered for new designs. */
+  declare archivedAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -186,6 +188,7 @@ export function initModels(sequelize: Sequelize) {
       name: { type: DataTypes.STRING(120), allowNull: false },
       builtin: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
       data: json(),
+      archivedAt: { type: DataTypes.DATE, allowNull: true, defaultValue: null },
       createdAt: DataTypes.DATE,
       updatedAt: DataTypes.DATE,
     },
@@ -357,9 +360,38 @@ export function initModels(sequelize: Sequelize) {
   ReviewDecision.belongsTo(User, { foreignKey: "userId", as: "user" });
   ReviewDecision.belongsTo(Revision, { foreignKey: "revisionId", as: "revision" });
 
+  const appendOnly = (what: string) => () => {
+    throw new Error(`activity is append-only: an entry cannot be ${what}`);
+  };
+  Activity.init(
+    {
+      id: uuid,
+      action: { type: DataTypes.STRING(40), allowNull: false },
+      subjectKind: { type: DataTypes.STRING(16), allowNull: false },
+      subjectId: { type: DataTypes.STRING(64), allowNull: true },
+      subjectLabel: { type: DataTypes.STRING(254), allowNull: false, defaultValue: "" },
+      details: { ...json(), defaultValue: {} },
+      createdAt: DataTypes.DATE,
+    },
+    {
+      ...base,
+      tableName: "activity",
+      updatedAt: false,
+      hooks: {
+        // The database trigger is the authority; these give a clearer error first.
+        beforeUpdate: appendOnly("changed"),
+        beforeDestroy: appendOnly("deleted"),
+        beforeBulkUpdate: appendOnly("changed"),
+        beforeBulkDestroy: appendOnly("deleted"),
+      },
+    },
+  );
+  Activity.belongsTo(Workspace, { foreignKey: "workspaceId", as: "workspace" });
+  Activity.belongsTo(User, { foreignKey: "actorId", as: "actor" });
+
   return {
     User, Workspace, Membership, LogicFamilyRecord, Design, Revision, EmailToken, Invitation, ApiToken,
-    Review, ReviewReviewer, ReviewComment, ReviewDecision,
+    Review, ReviewReviewer, ReviewComment, ReviewDecision, Activity,
   };
 }
 
@@ -396,5 +428,24 @@ export class ApiToken extends Model<InferAttributes<ApiToken>, InferCreationAttr
   declare expiresAt: Date;
   declare lastUsedAt: Date | null;
   declare revokedAt: Date | null;
+  declare createdAt: CreationOptional<Date>;
+}
+
+export const ACTIVITY_KINDS = ["membership", "invitation", "family", "design", "library"] as const;
+export type ActivityKind = (typeof ACTIVITY_KINDS)[number];
+
+/** One entry of a workspace's activity list; rows are never changed or deleted (a trigger refuses it). */
+export class Activity extends Model<InferAttributes<Activity>, InferCreationAttributes<Activity>> {
+  declare id: CreationOptional<string>;
+  declare workspaceId: ForeignKey<Workspace["id"]>;
+  /** Who did it; null for changes made by the system (the demo seed). */
+  declare actorId: ForeignKey<User["id"]> | null;
+  /** What happened, e.g. "member.role", "invitation.create", "family.archive", "design.rename". */
+  declare action: string;
+  declare subjectKind: ActivityKind;
+  declare subjectId: string | null;
+  /** The subject's name or e-mail when it happened, so the entry reads well after a rename. */
+  declare subjectLabel: CreationOptional<string>;
+  declare details: CreationOptional<Record<string, unknown>>;
   declare createdAt: CreationOptional<Date>;
 }

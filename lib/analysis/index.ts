@@ -6,6 +6,7 @@
  */
 import type { Family, GateType } from "../families/types";
 import { familyFanOut, offeredGates } from "../families/derive";
+import { compatibility, VERDICT_WORDS, type Verdict } from "../families/compat";
 import type { Gate, Netlist } from "../map/netlist";
 import { CONST0, CONST1, topoOrder } from "../map/netlist";
 
@@ -31,6 +32,34 @@ export interface AnalysisOptions {
    * are driven rail to rail.
    */
   ttlHighShare?: number;
+  /**
+   * The families at the design's edges: the one whose outputs drive the
+   * design's inputs, and the one whose inputs its outputs drive. Each given
+   * boundary is checked for levels (noise margins) and loads; default none.
+   */
+  boundary?: { inputsDrivenBy?: Family; outputsDrive?: Family };
+}
+
+/** Where the design meets another family: levels and loads at its inputs or its outputs. */
+export interface BoundaryCheck {
+  side: "inputs" | "outputs";
+  driver: { id: string; name: string };
+  receiver: { id: string; name: string };
+  verdict: Verdict;
+  /** Noise margins at the boundary, V. */
+  nmhV: number | null;
+  nmlV: number | null;
+  /** Receiver inputs one driver output may feed in the high and low state (DC), and the least of all limits. */
+  fanOutHigh: number | null;
+  fanOutLow: number | null;
+  perOutput: number | null;
+  /** The heaviest load at the boundary: gate inputs fed by one design input, or receiver inputs on one design output. */
+  load: number;
+  /** Where the heaviest load is: the input net, or "each output". */
+  at: string;
+  formulas: string[];
+  messages: string[];
+  caution: string;
 }
 
 export interface TypeWidthRow {
@@ -74,6 +103,8 @@ export interface Analysis {
   dynamicPower: Estimate;
   loads: NetLoadRow[];
   maxLoad: number;
+  /** Checks where the design meets the families named in AnalysisOptions.boundary (empty when none is named). */
+  boundaries: BoundaryCheck[];
   warnings: string[];
   caution: string;
 }
@@ -242,6 +273,21 @@ export function analyse(netlist: Netlist, family: Family, options: AnalysisOptio
   } else {
     dynamicPower = { value: null, unit: "mW", formula: "not estimated: the family gives no input capacitance or supply voltage", caution: CAUTION };
   }
+  // ---- boundaries with other families ----
+  const boundaries: BoundaryCheck[] = [];
+  const b = options.boundary ?? {};
+  if (b.inputsDrivenBy) {
+    let at = "";
+    let heaviest = 0;
+    for (const net of [...netlist.inputs, ...netlist.complements.map((c) => c.net)]) {
+      const l = load.get(net) ?? 0;
+      if (l > heaviest) [heaviest, at] = [l, net];
+    }
+    boundaries.push(boundaryCheck("inputs", b.inputsDrivenBy, family, r3(heaviest), at ? `input ${at}` : "no input"));
+  }
+  if (b.outputsDrive) boundaries.push(boundaryCheck("outputs", family, b.outputsDrive, Math.ceil(pinLoad - 1e-9), "each output"));
+  for (const c of boundaries) warnings.push(...boundaryWarnings(c));
+
   if (delay.value === null) warnings.push("critical-path delay not estimated: the family gives no delay model");
   if (staticPower.value === null) warnings.push("static power not estimated: the family gives no supply current or voltage");
   if (dynamicPower.value === null) warnings.push("dynamic power not estimated: the family gives no input capacitance or voltage");
@@ -260,7 +306,43 @@ export function analyse(netlist: Netlist, family: Family, options: AnalysisOptio
     dynamicPower,
     loads,
     maxLoad,
+    boundaries,
     warnings,
     caution: CAUTION,
   };
+}
+
+function boundaryCheck(side: "inputs" | "outputs", driver: Family, receiver: Family, load: number, at: string): BoundaryCheck {
+  const c = compatibility(driver, receiver);
+  return {
+    side,
+    driver: { id: driver.id, name: driver.name },
+    receiver: { id: receiver.id, name: receiver.name },
+    verdict: c.verdict,
+    nmhV: c.nmh.value,
+    nmlV: c.nml.value,
+    fanOutHigh: c.fanOutHigh.value,
+    fanOutLow: c.fanOutLow.value,
+    perOutput: c.receivers.value,
+    load,
+    at,
+    formulas: [c.nmh.formula, c.nml.formula, c.fanOutHigh.formula, c.fanOutLow.formula, ...(c.fanOutAc.value !== null ? [c.fanOutAc.formula] : [])],
+    messages: c.messages,
+    caution: CAUTION,
+  };
+}
+
+/** The sentences a boundary adds to the design's warnings. */
+function boundaryWarnings(c: BoundaryCheck): string[] {
+  const where = c.side === "inputs" ? `inputs driven by ${c.driver.name}` : `outputs driving ${c.receiver.name}`;
+  const out: string[] = [];
+  if (c.verdict !== "compatible") out.push(`${where}: ${VERDICT_WORDS[c.verdict]}${c.messages.length ? ` — ${c.messages.join("; ")}` : ""}`);
+  if (c.verdict !== "not-compatible" && c.perOutput !== null && c.load > c.perOutput) {
+    out.push(
+      c.side === "inputs"
+        ? `${where}: ${c.at} feeds ${c.load} gate inputs, but one ${c.driver.name} output may feed only ${c.perOutput} ${c.receiver.name} inputs; buffer it, or split its loads`
+        : `${where}: each output drives ${c.load} ${c.receiver.name} inputs (the pin load), but may feed only ${c.perOutput}; add an output buffer`,
+    );
+  }
+  return out;
 }

@@ -62,6 +62,25 @@ const NetlistDocument = z.object({
 
 const Estimate = z.object({ value: z.number().nullable(), unit: z.string(), formula: z.string(), caution: z.string(), note: z.string().optional() });
 
+const Named = z.object({ id: z.string(), name: z.string() });
+/** Where the design meets the family named by settings.inputsDrivenBy or settings.outputsDrive. */
+const BoundaryCheck = z.object({
+  side: z.enum(["inputs", "outputs"]),
+  driver: Named,
+  receiver: Named,
+  verdict: z.enum(["compatible", "small-margin", "not-compatible", "unknown"]),
+  nmhV: z.number().nullable(),
+  nmlV: z.number().nullable(),
+  fanOutHigh: z.number().nullable(),
+  fanOutLow: z.number().nullable(),
+  perOutput: z.number().nullable(),
+  load: z.number(),
+  at: z.string(),
+  formulas: z.array(z.string()),
+  messages: z.array(z.string()),
+  caution: z.string(),
+});
+
 const Analysis = z.object({
   gates: z.number(),
   byType: z.partialRecord(GateType, z.number()),
@@ -76,6 +95,8 @@ const Analysis = z.object({
   dynamicPower: Estimate,
   loads: z.array(z.object({ net: z.string(), load: z.number(), limit: z.number(), status: z.enum(["ok", "at-limit", "over"]), driver: z.string() })),
   maxLoad: z.number(),
+  /** Empty when the settings name no family at the design's edges (and in results kept from before it existed). */
+  boundaries: z.array(BoundaryCheck).default([]),
   warnings: z.array(z.string()),
   caution: z.string(),
 });

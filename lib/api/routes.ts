@@ -76,6 +76,30 @@ const Family = z.object({
   fanIn: z.number().nullable(),
   fanOut: z.number().nullable(),
   data: Json,
+  archivedAt: z.string().nullable().describe("set when an owner archived it: kept for what used it, not offered for new designs"),
+});
+const Verdict = z.enum(["compatible", "small-margin", "not-compatible", "unknown"]);
+const CompatibilityPair = z.object({
+  driver: z.string().describe("driver family key"),
+  receiver: z.string().describe("receiver family key"),
+  nmhV: z.number().nullable().describe("NMH = VOH(min) of the driver − VIH(min) of the receiver, V"),
+  nmlV: z.number().nullable().describe("NML = VIL(max) of the receiver − VOL(max) of the driver, V"),
+  fanOutHigh: z.number().nullable().describe("receiver inputs one output may hold high: floor(|IOH| / IIH)"),
+  fanOutLow: z.number().nullable().describe("receiver inputs one output may hold low: floor(IOL / |IIL|)"),
+  verdict: Verdict,
+  fanOutAc: z.number().nullable().describe("receiver inputs within the receiver's edge-rate limit"),
+  point: z.enum(["light", "rated"]).nullable().describe("the driver's output operating point the figures use"),
+  formulas: z.object({ nmh: z.string(), nml: z.string(), fanOutHigh: z.string(), fanOutLow: z.string(), fanOutAc: z.string() }),
+  messages: z.array(z.string()),
+});
+const ActivityEntry = z.object({
+  id: z.string(),
+  at: z.string(),
+  actor: Ref.nullable(),
+  action: z.string().describe("e.g. member.role, invitation.create, family.archive, design.rename, design.revision"),
+  subject: z.object({ kind: z.enum(["membership", "invitation", "family", "design", "library"]), id: z.string().nullable(), label: z.string() }),
+  details: Json,
+  summary: z.string().describe("the entry in words, to follow the actor's name"),
 });
 const LatestRevision = z.object({ number: z.number(), createdAt: z.string(), message: z.string(), author: Ref, stats: Json });
 const DesignSummary = z.object({
@@ -335,8 +359,19 @@ export const routes = {
     response: z.object({ invitation: Invitation }), status: 201, errors: [...WS, 409, 413, 415],
   }),
   revokeInvitation: defineRoute({
-    method: "DELETE", path: "/workspaces/{ws}/invitations/{id}", tag: "members", auth: "user", summary: "Revoke an invitation (owner)",
+    method: "DELETE", path: "/workspaces/{ws}/invitations/{id}", tag: "members", auth: "user", summary: "Cancel (revoke) an invitation (owner)",
     params: WsParams.extend({ id: Id }), response: z.object({ invitation: Invitation }), errors: [...WS, 409],
+  }),
+  resendInvitation: defineRoute({
+    method: "POST", path: "/workspaces/{ws}/invitations/{id}/resend", tag: "members", auth: "user",
+    summary: "Send an open or expired invitation again with a new link, valid for another 7 days; the earlier link stops working (owner)",
+    params: WsParams.extend({ id: Id }), response: z.object({ invitation: Invitation }), errors: [...WS, 409],
+  }),
+  listActivity: defineRoute({
+    method: "GET", path: "/workspaces/{ws}/activity", tag: "members", auth: "user",
+    summary: "Who changed which membership, invitation, family or design, and when; newest first, one page at a time (entries about invitations for owners only)",
+    params: WsParams, query: z.object(Page),
+    response: z.object({ items: z.array(ActivityEntry), nextCursor: z.string().nullable() }), errors: WS,
   }),
   acceptInvitation: defineRoute({
     method: "POST", path: "/invitations/accept", tag: "members", auth: "user",
@@ -351,9 +386,15 @@ export const routes = {
     params: WsParams, response: z.object({ items: z.array(Family) }), errors: WS,
   }),
   createFamily: defineRoute({
-    method: "POST", path: "/workspaces/{ws}/families", tag: "families", auth: "user", summary: "Add a family of the workspace (owner)",
+    method: "POST", path: "/workspaces/{ws}/families", tag: "families", auth: "user",
+    summary: "Add a family of the workspace, empty or as a copy of another (owner); figures in data replace the copy's",
     params: WsParams,
-    body: z.object({ key: z.string().regex(/^[a-z0-9][a-z0-9-]{0,62}$/), name: Name, data: Json }).strict(),
+    body: z.object({
+      key: z.string().regex(/^[a-z0-9][a-z0-9-]{0,62}$/, "1–63 lower-case letters, digits or dashes, starting with a letter or digit"),
+      name: Name,
+      data: Json.optional().describe("figures (see the families' data), sources and gate types"),
+      copyOf: Id.optional().describe("id of a family to copy (built-in or the workspace's own)"),
+    }).strict(),
     response: z.object({ family: Family }), status: 201, errors: [...WS, 409, 413, 415],
   }),
   getFamily: defineRoute({
@@ -361,9 +402,20 @@ export const routes = {
     params: WsParams.extend({ familyId: Id }), response: z.object({ family: Family }), errors: WS,
   }),
   updateFamily: defineRoute({
-    method: "PATCH", path: "/workspaces/{ws}/families/{familyId}", tag: "families", auth: "user", summary: "Change a family of the workspace (owner)",
-    params: WsParams.extend({ familyId: Id }), body: z.object({ name: Name.optional(), data: Json.optional() }).strict(),
+    method: "PATCH", path: "/workspaces/{ws}/families/{familyId}", tag: "families", auth: "user",
+    summary: "Change, archive or restore a family of the workspace (owner); revisions keep the snapshot they were saved with",
+    params: WsParams.extend({ familyId: Id }), body: z.object({ name: Name.optional(), data: Json.optional(), archived: z.boolean().optional() }).strict(),
     response: z.object({ family: Family }), errors: [...WS, 409, 413, 415],
+  }),
+  familyMatrix: defineRoute({
+    method: "GET", path: "/workspaces/{ws}/families/matrix", tag: "families", auth: "user",
+    summary: "Driver → receiver compatibility of every pair of the workspace's families: noise margins, inputs fed per output in each state, verdict",
+    params: WsParams, query: z.object({ archived: z.enum(["0", "1"]).optional().describe("1: include archived families") }),
+    response: z.object({
+      families: z.array(z.object({ id: z.string(), key: z.string(), name: z.string(), builtin: z.boolean(), archivedAt: z.string().nullable() })),
+      pairs: z.array(CompatibilityPair),
+    }),
+    errors: WS,
   }),
   deleteFamily: defineRoute({
     method: "DELETE", path: "/workspaces/{ws}/families/{familyId}", tag: "families", auth: "user", summary: "Delete an unused family of the workspace (owner)",

@@ -8,6 +8,8 @@ import { db } from "../db/connection";
 import { conflict, invalid, notFound } from "../errors";
 import { storedSettings, type CompileSettings } from "../runtime/compile";
 import { decodeCursor, encodeCursor, iso, requireAccess, type Actor } from "./access";
+import { recordActivity } from "./activity";
+import { boundaryFamilies } from "./families";
 
 export interface DesignSummary {
   id: string;
@@ -164,12 +166,21 @@ export async function getDesign(p: { actor: Actor | null; slug: string; designId
   return loadDetail(workspace.id, p.designId);
 }
 
-/** A family id the workspace may use (built-in or its own), or 400. */
-export async function usableFamily(workspaceId: string, familyId: string) {
+/**
+ * A family id the workspace may use (built-in or its own), or 400. An
+ * archived family is refused unless it is `current` — the family the design
+ * is on already, which keeps working after its family is archived.
+ */
+export async function usableFamily(workspaceId: string, familyId: string, current?: string) {
   const { LogicFamilyRecord } = db().models;
   const row = await LogicFamilyRecord.findByPk(familyId);
   if (!row || (row.workspaceId !== null && row.workspaceId !== workspaceId)) {
     throw invalid("familyId names no family this workspace can use; pick one from the families list.", [{ path: "familyId", message: "unknown family" }]);
+  }
+  if (row.archivedAt && row.id !== current) {
+    throw invalid(`The family "${row.name}" is archived and no longer offered for new designs; pick another, or ask an owner to restore it.`, [
+      { path: "familyId", message: "archived family" },
+    ]);
   }
   return row;
 }
@@ -192,23 +203,33 @@ export async function createDesign(p: {
   draftSource?: string;
 }): Promise<DesignDetail> {
   const { workspace } = await requireAccess(p.actor, p.slug, "design.edit");
-  await usableFamily(workspace.id, p.familyId);
+  const family = await usableFamily(workspace.id, p.familyId);
+  if (p.settings) await boundaryFamilies(workspace.id, p.settings);
   const { Design } = db().models;
   let id: string;
   try {
-    const d = await Design.create({
-      workspaceId: workspace.id,
-      name: p.name,
-      description: p.description ?? "",
-      familyId: p.familyId,
-      settings: storedSettings(p.settings ?? {}),
-      draftSource: p.draftSource ?? "",
-      draftUpdatedAt: new Date(),
-      draftUpdatedBy: p.actor!.userId,
-      createdBy: p.actor!.userId,
-      archivedAt: null,
+    id = await db().sequelize.transaction(async (transaction) => {
+      const d = await Design.create(
+        {
+          workspaceId: workspace.id,
+          name: p.name,
+          description: p.description ?? "",
+          familyId: p.familyId,
+          settings: storedSettings(p.settings ?? {}),
+          draftSource: p.draftSource ?? "",
+          draftUpdatedAt: new Date(),
+          draftUpdatedBy: p.actor!.userId,
+          createdBy: p.actor!.userId,
+          archivedAt: null,
+        },
+        { transaction },
+      );
+      await recordActivity(
+        { workspaceId: workspace.id, actorId: p.actor!.userId, action: "design.create", subject: { kind: "design", id: d.id, label: p.name }, details: { family: family.name } },
+        transaction,
+      );
+      return d.id;
     });
-    id = d.id;
   } catch (e) {
     nameTaken(e, p.name);
   }
@@ -232,8 +253,15 @@ export async function updateDesign(p: {
   if (p.name !== undefined) patch.name = p.name;
   if (p.description !== undefined) patch.description = p.description;
   if (p.archived !== undefined) patch.archivedAt = p.archived ? (d.archivedAt ?? new Date()) : null;
+  const was = { name: d.name, archived: d.archivedAt !== null };
   try {
-    await d.update(patch);
+    await db().sequelize.transaction(async (transaction) => {
+      await d.update(patch, { transaction });
+      const entry = { workspaceId: workspace.id, actorId: p.actor!.userId, subject: { kind: "design" as const, id: d.id, label: d.name } };
+      if (p.name !== undefined && p.name !== was.name) await recordActivity({ ...entry, action: "design.rename", details: { from: was.name, to: p.name } }, transaction);
+      if (p.archived === true && !was.archived) await recordActivity({ ...entry, action: "design.archive" }, transaction);
+      if (p.archived === false && was.archived) await recordActivity({ ...entry, action: "design.restore" }, transaction);
+    });
   } catch (e) {
     nameTaken(e, p.name ?? d.name);
   }
@@ -259,20 +287,39 @@ export interface DraftWrite {
  */
 export async function saveDraft(p: { actor: Actor | null; slug: string; designId: string } & DraftWrite): Promise<DesignDetail> {
   const { workspace } = await requireAccess(p.actor, p.slug, "design.edit");
-  await usableFamily(workspace.id, p.familyId);
+  const current = await db().models.Design.findOne({ where: { id: p.designId, workspaceId: workspace.id } });
+  if (!current) throw notFound("design");
+  // A design keeps the family it is on after that family is archived; it cannot move onto an archived one.
+  const family = await usableFamily(workspace.id, p.familyId, current.familyId);
+  await boundaryFamilies(workspace.id, p.settings);
   const settings = storedSettings(p.settings);
-  const [, count] = await db().sequelize.query(
-    `UPDATE designs SET draft_source = :source, family_id = :familyId, settings = CAST(:settings AS jsonb),
-            draft_version = draft_version + 1, draft_updated_at = now(), draft_updated_by = :userId, updated_at = now()
-     WHERE id = :id AND workspace_id = :ws AND draft_version = :base`,
-    {
-      replacements: {
-        source: p.source, familyId: p.familyId, settings: JSON.stringify(settings), userId: p.actor!.userId,
-        id: p.designId, ws: workspace.id, base: p.baseVersion,
+  const count = await db().sequelize.transaction(async (transaction) => {
+    const [, count] = await db().sequelize.query(
+      `UPDATE designs SET draft_source = :source, family_id = :familyId, settings = CAST(:settings AS jsonb),
+              draft_version = draft_version + 1, draft_updated_at = now(), draft_updated_by = :userId, updated_at = now()
+       WHERE id = :id AND workspace_id = :ws AND draft_version = :base`,
+      {
+        replacements: {
+          source: p.source, familyId: p.familyId, settings: JSON.stringify(settings), userId: p.actor!.userId,
+          id: p.designId, ws: workspace.id, base: p.baseVersion,
+        },
+        type: QueryTypes.UPDATE,
+        transaction,
       },
-      type: QueryTypes.UPDATE,
-    },
-  );
+    );
+    // The text and settings change as the designer types; the activity list records only a move to another family.
+    if (count === 1 && current.familyId !== p.familyId) {
+      const before = await db().models.LogicFamilyRecord.findByPk(current.familyId, { transaction });
+      await recordActivity(
+        {
+          workspaceId: workspace.id, actorId: p.actor!.userId, action: "design.family",
+          subject: { kind: "design", id: current.id, label: current.name }, details: { from: before?.name ?? "?", to: family.name },
+        },
+        transaction,
+      );
+    }
+    return count;
+  });
   const now = await loadDetail(workspace.id, p.designId);
   if (count === 1) return now;
   const same = now.draftSource === p.source && now.family.id === p.familyId && sameJson(now.settings, settings);

@@ -10,6 +10,7 @@ import type { Role } from "../auth/permissions";
 import { randomSecret, sha256 } from "../auth/secrets";
 import { sendMail, siteUrl } from "../auth/mail";
 import { iso, requireAccess, requireActor, type Actor } from "./access";
+import { recordActivity } from "./activity";
 
 /** How long an invitation stays open: 7 days. */
 export const INVITATION_DAYS = 7;
@@ -77,26 +78,72 @@ export async function createInvitation(p: { actor: Actor | null; slug: string; e
   if (open) throw conflict(`${email} has an open invitation already; revoke it to send a new one.`);
   const secret = randomSecret();
   const inviter = (await User.findByPk(p.actor!.userId))!;
-  const row = await Invitation.create({
-    workspaceId: workspace.id,
-    email,
-    role: p.role,
-    tokenHash: sha256(secret),
-    invitedBy: inviter.id,
-    expiresAt: new Date(Date.now() + INVITATION_DAYS * 86_400_000),
-    acceptedAt: null,
-    revokedAt: null,
+  const row = await db().sequelize.transaction(async (transaction) => {
+    const row = await Invitation.create(
+      {
+        workspaceId: workspace.id,
+        email,
+        role: p.role,
+        tokenHash: sha256(secret),
+        invitedBy: inviter.id,
+        expiresAt: new Date(Date.now() + INVITATION_DAYS * 86_400_000),
+        acceptedAt: null,
+        revokedAt: null,
+      },
+      { transaction },
+    );
+    await recordActivity(
+      { workspaceId: workspace.id, actorId: inviter.id, action: "invitation.create", subject: { kind: "invitation", id: row.id, label: email }, details: { role: p.role } },
+      transaction,
+    );
+    return row;
   });
-  const url = siteUrl(`/invite?token=${encodeURIComponent(secret)}`);
+  await mailInvitation({ email, secret, inviterName: inviter.name, workspaceName: workspace.name, role: p.role });
+  return view(row, { id: inviter.id, name: inviter.name });
+}
+
+async function mailInvitation(m: { email: string; secret: string; inviterName: string; workspaceName: string; role: Role; again?: boolean }) {
+  const url = siteUrl(`/invite?token=${encodeURIComponent(m.secret)}`);
   await sendMail({
-    to: email,
-    subject: `${inviter.name} invites you to ${workspace.name} on Fanbound`,
+    to: m.email,
+    subject: `${m.inviterName} invites you to ${m.workspaceName} on Fanbound`,
     lines: [
-      `${inviter.name} invites you to the workspace "${workspace.name}" as ${p.role}.`,
+      `${m.inviterName} invites you to the workspace "${m.workspaceName}" as ${m.role}.`,
+      ...(m.again ? ["This link replaces the one sent before, which no longer works."] : []),
       `The link works once and for ${INVITATION_DAYS} days. Sign in (or create an account) with this e-mail address to accept.`,
     ],
     link: { url, label: "Accept the invitation" },
   });
+}
+
+/**
+ * Sends an open or expired invitation again (owner): a new link, valid for
+ * another INVITATION_DAYS days; the earlier link stops working. 409 for one
+ * that was accepted or cancelled, or whose address has joined meanwhile.
+ */
+export async function resendInvitation(p: { actor: Actor | null; slug: string; id: string }): Promise<InvitationView> {
+  const { workspace } = await requireAccess(p.actor, p.slug, "invitation.manage");
+  const { sequelize, models } = db();
+  const secret = randomSecret();
+  const row = await sequelize.transaction(async (transaction) => {
+    const row = await models.Invitation.findOne({ where: { id: p.id, workspaceId: workspace.id }, lock: transaction.LOCK.UPDATE, transaction });
+    if (!row) throw notFound("invitation");
+    if (row.acceptedAt) throw conflict("That invitation was accepted already; there is nothing to send.");
+    if (row.revokedAt) throw conflict("That invitation was cancelled; invite the address again instead.");
+    const user = await models.User.findOne({ where: Sequelize.where(Sequelize.fn("lower", Sequelize.col("email")), row.email.toLowerCase()), transaction });
+    if (user && (await models.Membership.findOne({ where: { workspaceId: workspace.id, userId: user.id }, transaction }))) {
+      throw conflict(`${row.email} is a member of this workspace already; cancel the invitation instead.`);
+    }
+    await row.update({ tokenHash: sha256(secret), expiresAt: new Date(Date.now() + INVITATION_DAYS * 86_400_000) }, { transaction });
+    await recordActivity(
+      { workspaceId: workspace.id, actorId: p.actor!.userId, action: "invitation.resend", subject: { kind: "invitation", id: row.id, label: row.email }, details: { role: row.role } },
+      transaction,
+    );
+    return row;
+  });
+  const sender = (await models.User.findByPk(p.actor!.userId))!;
+  const inviter = (await models.User.findByPk(row.invitedBy))!;
+  await mailInvitation({ email: row.email, secret, inviterName: sender.name, workspaceName: workspace.name, role: row.role, again: true });
   return view(row, { id: inviter.id, name: inviter.name });
 }
 
@@ -107,7 +154,15 @@ export async function revokeInvitation(p: { actor: Actor | null; slug: string; i
   const row = await Invitation.findOne({ where: { id: p.id, workspaceId: workspace.id } });
   if (!row) throw notFound("invitation");
   if (row.acceptedAt) throw conflict("That invitation was accepted already; remove the member instead.");
-  if (!row.revokedAt) await row.update({ revokedAt: new Date() });
+  if (!row.revokedAt) {
+    await db().sequelize.transaction(async (transaction) => {
+      await row.update({ revokedAt: new Date() }, { transaction });
+      await recordActivity(
+        { workspaceId: workspace.id, actorId: p.actor!.userId, action: "invitation.revoke", subject: { kind: "invitation", id: row.id, label: row.email }, details: { role: row.role } },
+        transaction,
+      );
+    });
+  }
   const u = (await User.findByPk(row.invitedBy))!;
   return view(row, { id: u.id, name: u.name });
 }
@@ -150,6 +205,10 @@ export async function acceptInvitation(p: { actor: Actor | null; token: string }
     const existing = await models.Membership.findOne({ where: { workspaceId: workspace.id, userId }, transaction });
     if (!existing) await models.Membership.create({ workspaceId: workspace.id, userId, role: row.role }, { transaction });
     await row.update({ acceptedAt: new Date() }, { transaction });
+    if (!existing) {
+      const joined = { kind: "membership" as const, id: user.id, label: `${user.name} (${user.email})` };
+      await recordActivity({ workspaceId: workspace.id, actorId: user.id, action: "member.join", subject: joined, details: { role: row.role } }, transaction);
+    }
     return { workspace: { id: workspace.id, slug: workspace.slug, name: workspace.name, role: existing?.role ?? row.role } };
   });
 }

@@ -4,6 +4,7 @@ import { db } from "../db/connection";
 import { conflict, notFound } from "../errors";
 import type { Role } from "../auth/permissions";
 import { iso, requireAccess, type Actor } from "./access";
+import { recordActivity } from "./activity";
 
 export interface MemberView {
   userId: string;
@@ -28,6 +29,8 @@ export async function listMembers(p: { actor: Actor | null; slug: string }): Pro
   });
 }
 
+/** A person as the activity list names them: "Name (e-mail)". */
+export const who = (u: { name: string; email: string }) => `${u.name} (${u.email})`;
 
 /**
  * Runs a membership change with the workspace row locked, so two owners
@@ -49,28 +52,40 @@ async function ownerCount(workspaceId: string, transaction: Transaction) {
 export async function updateMemberRole(p: { actor: Actor | null; slug: string; userId: string; role: Role }): Promise<MemberView> {
   const { workspace } = await requireAccess(p.actor, p.slug, "member.manage");
   const { Membership, User } = db().models;
+  const u = await User.findByPk(p.userId);
   const m = await underWorkspaceLock(workspace.id, async (transaction) => {
     const m = await Membership.findOne({ where: { workspaceId: workspace.id, userId: p.userId }, transaction });
-    if (!m) throw notFound("member");
+    if (!m || !u) throw notFound("member");
     if (m.role === "owner" && p.role !== "owner" && (await ownerCount(workspace.id, transaction)) <= 1) {
       throw conflict("A workspace needs at least one owner; make someone else owner first.");
     }
-    return m.update({ role: p.role }, { transaction });
+    const from = m.role;
+    if (from === p.role) return m;
+    await m.update({ role: p.role }, { transaction });
+    await recordActivity(
+      { workspaceId: workspace.id, actorId: p.actor!.userId, action: "member.role", subject: { kind: "membership", id: u.id, label: who(u) }, details: { from, to: p.role } },
+      transaction,
+    );
+    return m;
   });
-  const u = (await User.findByPk(p.userId))!;
-  return { userId: u.id, email: u.email, name: u.name, role: m.role, joinedAt: iso(m.createdAt)! };
+  return { userId: u!.id, email: u!.email, name: u!.name, role: m.role, joinedAt: iso(m.createdAt)! };
 }
 
 /** Removes a member (owner); the last owner cannot be removed (409). */
 export async function removeMember(p: { actor: Actor | null; slug: string; userId: string }): Promise<void> {
   const { workspace } = await requireAccess(p.actor, p.slug, "member.manage");
-  const { Membership } = db().models;
+  const { Membership, User } = db().models;
+  const u = await User.findByPk(p.userId);
   await underWorkspaceLock(workspace.id, async (transaction) => {
     const m = await Membership.findOne({ where: { workspaceId: workspace.id, userId: p.userId }, transaction });
-    if (!m) throw notFound("member");
+    if (!m || !u) throw notFound("member");
     if (m.role === "owner" && (await ownerCount(workspace.id, transaction)) <= 1) {
       throw conflict("A workspace needs at least one owner; make someone else owner first.");
     }
     await m.destroy({ transaction });
+    await recordActivity(
+      { workspaceId: workspace.id, actorId: p.actor!.userId, action: "member.remove", subject: { kind: "membership", id: u.id, label: who(u) }, details: { role: m.role } },
+      transaction,
+    );
   });
 }

@@ -12,7 +12,8 @@ import { toCsv, toVerilog, toVhdl } from "../export";
 import { designSettingsSchema } from "../pipeline/settings";
 import type { Family } from "../families";
 import { decodeCursor, encodeCursor, iso, requireAccess, type Actor } from "./access";
-import { familyOf } from "./families";
+import { boundaryFamilies, familyOf } from "./families";
+import { recordActivity } from "./activity";
 import { usableFamily } from "./designs";
 
 export interface RevisionSummary {
@@ -110,11 +111,14 @@ export async function createRevision(p: {
   draftVersion?: number;
 }): Promise<RevisionDetail> {
   const { workspace } = await requireAccess(p.actor, p.slug, "revision.save");
-  await designIn(workspace.id, p.designId);
-  const familyRow = await usableFamily(workspace.id, p.familyId);
+  const current = await designIn(workspace.id, p.designId);
+  const familyRow = await usableFamily(workspace.id, p.familyId, current.familyId);
+  const boundary = await boundaryFamilies(workspace.id, p.settings);
   const family = familyOf(familyRow);
   // The same path as the workbench's compiles: a result the designer just saw comes from the cache.
-  const outcome = await compileOnServer({ source: p.source, family, settings: p.settings, userId: p.actor!.userId, workspaceId: workspace.id });
+  const outcome = await compileOnServer({
+    source: p.source, family, settings: p.settings, userId: p.actor!.userId, workspaceId: workspace.id, families: boundary,
+  });
   const settings = storedSettings(p.settings);
   if (!outcome.result) {
     throw new AppError("compile_errors", "The source has errors; fix them before saving a revision.", { diagnostics: outcome.diagnostics });
@@ -152,6 +156,13 @@ export async function createRevision(p: {
     }
     d.changed("updatedAt", true);
     await d.save({ transaction });
+    await recordActivity(
+      {
+        workspaceId: workspace.id, actorId: p.actor!.userId, action: "design.revision",
+        subject: { kind: "design", id: d.id, label: d.name }, details: { number: rev.number, message: p.message, family: familyRow.name },
+      },
+      transaction,
+    );
     return rev.id;
   });
   const r = (await models.Revision.findByPk(id, { include: include() })) as Loaded;

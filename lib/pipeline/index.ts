@@ -8,7 +8,7 @@
  */
 import { compileSource, type Diagnostic } from "../lang/index";
 import type { FunctionSpec } from "../logic/index";
-import type { Family } from "../families/index";
+import { BUILT_IN_FAMILIES, type Family } from "../families/index";
 import { resolveSettings, type DesignSettings } from "./settings";
 import { runInThread, runStages, type CompileResult, type Executor, type ExportFormat, type PipelineError, type RunControl, type StageJob } from "./stages";
 
@@ -28,6 +28,11 @@ export interface CompileInput {
   unitName?: string;
   /** Wall-clock budget of the minimization, ms; default the minimizer's (10 000). The exact route then gives way to the heuristic. */
   minimizeMs?: number;
+  /**
+   * Families the settings may name at the design's edges (inputsDrivenBy,
+   * outputsDrive) besides the built-ins, e.g. the workspace's own; default none.
+   */
+  families?: readonly Family[];
 }
 
 export interface Compiled {
@@ -53,8 +58,28 @@ export function prepare(input: CompileInput): { diagnostics: Diagnostic[]; job: 
       exports: input.exports ?? [],
       ...(input.unitName !== undefined ? { unitName: input.unitName } : {}),
       ...(input.minimizeMs !== undefined ? { minimizeMs: input.minimizeMs } : {}),
+      ...boundaryOf(input.settings, input.families),
     },
   };
+}
+
+/**
+ * The families the settings name at the design's edges, resolved among the
+ * given families, then the built-ins; an unknown one is a warning, not an error.
+ */
+function boundaryOf(settings: DesignSettings = {}, families: readonly Family[] = []): Pick<StageJob, "boundary"> {
+  const boundary: NonNullable<StageJob["boundary"]> = {};
+  for (const side of ["inputsDrivenBy", "outputsDrive"] as const) {
+    const id = settings[side];
+    if (!id) continue;
+    const f = families.find((x) => x.id === id) ?? BUILT_IN_FAMILIES.find((x) => x.id === id);
+    if (f) boundary[side] = f;
+    else {
+      const what = side === "inputsDrivenBy" ? "the family driving the inputs" : "the family the outputs drive";
+      (boundary.warnings ??= []).push(`${what}, "${id}", is unknown: that boundary is not checked`);
+    }
+  }
+  return Object.keys(boundary).length ? { boundary } : {};
 }
 
 /** The one entry: parse, then the stages on `execute` (default this thread). */

@@ -32,6 +32,10 @@ export interface DesignSettings {
   activity?: number;
   /** Run the heuristic minimizer instead of the exact one; default false. */
   heuristic?: boolean;
+  /** Family (id) whose outputs drive the design's inputs; the analysis checks levels and loads there. Default: not checked. */
+  inputsDrivenBy?: string;
+  /** Family (id) whose inputs the design's outputs drive; checked like inputsDrivenBy. Default: not checked. */
+  outputsDrive?: string;
 }
 
 export const DEFAULT_SETTINGS = {
@@ -44,8 +48,12 @@ export const DEFAULT_SETTINGS = {
   heuristic: false,
 };
 
+const FAMILY_ID = /^[a-z0-9][a-z0-9-]{0,62}$/;
+
 /** Settings with every default filled in; fanIn and fanOut stay absent when the family's own apply. */
-export type ResolvedSettings = Required<Omit<DesignSettings, "fanIn" | "fanOut">> & Pick<DesignSettings, "fanIn" | "fanOut">;
+export type ResolvedSettings = Required<Omit<DesignSettings, OptionalSetting>> & Pick<DesignSettings, OptionalSetting>;
+/** Settings with no default: absent means the family's own figure, or no check. */
+type OptionalSetting = "fanIn" | "fanOut" | "inputsDrivenBy" | "outputsDrive";
 
 /** Fills in the defaults (DEFAULT_SETTINGS); call once, where settings enter (API body, CLI flags, a stored revision). */
 export function resolveSettings(s: DesignSettings = {}): ResolvedSettings {
@@ -57,7 +65,7 @@ export function resolveSettings(s: DesignSettings = {}): ResolvedSettings {
   return out;
 }
 
-const SETTING_KEYS = ["form", "cost", "fanIn", "fanOut", "complementedInputs", "outputPinLoad", "clockMHz", "activity", "heuristic"] as const satisfies ReadonlyArray<keyof DesignSettings>;
+const SETTING_KEYS = ["form", "cost", "fanIn", "fanOut", "complementedInputs", "outputPinLoad", "clockMHz", "activity", "heuristic", "inputsDrivenBy", "outputsDrive"] as const satisfies ReadonlyArray<keyof DesignSettings>;
 
 /** The settings as the API and storage take them (no family: that travels apart as familyId). */
 export const designSettingsSchema = z.object({
@@ -70,4 +78,6 @@ export const designSettingsSchema = z.object({
   clockMHz: z.number().positive().max(10000).optional(),
   activity: z.number().min(0).max(1).optional(),
   heuristic: z.boolean().optional(),
+  inputsDrivenBy: z.string().regex(FAMILY_ID, "give a family's key, e.g. ttl-ls-5v").optional(),
+  outputsDrive: z.string().regex(FAMILY_ID, "give a family's key, e.g. ttl-ls-5v").optional(),
 });

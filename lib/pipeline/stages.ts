@@ -26,6 +26,8 @@ export interface StageJob {
   exports: ExportFormat[];
   unitName?: string;
   minimizeMs?: number;
+  /** The families at the design's edges (see DesignSettings.inputsDrivenBy), resolved; warnings for names not found. */
+  boundary?: { inputsDrivenBy?: Family; outputsDrive?: Family; warnings?: string[] };
 }
 
 /** Everything the stages produce for one design. */
@@ -121,8 +123,9 @@ export function runStages(job: StageJob, onProgress?: (p: Progress) => void): St
     outputPinLoad: mapped.outputPinLoad,
     clockMHz: settings.clockMHz,
     activity: settings.activity,
+    ...(job.boundary ? { boundary: job.boundary } : {}),
   });
-  const warnings = [...mapped.warnings, ...analysis.warnings];
+  const warnings = [...mapped.warnings, ...(job.boundary?.warnings ?? []), ...analysis.warnings];
   const document = toJsonDocument(mapped.netlist, analysis, warnings);
   onProgress?.({ stage: "export", cost: covers.cost, lowerBound: covers.lowerBound });
   const header = [`Fanbound netlist, family ${family.name} (${family.id}), form ${mapped.form}`];

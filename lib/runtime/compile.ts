@@ -62,6 +62,8 @@ export interface ServerCompile {
   unitName?: string;
   signal?: AbortSignal;
   budgetMs?: number;
+  /** The workspace's own families the settings may name at the design's edges (built-ins are found anyway). */
+  families?: Family[];
 }
 
 /**
@@ -70,7 +72,9 @@ export interface ServerCompile {
  * limit or the family stops it, 429 when the caller has too many waiting.
  */
 export async function compileOnServer(p: ServerCompile): Promise<Compiled & { cached: boolean }> {
-  const input = { source: p.source, family: p.family, settings: resolveSettings(p.settings), exports: p.exports ?? [], unitName: p.unitName };
+  const input = {
+    source: p.source, family: p.family, settings: resolveSettings(p.settings), exports: p.exports ?? [], unitName: p.unitName, families: p.families ?? [],
+  };
   const { diagnostics, job } = prepare(input);
   if (!job) return { diagnostics, spec: null, result: null, error: null, cached: false };
   const budgetMs = p.budgetMs ?? COMPILE_BUDGET_MS;

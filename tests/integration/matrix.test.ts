@@ -19,6 +19,9 @@ import * as member from "@/app/api/v1/workspaces/[ws]/members/[userId]/route";
 import * as invitations from "@/app/api/v1/workspaces/[ws]/invitations/route";
 import * as invitation from "@/app/api/v1/workspaces/[ws]/invitations/[id]/route";
 import * as accept from "@/app/api/v1/invitations/accept/route";
+import * as resend from "@/app/api/v1/workspaces/[ws]/invitations/[id]/resend/route";
+import * as activity from "@/app/api/v1/workspaces/[ws]/activity/route";
+import * as familyMatrix from "@/app/api/v1/workspaces/[ws]/families/matrix/route";
 import * as families from "@/app/api/v1/workspaces/[ws]/families/route";
 import * as family from "@/app/api/v1/workspaces/[ws]/families/[familyId]/route";
 import * as designs from "@/app/api/v1/workspaces/[ws]/designs/route";
@@ -202,6 +205,15 @@ const rows: Row[] = [
     expect: [401, 404, 403, 403, 403, 200],
   },
   {
+    name: "POST invitations/{id}/resend",
+    run: async (_w, t) => {
+      const inv = await makeInvitation(ws.id, users.owner, `again-${tag()}@test.ferrow.example`);
+      return call(resend.POST, "POST", "/i", { token: t, params: { ...wsp(), id: inv.id } });
+    },
+    expect: [401, 404, 403, 403, 403, 200],
+  },
+  { name: "GET activity", run: (_w, t) => call(activity.GET, "GET", "/a", { token: t, params: wsp() }), expect: [401, 404, 200, 200, 200, 200] },
+  {
     name: "POST /invitations/accept (invited to a new workspace)",
     run: async (who, t) => {
       const host = await makeUser("host");
@@ -217,6 +229,17 @@ const rows: Row[] = [
     name: "POST families",
     run: (_w, t) => call(families.POST, "POST", "/f", { token: t, params: wsp(), body: { key: `k-${tag()}`, name: "Bench CMOS", data: FAMILY_DATA } }),
     expect: [401, 404, 403, 403, 403, 201],
+  },
+  {
+    name: "POST families (a copy of a built-in)",
+    run: (_w, t) => call(families.POST, "POST", "/f", { token: t, params: wsp(), body: { key: `copy-${tag()}`, name: "Bench copy", copyOf: familyId } }),
+    expect: [401, 404, 403, 403, 403, 201],
+  },
+  { name: "GET families/matrix", run: (_w, t) => call(familyMatrix.GET, "GET", "/f", { token: t, params: wsp() }), expect: [401, 404, 200, 200, 200, 200] },
+  {
+    name: "PATCH families/{id} (archive)",
+    run: async (_w, t) => call(family.PATCH, "PATCH", "/f", { token: t, params: { ...wsp(), familyId: await freshFamily() }, body: { archived: true } }),
+    expect: [401, 404, 403, 403, 403, 200],
   },
   { name: "GET families/{id}", run: (_w, t) => call(family.GET, "GET", "/f", { token: t, params: { ...wsp(), familyId: ownFamilyId } }), expect: [401, 404, 200, 200, 200, 200] },
   {
@@ -399,6 +422,8 @@ describe("records of another workspace are invisible (404) and unchanged", () =>
       await call(commentsRoute.POST, "POST", "/rv", { token: t, params: { ...op, reviewId }, body: { body: "stolen" } }),
       await call(decisionsRoute.POST, "POST", "/rv", { token: t, params: { ...op, reviewId }, body: { verdict: "approved" } }),
       await call(withdrawRoute.POST, "POST", "/rv", { token: t, params: { ...op, reviewId }, body: {} }),
+      await call(resend.POST, "POST", "/i", { token: t, params: { ...op, id: (await makeInvitation(ws.id, users.owner, `kept-${tag()}@test.ferrow.example`)).id } }),
+      await call(invitation.DELETE, "DELETE", "/i", { token: t, params: { ...op, id: (await makeInvitation(ws.id, users.owner, `kept-${tag()}@test.ferrow.example`)).id } }),
     ];
     expect(results.map((r) => r.status)).toEqual(results.map(() => 404));
     const after = await db().models.Design.findByPk(designId);

@@ -4,10 +4,12 @@ import { compileOnServer, resultBody } from "@/lib/runtime/compile";
 import { resolveCompileFamily } from "@/lib/data/families";
 
 export const POST = handle(routes.compile, async ({ req, actor, body }) => {
-  const { record, family, workspaceId } = await resolveCompileFamily({ actor, slug: body.workspace, familyId: body.familyId, familyKey: body.familyKey });
+  const { record, family, workspaceId, boundary } = await resolveCompileFamily({
+    actor, slug: body.workspace, familyId: body.familyId, familyKey: body.familyKey, settings: body.settings,
+  });
   // A client that cancels (or goes away) stops the run with it.
   const out = await compileOnServer({
-    source: body.source, family, settings: body.settings, userId: actor.userId, workspaceId, signal: req.signal,
+    source: body.source, family, settings: body.settings, userId: actor.userId, workspaceId, signal: req.signal, families: boundary,
   });
   return {
     diagnostics: out.diagnostics,
