@@ -1,6 +1,7 @@
 "use client";
 import type { Analysis } from "./types";
 import { fmtMw, fmtNs } from "@/components/workspace/format";
+import { VERDICT_WORDS } from "@/lib/families/compat";
 
 /** Counts, depth, delay and power, each estimate with its formula and the caution beside it. */
 export function FiguresPanel({ analysis }: { analysis: Analysis }) {
@@ -52,6 +53,27 @@ export function FiguresPanel({ analysis }: { analysis: Analysis }) {
             </div>
             <div className="mt-0.5 font-mono text-xs text-graphite">{e.formula}</div>
             {e.note && <div className="text-xs text-graphite">{e.note}</div>}
+          </div>
+        ))}
+        {(analysis.boundaries ?? []).map((b) => (
+          <div key={b.side} data-testid={`boundary-${b.side}`} data-verdict={b.verdict}
+            className={`rounded border px-3 py-2 ${b.verdict === "compatible" ? "border-rule bg-paper" : b.verdict === "not-compatible" ? "border-vermilion/50 bg-vermilion/10" : "border-amber/50 bg-amber/10"}`}>
+            <div className="flex items-baseline justify-between gap-2">
+              <span className="text-sm font-semibold">
+                {b.side === "inputs" ? `Inputs driven by ${b.driver.name}` : `Outputs driving ${b.receiver.name}`}{" "}
+                <span className="font-normal text-graphite">(estimate)</span>
+              </span>
+              <span className="font-mono text-sm">{VERDICT_WORDS[b.verdict]}</span>
+            </div>
+            <div className="mt-0.5 font-mono text-xs text-graphite">
+              NMH {b.nmhV ?? "—"} V · NML {b.nmlV ?? "—"} V · one output feeds {b.fanOutHigh ?? "—"} inputs high, {b.fanOutLow ?? "—"} low
+              {b.perOutput !== null ? ` · heaviest load ${b.load} (${b.at}) of ${b.perOutput}` : ""}
+            </div>
+            <details className="mt-0.5 text-xs text-graphite">
+              <summary className="cursor-pointer">formulas</summary>
+              <ul className="font-mono">{b.formulas.map((f, i) => <li key={i}>{f}</li>)}</ul>
+            </details>
+            {b.messages.map((m, i) => <div key={i} className="text-xs">{m}</div>)}
           </div>
         ))}
         <p className="rounded border border-amber/40 bg-amber/10 px-3 py-2 text-xs text-ink">{analysis.caution}</p>

@@ -39,11 +39,15 @@ export function SettingsBar({ families, familyId, onFamily, settings, onChange, 
       <label className="flex flex-col gap-0.5">
         Family
         <select className={field} value={familyId ?? ""} disabled={readOnly} onChange={(e) => onFamily(e.target.value)}>
-          {families.map((f) => (
-            <option key={f.id} value={f.id}>{f.name}</option>
+          {families.filter((f) => !f.archivedAt || f.id === familyId).map((f) => (
+            <option key={f.id} value={f.id}>{f.name}{f.archivedAt ? " (archived)" : ""}</option>
           ))}
         </select>
       </label>
+      <Boundary label="Inputs driven by" aria="Family driving the inputs" value={settings.inputsDrivenBy} families={families}
+        readOnly={readOnly} onValue={(v) => set("inputsDrivenBy", v)} />
+      <Boundary label="Outputs drive" aria="Family the outputs drive" value={settings.outputsDrive} families={families}
+        readOnly={readOnly} onValue={(v) => set("outputsDrive", v)} />
       <label className="flex flex-col gap-0.5">
         Target form
         <select className={field} value={settings.form ?? "and-or"} disabled={readOnly}
@@ -81,6 +85,29 @@ export function SettingsBar({ families, familyId, onFamily, settings, onChange, 
         Heuristic only
       </label>
     </div>
+  );
+}
+
+/** A family at the design's edge, by key; "not checked" leaves that boundary alone. */
+function Boundary({ label, aria, value, families, readOnly, onValue }: {
+  label: string;
+  aria: string;
+  value: string | undefined;
+  families: FamilyItem[];
+  readOnly: boolean;
+  onValue: (v: string | undefined) => void;
+}) {
+  return (
+    <label className="flex flex-col gap-0.5" title="the analysis checks levels and loads where the design meets this family">
+      {label}
+      <select className={`${field} max-w-[14rem]`} value={value ?? ""} disabled={readOnly} aria-label={aria}
+        onChange={(e) => onValue(e.target.value || undefined)}>
+        <option value="">not checked</option>
+        {families.filter((f) => !f.archivedAt || f.key === value).map((f) => (
+          <option key={f.id} value={f.key}>{f.name}</option>
+        ))}
+      </select>
+    </label>
   );
 }
 

@@ -217,7 +217,7 @@ function NewDesignForm({ ws, families, onDone }: { ws: string; families: FamilyI
       <input name="name" required placeholder="Name, e.g. weir sluice interlock" aria-label="Design name"
         className="rounded border border-rule bg-paper px-3 py-1.5 text-sm" autoFocus />
       <select name="familyId" aria-label="Logic family" className="rounded border border-rule bg-paper px-2 py-1.5 text-sm">
-        {families.map((f) => (
+        {families.filter((f) => !f.archivedAt).map((f) => (
           <option key={f.id} value={f.id}>
             {f.name}
           </option>

@@ -4,6 +4,7 @@ import { usePathname } from "next/navigation";
 import useSWR from "swr";
 import type { WorkspaceInfo } from "@/lib/client/types";
 import { RoleBadge } from "@/components/ui/RoleBadge";
+import { can } from "@/lib/auth/permissions";
 
 export function WorkspaceNav({ ws }: { ws: string }) {
   const { data } = useSWR<{ workspace: WorkspaceInfo }>(`/api/v1/workspaces/${ws}`);
@@ -21,7 +22,9 @@ export function WorkspaceNav({ ws }: { ws: string }) {
       {data && <RoleBadge role={data.workspace.role} />}
       {link(`/w/${ws}`, "Designs")}
       {link(`/w/${ws}/families`, "Families")}
+      {link(`/w/${ws}/families/matrix`, "Compatibility")}
       {link(`/w/${ws}/reviews`, waiting ? `Reviews (${waiting})` : "Reviews")}
+      {data && can(data.workspace.role, "member.manage") && link(`/w/${ws}/members`, "Members")}
     </div>
   );
 }

@@ -27,6 +27,36 @@ export interface FamilyItem extends FamilyRef {
   fanIn: number;
   fanOut: number;
   data: Record<string, unknown>;
+  /** Set when an owner archived it: not offered for new designs. */
+  archivedAt: string | null;
+}
+
+export interface MemberItem {
+  userId: string;
+  email: string;
+  name: string;
+  role: Role;
+  joinedAt: string;
+}
+
+export interface InvitationItem {
+  id: string;
+  email: string;
+  role: Role;
+  status: "open" | "accepted" | "revoked" | "expired";
+  expiresAt: string;
+  createdAt: string;
+  invitedBy: Person;
+}
+
+export interface ActivityItem {
+  id: string;
+  at: string;
+  actor: Person | null;
+  action: string;
+  subject: { kind: string; id: string | null; label: string };
+  details: Record<string, unknown>;
+  summary: string;
 }
 
 /** Figures stored with each revision (computed by the server's pipeline). */
