@@ -72,7 +72,7 @@ export function CompatibilityMatrix({ ws }: { ws: string }) {
                           `high: ${p.formulas.fanOutHigh}`, `low: ${p.formulas.fanOutLow}`, ...p.messages].join("\n")}
                         aria-label={`${d.name} driving ${r.name}: ${VERDICT_WORDS[p.verdict]}`}
                         className={`block w-full min-w-[7.5rem] rounded border px-2 py-1 text-left font-mono tabular ${TONE[p.verdict]} ${chosen ? "ring-2 ring-ink" : ""}`}>
-                        <span className="flex justify-between"><span>{MARK[p.verdict]}</span><span>{v(p.nmhV)} / {v(p.nmlV)} V</span></span>
+                        <span className="flex justify-between gap-2"><span>{MARK[p.verdict]}</span><span>{v(p.nmhV)} / {v(p.nmlV)} V</span></span>
                         <span className="block text-graphite">H {p.fanOutHigh ?? "—"} · L {p.fanOutLow ?? "—"}</span>
                       </button>
                     </td>

@@ -295,13 +295,14 @@ export function FamilyEditor({ ws, familyId, from }: { ws: string; familyId?: st
             <section key={group} aria-label={heading}>
               <h2 className="mb-1.5 text-xs font-semibold uppercase tracking-wide text-graphite">{heading}</h2>
               <div className="overflow-x-auto rounded border border-rule bg-sheet">
-                <table className="w-full text-sm">
+                <table className="w-full min-w-[44rem] table-fixed text-sm">
+                  <colgroup><col className="w-28" /><col /><col className="w-40" /><col className="w-[38%]" /></colgroup>
                   <tbody>
                     {FIGURES.filter((s) => s.group === group).map((s) => (
                       <tr key={s.key} className="border-b border-rule/60 align-top last:border-0" data-figure={s.key}>
-                        <td className="w-28 px-3 py-1.5 font-mono">{s.symbol}</td>
+                        <td className="px-3 py-1.5 font-mono">{s.symbol}</td>
                         <td className="px-3 py-1.5 text-graphite">{s.label}<div className="text-[11px]">{rangeText(s)}</div></td>
-                        <td className="w-36 px-3 py-1.5">
+                        <td className="px-3 py-1.5">
                           <span className="flex items-center gap-1">
                             <input type="text" inputMode="decimal" className={`${input} w-24 font-mono ${byField[s.key] ? "border-vermilion" : ""}`}
                               value={draft.figures[s.key] ?? ""} disabled={!editable} placeholder="—"
@@ -313,6 +314,7 @@ export function FamilyEditor({ ws, familyId, from }: { ws: string; familyId?: st
                         <td className="px-3 py-1.5">
                           <input type="text" list="source-suggestions" className={`${input} w-full text-xs`} disabled={!editable}
                             value={draft.sources[s.key] ?? ""} placeholder="source: data sheet of part …, measured, estimate"
+                            title={draft.sources[s.key] || undefined}
                             aria-label={`Source of ${s.symbol}`} onChange={(e) => setSource(s.key, e.target.value)} />
                           {byField[s.key] && <div role="alert" className="mt-0.5 text-[11px] leading-tight text-vermilion">{byField[s.key]}</div>}
                         </td>

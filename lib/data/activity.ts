@@ -79,7 +79,7 @@ export function describeActivity(action: string, label: string, d: Record<string
     case "member.role":
       return `changed the role of ${label} from ${d.from} to ${d.to}`;
     case "member.remove":
-      return `removed ${label} (${d.role}) from the workspace`;
+      return `removed ${label} from the workspace (was ${d.role})`;
     case "invitation.create":
       return `invited ${label} as ${d.role}`;
     case "invitation.resend":

@@ -7,7 +7,7 @@ import { readFileSync } from "node:fs";
 import path from "node:path";
 import { Op } from "sequelize";
 import type { initModels } from "../../models";
-import { BUILT_IN_FAMILIES } from "../families";
+import type { Family } from "../families";
 import { compileNow, type DesignSettings } from "../pipeline";
 import { importDesign, type ImportKind } from "../import";
 
@@ -85,6 +85,14 @@ export const DEMO_DESIGNS: DemoDesign[] = [
       { message: "Coil decode with drive enable", author: "designer", family: "cmos-hct-5v" },
       { message: "Try NOR–NOR for the relay board", author: "designer", family: "cmos-hct-5v", settings: { form: "nor" } },
       { message: "Back to AND–OR; complemented selects come from the latch", author: "designer", family: "cmos-hct-5v", settings: { complementedInputs: true } },
+      {
+        message: "The select latch is low-power Schottky: check its outputs against our inputs",
+        author: "designer", family: "cmos-hct-5v", settings: { complementedInputs: true, inputsDrivenBy: "ttl-ls-5v" },
+      },
+      {
+        message: "Use the bench figures of the lock-cabinet batch",
+        author: "owner", family: "ferrow-hct-cabinet", settings: { complementedInputs: true, inputsDrivenBy: "ttl-ls-5v" },
+      },
     ],
   },
   {
@@ -125,8 +133,18 @@ export async function seedDemoDesigns(
   users: Record<string, InstanceType<Models["User"]>>,
 ): Promise<number> {
   const { Design, Revision, LogicFamilyRecord } = models;
-  const familyRows = await LogicFamilyRecord.findAll({ where: { workspaceId: { [Op.is]: null } } });
+  // Built-ins first, then the workspace's own (the demo's bench family), which the steps may name too.
+  const familyRows = [
+    ...(await LogicFamilyRecord.findAll({ where: { workspaceId: { [Op.is]: null } } })),
+    ...(await LogicFamilyRecord.findAll({ where: { workspaceId: workspace.id } })),
+  ];
   const familyByKey = new Map(familyRows.map((f) => [f.key, f]));
+  const familyOf = (key: string): Family => {
+    const row = familyByKey.get(key);
+    if (!row) throw new Error(`demo family ${key} missing: seed the built-in and the demo families first`);
+    return { ...(row.data as unknown as Family), id: row.key, name: row.name };
+  };
+  const own = familyRows.filter((f) => f.workspaceId !== null).map((f) => familyOf(f.key));
   let created = 0;
   const day = 24 * 3600 * 1000;
   for (const [di, demo] of DEMO_DESIGNS.entries()) {
@@ -147,8 +165,8 @@ export async function seedDemoDesigns(
     for (const [i, step] of demo.steps.entries()) {
       const source = step.edit ? step.edit(full) : full;
       const settings = step.settings ?? {};
-      const family = BUILT_IN_FAMILIES.find((f) => f.id === step.family)!;
-      const { result, error } = compileNow({ source, family, settings });
+      const family = familyOf(step.family);
+      const { result, error } = compileNow({ source, family, settings, families: own });
       if (!result) {
         throw new Error(`demo design "${demo.name}" revision ${i + 1} did not compile: ${error?.message ?? "errors"}`);
       }

@@ -12,6 +12,7 @@ import { BUILT_IN_FAMILIES } from "../families";
 import { DEMO_PASSWORD, DEMO_USERS, DEMO_WORKSPACE } from "../scripts/demo.mjs";
 import { seedDemoDesigns } from "./seed-designs";
 import { seedDemoReviews } from "./seed-reviews";
+import { seedDemoAdministration, seedDemoFamily } from "./seed-admin";
 
 async function main() {
   const url = process.env.DATABASE_URL;
@@ -47,8 +48,10 @@ async function main() {
         defaults: { workspaceId: workspace.id, userId: user.id, role },
       });
     }
+    const bench = await seedDemoFamily(models, workspace);
     await seedDemoDesigns(models, workspace, users);
     await seedDemoReviews(models, workspace, users);
+    await seedDemoAdministration(models, workspace, users, bench);
     console.log(`seeded: ${BUILT_IN_FAMILIES.length} built-in families, workspace "${workspace.name}"`);
   } finally {
     await sequelize.close();

@@ -56,7 +56,8 @@ export function figureSpec(key: FigureKey): FigureSpec {
 
 /** "from 0 to 30 V" / "above 0 and at most 30 V", said the way the validator and the editor say it. */
 export function rangeText(spec: Pick<FigureSpec, "min" | "max" | "minExclusive" | "unit" | "signed">): string {
-  const n = (x: number) => (Math.abs(x) >= 1e5 ? x.toExponential() : String(x));
+  // 1000000 reads as "1 000 000"; small figures as typed ("0.000001").
+  const n = (x: number) => (Math.abs(x) >= 1e4 ? String(x).replace(/\B(?=(\d{3})+(?!\d))/g, " ") : String(x));
   const core = spec.minExclusive ? `above ${n(spec.min)} and at most ${n(spec.max)} ${spec.unit}` : `from ${n(spec.min)} to ${n(spec.max)} ${spec.unit}`;
   return spec.signed ? `${core} in magnitude (the sign gives only the direction)` : core;
 }

@@ -154,7 +154,7 @@ describe("validation names the figure and its range", () => {
     const by = Object.fromEntries(p.map((x) => [x.field, x.message]));
     expect(by.supplyV).toBe("VCC (supply voltage) must be above 0 and at most 30 V; got 50");
     expect(by.iilMa).toMatch(/^IIL \(input current at a low level\) must be from 0\.000001 to 1000 mA in magnitude/);
-    expect(by.inputCapPf).toMatch(/^C_in .* above 0 and at most 10000 pF; got 0$/);
+    expect(by.inputCapPf).toMatch(/^C_in .* above 0 and at most 10 000 pF; got 0$/);
     expect(validateFamily({ id: "x", name: "X", vohMin: "high" })[0]!.message).toBe(
       'VOH(min) (lowest guaranteed output high level) in V must be a number, not "high"',
     );

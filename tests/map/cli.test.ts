@@ -82,9 +82,32 @@ describe("families command", () => {
     expect(ttl).toMatchObject({ name: "Bipolar TTL, standard, 5 V", fanOut: 10, fanIn: 13 });
     for (const f of families) expect(typeof f.fanIn === "number" && typeof f.fanOut === "number").toBe(true);
   });
+  it("--matrix prints every driver → receiver pair of the built-in families", async () => {
+    const t = io();
+    expect(await familiesRun(["--matrix"], t.io)).toBe(0);
+    const { pairs } = JSON.parse(t.out.join(""));
+    expect(pairs.length).toBe(25); // five built-in families, each with each, itself included
+    for (const p of pairs) expect(Object.keys(p).sort()).toEqual(["driver", "fanOutHigh", "fanOutLow", "nmhV", "nmlV", "receiver", "verdict"]);
+    // textbook standard TTL into itself: 0.4 V and 0.4 V; IOL 16 mA / IIL 1.6 mA = 10, IOH 0.4 mA / IIH 40 µA = 10
+    expect(pairs.find((p: { driver: string; receiver: string }) => p.driver === "ttl-std-5v" && p.receiver === "ttl-std-5v")).toEqual({
+      driver: "ttl-std-5v", receiver: "ttl-std-5v", nmhV: 0.4, nmlV: 0.4, fanOutHigh: 10, fanOutLow: 10, verdict: "compatible",
+    });
+    // TTL VOH(min) 2.4 V below the 3.15 V CMOS threshold of JEDEC JESD7A at VCC = 4.5 V
+    expect(pairs.find((p: { driver: string; receiver: string }) => p.driver === "ttl-std-5v" && p.receiver === "cmos-hc-5v").verdict).toBe("not-compatible");
+    const bad = io();
+    expect(await familiesRun(["--matrx"], bad.io)).toBe(2);
+    expect(bad.err.join("")).toMatch(/usage: .*families \[--matrix\]/);
+  });
 });
 
 describe("through npm run", () => {
+  it("families --matrix runs from the command line", () => {
+    const r = spawnSync("npm", ["run", "-s", "cli", "--", "families", "--matrix"], { encoding: "utf8" });
+    expect(r.status, r.stderr).toBe(0);
+    const { pairs } = JSON.parse(r.stdout);
+    // JESD7A 4 mA rated point into textbook standard TTL inputs: floor(4 / 1.6) = 2 low, floor(4 / 0.04) = 100 high
+    expect(pairs.find((p: { driver: string; receiver: string }) => p.driver === "cmos-hc-5v" && p.receiver === "ttl-std-5v")).toMatchObject({ fanOutLow: 2, fanOutHigh: 100, verdict: "compatible" });
+  });
   it("map runs from the command line", () => {
     const r = spawnSync("npm", ["run", "-s", "cli", "--", "map", "lib/lang/examples/fault-priority.fnb", "--family", "lvcmos-3v3", "--form", "nor"], { encoding: "utf8" });
     expect(r.status, r.stderr).toBe(0);
