@@ -171,7 +171,6 @@ describe("the owner's screens in chromium", () => {
   it("checks a design's boundaries with other families in the workbench, beside the estimate cautions", async () => {
     const { page } = owner;
     await page.goto(`${BASE_URL}/w/ferrow-controls`);
-    page.on("request", (r) => { if (r.method() === "PATCH") console.log("PATCH", Date.now(), r.postData()); });
     await page.getByRole("link", { name: "Paddle driver decode" }).click();
     await page.waitForURL(/\/d\//);
     // the demo's latest revision: the select latch (low-power Schottky) drives the bench-measured HCT inputs
@@ -182,7 +181,7 @@ describe("the owner's screens in chromium", () => {
     await expect.poll(() => inputs.getAttribute("data-verdict"), { timeout: 30_000 }).toBe("compatible");
     expect(await inputs.innerText()).toMatch(/NMH 0\.5 V · NML 0\.3 V/);
     // outputs into 3.3 V CMOS inputs: the 4.5 V swing exceeds their 3.8 V limit (from memory: VDD + 0.5 V)
-    const sent = page.waitForResponse((r) => /\/designs\/[0-9a-f-]{36}$/.test(r.url()) && r.request().method() === "PATCH", { timeout: 20_000 });
+    const sent = page.waitForResponse((r) => /\/designs\/[0-9a-f-]{36}\/draft$/.test(r.url()) && r.request().method() === "PUT", { timeout: 20_000 });
     await page.getByLabel("Family the outputs drive").selectOption("lvcmos-3v3");
     // the draft keeps the setting (the demo seed leaves the outputs unchecked)
     expect((await sent).request().postDataJSON()).toMatchObject({ settings: { outputsDrive: "lvcmos-3v3" } });
@@ -195,7 +194,7 @@ describe("the owner's screens in chromium", () => {
     await page.getByRole("tab", { name: /Notes/ }).click();
     await expect.poll(() => page.getByTestId("notes").innerText()).toMatch(/outputs driving Low-voltage CMOS, 3\.3 V: not compatible/);
     // leave the demo design as it was
-    const kept = page.waitForResponse((r) => /\/designs\/[0-9a-f-]{36}$/.test(r.url()) && r.request().method() === "PATCH", { timeout: 20_000 });
+    const kept = page.waitForResponse((r) => /\/designs\/[0-9a-f-]{36}\/draft$/.test(r.url()) && r.request().method() === "PUT", { timeout: 20_000 });
     await page.getByLabel("Family the outputs drive").selectOption({ label: "not checked" });
     expect((await kept).status()).toBe(200);
     expect((await kept).request().postDataJSON().settings.outputsDrive).toBeUndefined();

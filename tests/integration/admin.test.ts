@@ -19,6 +19,7 @@ import * as family from "@/app/api/v1/workspaces/[ws]/families/[familyId]/route"
 import * as familyMatrix from "@/app/api/v1/workspaces/[ws]/families/matrix/route";
 import * as designs from "@/app/api/v1/workspaces/[ws]/designs/route";
 import * as design from "@/app/api/v1/workspaces/[ws]/designs/[designId]/route";
+import * as draft from "@/app/api/v1/workspaces/[ws]/designs/[designId]/draft/route";
 import * as revisions from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/route";
 import * as revision from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/[number]/route";
 import * as compile from "@/app/api/v1/compile/route";
@@ -42,6 +43,14 @@ beforeEach(async () => {
 });
 
 const p = () => ({ ws: ws.slug });
+/** Writes a design's draft the way the workbench does: text, family and settings together, from the version last seen. */
+async function putDraft(designId: string, body: { source?: string; familyId: string; settings?: Record<string, unknown> }) {
+  const now = await call(design.GET, "GET", "/d", { token: owner.token, params: { ...p(), designId } });
+  return call(draft.PUT, "PUT", "/d", {
+    token: owner.token, params: { ...p(), designId },
+    body: { source: body.source ?? now.json.design.draftSource, familyId: body.familyId, settings: body.settings ?? {}, baseVersion: now.json.design.draftVersion },
+  });
+}
 async function entries(token = owner.token, query: Record<string, string> = { limit: "200" }) {
   const r = await call(activity.GET, "GET", "/a", { token, params: p(), query });
   expect(r.status).toBe(200);
@@ -226,7 +235,9 @@ describe("families: copy, edit, archive", () => {
     expect(r2.status).toBe(201);
     // moving another design onto it is refused
     const other = await call(designs.POST, "POST", "/d", { token: owner.token, params: p(), body: { name: `Other gate ${tag()}`, familyId: hcId } });
-    expect((await call(design.PATCH, "PATCH", "/d", { token: owner.token, params: { ...p(), designId: other.json.design.id }, body: { familyId: famId } })).status).toBe(400);
+    expect((await putDraft(other.json.design.id, { familyId: famId })).status).toBe(400);
+    // the design already on it keeps its draft going
+    expect((await putDraft(designId, { familyId: famId, source: `${SOURCE}// kept on the archived family\n` })).status).toBe(200);
     // deleting it is refused while revisions use it, with the way out named
     const del = await call(family.DELETE, "DELETE", "/f", { token: owner.token, params: { ...p(), familyId: famId } });
     expect(del.status).toBe(409);
@@ -240,15 +251,16 @@ describe("families: copy, edit, archive", () => {
 });
 
 describe("designs are recorded", () => {
-  it("creation, renaming, a family move, archiving and saved revisions; draft edits are not", async () => {
+  it("creation, renaming, a family move, archiving and saved revisions; draft text is not", async () => {
     const name = `Paddle decode ${tag()}`;
     const d = await call(designs.POST, "POST", "/d", { token: owner.token, params: p(), body: { name, familyId: hcId } });
     const designId = d.json.design.id;
     const dp = { ...p(), designId };
-    await call(design.PATCH, "PATCH", "/d", { token: owner.token, params: dp, body: { draftSource: SOURCE } });
+    expect((await putDraft(designId, { familyId: hcId, source: SOURCE })).status).toBe(200);
     await call(design.PATCH, "PATCH", "/d", { token: owner.token, params: dp, body: { name: `${name} v2` } });
     const ttl = (await builtinFamily("ttl-std-5v")).id;
-    await call(design.PATCH, "PATCH", "/d", { token: owner.token, params: dp, body: { familyId: ttl } });
+    expect((await putDraft(designId, { familyId: ttl })).status).toBe(200);
+    expect((await putDraft(designId, { familyId: ttl, source: `${SOURCE}// typed on\n` })).status).toBe(200);
     await call(revisions.POST, "POST", "/r", { token: owner.token, params: dp, body: { message: "first save", source: SOURCE, familyId: ttl, settings: {} } });
     await call(design.PATCH, "PATCH", "/d", { token: owner.token, params: dp, body: { archived: true } });
     const list = (await entries()).items.filter((e) => e.subject.kind === "design" && e.subject.label.startsWith(name));
@@ -295,7 +307,7 @@ describe("the compatibility matrix and the design's boundaries", () => {
     });
     expect(c2.json.result.analysis.boundaries[0]).toMatchObject({ side: "outputs", verdict: "compatible", receiver: { name: "Edge board" } });
     const d = await call(designs.POST, "POST", "/d", { token: owner.token, params: p(), body: { name: `Edge ${tag()}`, familyId: hcId } });
-    const bad = await call(design.PATCH, "PATCH", "/d", { token: owner.token, params: { ...p(), designId: d.json.design.id }, body: { settings: { inputsDrivenBy: "no-such-family" } } });
+    const bad = await putDraft(d.json.design.id, { familyId: hcId, settings: { inputsDrivenBy: "no-such-family" } });
     expect(bad.status).toBe(400);
     expect(bad.json.error.message).toMatch(/settings\.inputsDrivenBy names no family/);
   });
