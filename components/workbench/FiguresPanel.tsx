@@ -67,7 +67,7 @@ export function FiguresPanel({ analysis }: { analysis: Analysis }) {
             </div>
             <div className="mt-0.5 font-mono text-xs text-graphite">
               NMH {b.nmhV ?? "—"} V · NML {b.nmlV ?? "—"} V · one output feeds {b.fanOutHigh ?? "—"} inputs high, {b.fanOutLow ?? "—"} low
-              {b.perOutput !== null ? ` · heaviest load ${b.load} (${b.at}) of ${b.perOutput}` : ""}
+              {b.perOutput !== null ? ` · ${b.at === "each output" ? "each output drives" : `${b.at} feeds`} ${b.load} of at most ${b.perOutput}` : ""}
             </div>
             <details className="mt-0.5 text-xs text-graphite">
               <summary className="cursor-pointer">formulas</summary>

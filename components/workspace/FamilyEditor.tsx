@@ -301,7 +301,7 @@ export function FamilyEditor({ ws, familyId, from }: { ws: string; familyId?: st
                     {FIGURES.filter((s) => s.group === group).map((s) => (
                       <tr key={s.key} className="border-b border-rule/60 align-top last:border-0" data-figure={s.key}>
                         <td className="px-3 py-1.5 font-mono">{s.symbol}</td>
-                        <td className="px-3 py-1.5 text-graphite">{s.label}<div className="text-[11px]">{rangeText(s)}</div></td>
+                        <td className="px-3 py-1.5 text-graphite">{s.label}<div className="text-[11px]">{rangeText({ ...s, signed: false })}{s.signed ? " (magnitude)" : ""}</div></td>
                         <td className="px-3 py-1.5">
                           <span className="flex items-center gap-1">
                             <input type="text" inputMode="decimal" className={`${input} w-24 font-mono ${byField[s.key] ? "border-vermilion" : ""}`}

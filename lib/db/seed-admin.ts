@@ -11,6 +11,15 @@ import { randomSecret, sha256 } from "../auth/secrets";
 
 type Models = ReturnType<typeof initModels>;
 
+const DAY = 24 * 3600 * 1000;
+/** When the demo team joined: the owner a day before the others, who joined an hour apart, 40 days ago. */
+const TEAM_START = new Date(Date.now() - 40 * DAY);
+const JOIN_ORDER = ["designer", "reviewer", "viewer"] as const;
+export function teamJoined(role: string): Date {
+  const i = JOIN_ORDER.indexOf(role as (typeof JOIN_ORDER)[number]);
+  return new Date(TEAM_START.getTime() + (i < 0 ? -DAY : i * 3600_000));
+}
+
 const MEASURED = "measured on the Ferrow bench: worst of 20 parts of the lock-cabinet batch at 70 °C, VCC = 4.5 V";
 
 /**
@@ -60,25 +69,24 @@ export async function seedDemoAdministration(
 ): Promise<void> {
   const { Invitation, Design, Revision } = models;
   if ((await models.Activity.count({ where: { workspaceId: workspace.id } })) > 0) return;
-  const day = 24 * 3600 * 1000;
+  const day = DAY;
   const owner = users.owner!;
   const entries: Array<CreationAttributes<Activity> & { createdAt: Date }> = [];
   const at = (d: Date) => ({ createdAt: d });
   const person = (u: InstanceType<Models["User"]>) => `${u.name} (${u.email})`;
 
-  // The team as it came together, before the first design.
-  const start = new Date(Date.now() - 40 * day);
-  for (const [i, role] of (["designer", "reviewer", "viewer"] as const).entries()) {
+  // The team as it came together, before the first design; the reviewer started as a viewer.
+  for (const role of JOIN_ORDER) {
     const u = users[role]!;
     entries.push({
       workspaceId: workspace.id, actorId: u.id, action: "member.join", subjectKind: "membership", subjectId: u.id,
-      subjectLabel: person(u), details: { role: role === "reviewer" ? "viewer" : role }, ...at(new Date(start.getTime() + i * 3600_000)),
+      subjectLabel: person(u), details: { role: role === "reviewer" ? "viewer" : role }, ...at(teamJoined(role)),
     });
   }
   const reviewer = users.reviewer!;
   entries.push({
     workspaceId: workspace.id, actorId: owner.id, action: "member.role", subjectKind: "membership", subjectId: reviewer.id,
-    subjectLabel: person(reviewer), details: { from: "viewer", to: "reviewer" }, ...at(new Date(start.getTime() + day)),
+    subjectLabel: person(reviewer), details: { from: "viewer", to: "reviewer" }, ...at(new Date(TEAM_START.getTime() + day)),
   });
 
   // Each demo design and revision, when it was made.

@@ -12,7 +12,7 @@ import { BUILT_IN_FAMILIES } from "../families";
 import { DEMO_PASSWORD, DEMO_USERS, DEMO_WORKSPACE } from "../scripts/demo.mjs";
 import { seedDemoDesigns } from "./seed-designs";
 import { seedDemoReviews } from "./seed-reviews";
-import { seedDemoAdministration, seedDemoFamily } from "./seed-admin";
+import { seedDemoAdministration, seedDemoFamily, teamJoined } from "./seed-admin";
 
 async function main() {
   const url = process.env.DATABASE_URL;
@@ -45,7 +45,7 @@ async function main() {
       users[role] = user;
       await Membership.findOrCreate({
         where: { workspaceId: workspace.id, userId: user.id },
-        defaults: { workspaceId: workspace.id, userId: user.id, role },
+        defaults: { workspaceId: workspace.id, userId: user.id, role, createdAt: teamJoined(role) },
       });
     }
     const bench = await seedDemoFamily(models, workspace);
