@@ -13,7 +13,7 @@ import { prepare, resolveSettings, type PipelineError } from "../pipeline";
 import { cacheKey, cachedResult } from "./compile-cache";
 import { enqueue, JOB_BUDGET_MS } from "../runtime/jobs";
 import { iso, requireAccess, type Actor } from "./access";
-import { familyOf } from "./families";
+import { boundaryFamilies, familyOf } from "./families";
 import { usableFamily } from "./designs";
 
 export type JobStatus = "queued" | "running" | "done" | "failed" | "cancelled";
@@ -94,12 +94,16 @@ export async function createJob(p: {
   designId?: string;
 }): Promise<JobView> {
   const { workspace } = await requireAccess(p.actor, p.slug, "compile.run");
-  const family = familyOf(await usableFamily(workspace.id, p.familyId));
+  let current: string | undefined;
   if (p.designId) {
     const d = await db().models.Design.findOne({ where: { id: p.designId, workspaceId: workspace.id } });
     if (!d) throw notFound("design");
+    current = d.familyId;
   }
-  const { diagnostics, job } = prepare({ source: p.source, family, settings: resolveSettings(p.settings) });
+  // A design on an archived family runs on it still; the families at its edges come along.
+  const family = familyOf(await usableFamily(workspace.id, p.familyId, current));
+  const families = await boundaryFamilies(workspace.id, p.settings);
+  const { diagnostics, job } = prepare({ source: p.source, family, settings: resolveSettings(p.settings), families });
   if (!job) throw new AppError("compile_errors", "The source has errors; fix them before running it as a job.", { diagnostics });
   job.minimizeMs = Math.round(JOB_BUDGET_MS * 0.9);
   const scope = `ws:${workspace.id}`;
