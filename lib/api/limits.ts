@@ -48,6 +48,11 @@ export const LIMITS = {
   export: { points: 120, seconds: 60, per: ["user"], what: "export" },
   /** Review writes per user (asking, which mails each member asked; comments; decisions; withdrawals): 60 per 10 minutes. */
   review: { points: 60, seconds: 600, per: ["user"], what: "review" },
+  /**
+   * Invitation mail an owner sends, new or sent again, whatever the address:
+   * 30 per hour per user — a team's worth at once, not a mailing list.
+   */
+  invitationMail: { points: 30, seconds: 3600, per: ["user"], what: "invitation" },
   /** "Sign out everywhere" per user: 10 per 10 minutes. */
   sessions: { points: 10, seconds: 600, per: ["user"], what: "sign-out" },
 } as const satisfies Record<string, LimitRule>;

@@ -356,7 +356,8 @@ export const routes = {
   createInvitation: defineRoute({
     method: "POST", path: "/workspaces/{ws}/invitations", tag: "members", auth: "user", summary: "Invite by e-mail (owner)",
     params: WsParams, body: z.object({ email: Email, role: Role }).strict(),
-    response: z.object({ invitation: Invitation }), status: 201, errors: [...WS, 409, 413, 415],
+    response: z.object({ invitation: Invitation }), status: 201, errors: [...WS, 409, 413, 415, 429],
+    limits: ["invitationMail"],
   }),
   revokeInvitation: defineRoute({
     method: "DELETE", path: "/workspaces/{ws}/invitations/{id}", tag: "members", auth: "user", summary: "Cancel (revoke) an invitation (owner)",
@@ -365,7 +366,8 @@ export const routes = {
   resendInvitation: defineRoute({
     method: "POST", path: "/workspaces/{ws}/invitations/{id}/resend", tag: "members", auth: "user",
     summary: "Send an open or expired invitation again with a new link, valid for another 7 days; the earlier link stops working (owner)",
-    params: WsParams.extend({ id: Id }), response: z.object({ invitation: Invitation }), errors: [...WS, 409],
+    params: WsParams.extend({ id: Id }), response: z.object({ invitation: Invitation }), errors: [...WS, 409, 429],
+    limits: ["invitationMail"],
   }),
   listActivity: defineRoute({
     method: "GET", path: "/workspaces/{ws}/activity", tag: "members", auth: "user",

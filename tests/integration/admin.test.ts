@@ -23,6 +23,7 @@ import * as draft from "@/app/api/v1/workspaces/[ws]/designs/[designId]/draft/ro
 import * as revisions from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/route";
 import * as revision from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/[number]/route";
 import * as compile from "@/app/api/v1/compile/route";
+import { enforceLimits, LIMITS } from "@/lib/api/rate-limit";
 import { SOURCE, addMember, builtinFamily, call, linkIn, mailTo, makeUser, makeWorkspace, resetLimits, tag, type TestUser } from "./helpers";
 
 let owner: TestUser;
@@ -154,6 +155,23 @@ describe("memberships and invitations are recorded", () => {
     expect(list[0]!.actor?.id).toBe(guest.id);
     // an accepted invitation cannot be sent again
     expect((await call(resend.POST, "POST", "/i", { token: owner.token, params: { ...p(), id: r.json.invitation.id } })).status).toBe(409);
+  });
+
+  it("invitation mail, new or sent again, counts against the owner's own limit", async () => {
+    // Another owner, so this test's count starts at zero whatever the others sent.
+    const busy = await makeUser("busy-owner");
+    const w = await makeWorkspace("busy", busy);
+    const first = await call(invitations.POST, "POST", "/i", { token: busy.token, params: { ws: w.slug }, body: { email: `crew-${tag()}@test.ferrow.example`, role: "viewer" } });
+    expect(first.status).toBe(201);
+    expect((await call(resend.POST, "POST", "/i", { token: busy.token, params: { ws: w.slug, id: first.json.invitation.id } })).status).toBe(200);
+    // The rest of the hour's allowance spent as the routes spend it; had either call above not counted, one would be left.
+    for (let i = 2; i < LIMITS.invitationMail.points; i++) await enforceLimits(["invitationMail"], { caller: "direct", userId: busy.id });
+    const refused = await call(invitations.POST, "POST", "/i", { token: busy.token, params: { ws: w.slug }, body: { email: `crew-${tag()}@test.ferrow.example`, role: "viewer" } });
+    expect(refused.status).toBe(429);
+    expect(refused.json.error).toMatchObject({ code: "rate_limited", details: { limit: "invitationMail" } });
+    expect((await call(resend.POST, "POST", "/i", { token: busy.token, params: { ws: w.slug, id: first.json.invitation.id } })).status).toBe(429);
+    // The workspace's other owner is not held back by it.
+    expect((await call(invitations.POST, "POST", "/i", { token: owner.token, params: p(), body: { email: `crew-${tag()}@test.ferrow.example`, role: "viewer" } })).status).toBe(201);
   });
 
   it("a viewer reads the list without the entries about invitations; another workspace's list is its own", async () => {
@@ -306,6 +324,18 @@ describe("the compatibility matrix and the design's boundaries", () => {
       token: viewer.token, body: { source: SOURCE, workspace: ws.slug, familyId: hcId, settings: { outputsDrive: own.json.family.key } },
     });
     expect(c2.json.result.analysis.boundaries[0]).toMatchObject({ side: "outputs", verdict: "compatible", receiver: { name: "Edge board" } });
+    // The compile cache keys on the boundary family's figures too: the same compile is answered from the cache
+    // until the receiver's figures change, then checked anew: against a VIH(min) of 4.3 V, the 4.4 V that
+    // high-speed CMOS guarantees as VOH(min) at VCC = 4.5 V (JEDEC JESD7A) leaves a high noise margin of 0.1 V.
+    const edgeCompile = { source: SOURCE, workspace: ws.slug, familyId: hcId, settings: { outputsDrive: own.json.family.key } };
+    expect((await call(compile.POST, "POST", "/compile", { token: viewer.token, body: edgeCompile })).json.cached).toBe(true);
+    const edited = await call(family.PATCH, "PATCH", "/f", {
+      token: owner.token, params: { ...p(), familyId: own.json.family.id }, body: { data: { ...own.json.family.data, vihMin: 4.3 } },
+    });
+    expect(edited.status).toBe(200);
+    const c3 = await call(compile.POST, "POST", "/compile", { token: viewer.token, body: edgeCompile });
+    expect(c3.json.cached).toBe(false);
+    expect(c3.json.result.analysis.boundaries[0]).toMatchObject({ side: "outputs", verdict: "small-margin" });
     const d = await call(designs.POST, "POST", "/d", { token: owner.token, params: p(), body: { name: `Edge ${tag()}`, familyId: hcId } });
     const bad = await putDraft(d.json.design.id, { familyId: hcId, settings: { inputsDrivenBy: "no-such-family" } });
     expect(bad.status).toBe(400);
