@@ -189,6 +189,8 @@ describe("the owner's screens in chromium", () => {
     await expect.poll(() => outputs.getAttribute("data-verdict"), { timeout: 30_000 }).toBe("not-compatible");
     expect(await outputs.innerText()).toMatch(/level translator/);
     expect(await page.getByTestId("figures").innerText()).toMatch(/check the data sheets/);
+    // the picture shows the whole workbench, the schematic drawn
+    await page.waitForSelector('[data-testid="schematic"] g[data-gate]', { timeout: 30_000 });
     await outputs.scrollIntoViewIfNeeded();
     await screenshot(page, "workbench-boundaries");
     await page.getByRole("tab", { name: /Notes/ }).click();
