@@ -75,6 +75,7 @@ export async function prepareDatabase(adminUrl, database, roles = ROLES) {
       await client.query(`REVOKE UPDATE, DELETE, TRUNCATE ON TABLE revisions FROM ${app}`).catch(() => {});
       await client.query(`REVOKE UPDATE, DELETE, TRUNCATE ON TABLE review_decisions, review_comments, review_reviewers FROM ${app}`).catch(() => {});
       await client.query(`REVOKE DELETE, TRUNCATE ON TABLE reviews FROM ${app}`).catch(() => {});
+      await client.query(`REVOKE UPDATE, DELETE, TRUNCATE ON TABLE activity FROM ${app}`).catch(() => {});
       await client.query(`REVOKE ALL ON TABLE "SequelizeMeta" FROM ${app}`).catch(() => {});
     }
     return { created, adopted };
