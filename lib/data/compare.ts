@@ -18,7 +18,7 @@ import { resolveSettings, type DesignSettings } from "../pipeline";
 import { compareFigures, diffCounts, figuresOf, lineDiff, type Comparison, type DiffLine, type Figures } from "../review";
 import { iso, requireAccess, type Actor } from "./access";
 import { getDesign } from "./designs";
-import { familyOf } from "./families";
+import { boundaryFamilies, familyOf } from "./families";
 
 export interface RevisionSide {
   revision: {
@@ -174,6 +174,8 @@ export async function compareDraft(p: { actor: Actor | null; slug: string; desig
   const family = familyOf(row);
   const out = await compileOnServer({
     source: design.draftSource, family, settings: design.settings, userId: p.actor!.userId, workspaceId: workspace.id,
+    // the families at the design's edges, as the workbench's compile has them (so the kept result is the same)
+    families: await boundaryFamilies(workspace.id, design.settings),
     ...(p.signal ? { signal: p.signal } : {}),
   });
   if (!out.result) {

@@ -167,6 +167,16 @@ export async function deleteFamily(p: { actor: Actor | null; slug: string; famil
   const { Design, Revision } = db().models;
   const used = (await Design.count({ where: { familyId: row.id } })) + (await Revision.count({ where: { familyId: row.id } }));
   if (used) throw conflict("Designs or revisions use this family; archive it instead, so they keep it and new designs do not offer it.", { uses: used });
+  // A design that names it at its inputs or outputs checks that boundary against it on every compile.
+  const edges = await Design.count({
+    where: { workspaceId: workspace.id, [Op.or]: [{ settings: { inputsDrivenBy: row.key } }, { settings: { outputsDrive: row.key } }] },
+  });
+  if (edges) {
+    throw conflict(
+      `${edges === 1 ? "A design names" : `${edges} designs name`} this family at its inputs or outputs; archive it instead, or choose another family there first.`,
+      { boundaryUses: edges },
+    );
+  }
   await db().sequelize.transaction(async (transaction) => {
     await row.destroy({ transaction });
     await recordActivity(

@@ -23,6 +23,7 @@ import * as draft from "@/app/api/v1/workspaces/[ws]/designs/[designId]/draft/ro
 import * as revisions from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/route";
 import * as revision from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/[number]/route";
 import * as compile from "@/app/api/v1/compile/route";
+import * as draftCompare from "@/app/api/v1/workspaces/[ws]/designs/[designId]/draft/compare/route";
 import { enforceLimits, LIMITS } from "@/lib/api/rate-limit";
 import { SOURCE, addMember, builtinFamily, call, linkIn, mailTo, makeUser, makeWorkspace, resetLimits, tag, type TestUser } from "./helpers";
 
@@ -340,5 +341,27 @@ describe("the compatibility matrix and the design's boundaries", () => {
     const bad = await putDraft(d.json.design.id, { familyId: hcId, settings: { inputsDrivenBy: "no-such-family" } });
     expect(bad.status).toBe(400);
     expect(bad.json.error.message).toMatch(/settings\.inputsDrivenBy names no family/);
+    // a family a design names at its edges is not deleted from under it
+    const edge = await call(designs.POST, "POST", "/d", { token: owner.token, params: p(), body: { name: `Edge kept ${tag()}`, familyId: hcId } });
+    expect((await putDraft(edge.json.design.id, { familyId: hcId, settings: { outputsDrive: own.json.family.key } })).status).toBe(200);
+    // The draft compared with a revision is compiled as the workbench compiles it, edge families included,
+    // so the workbench's kept result answers it and nothing new is kept.
+    const edgeP = { ...p(), designId: edge.json.design.id };
+    expect((await call(revisions.POST, "POST", "/r", { token: owner.token, params: edgeP, body: { message: "first", source: SOURCE, familyId: hcId, settings: {} } })).status).toBe(201);
+    const typed = `${SOURCE}// edge kept\n`;
+    expect((await putDraft(edge.json.design.id, { familyId: hcId, source: typed, settings: { outputsDrive: own.json.family.key } })).status).toBe(200);
+    const warm = await call(compile.POST, "POST", "/compile", {
+      token: owner.token, body: { source: typed, workspace: ws.slug, familyId: hcId, settings: { outputsDrive: own.json.family.key } },
+    });
+    expect(warm.status).toBe(200);
+    const kept = async () => Number((await db().sequelize.query<{ n: string }>("SELECT count(*) AS n FROM compile_results WHERE scope = $1", { bind: [`ws:${ws.id}`], type: QueryTypes.SELECT }))[0]!.n);
+    const before = await kept();
+    expect((await call(draftCompare.GET, "GET", "/c", { token: owner.token, params: edgeP, query: { from: "1" } })).status).toBe(200);
+    expect(await kept()).toBe(before);
+    const del = await call(family.DELETE, "DELETE", "/f", { token: owner.token, params: { ...p(), familyId: own.json.family.id } });
+    expect(del.status).toBe(409);
+    expect(del.json.error.message).toMatch(/A design names this family at its inputs or outputs; archive it instead/);
+    expect((await putDraft(edge.json.design.id, { familyId: hcId, settings: {} })).status).toBe(200);
+    expect((await call(family.DELETE, "DELETE", "/f", { token: owner.token, params: { ...p(), familyId: own.json.family.id } })).status).toBe(200);
   });
 });
