@@ -10,6 +10,7 @@ import { popcount } from "../logic";
 import { columnWeight } from "../minimize/cost";
 import { minimize, type MinimizeResult } from "../minimize";
 import { randomCase, structuredCases, type BenchCase } from "./cases";
+import { fingerprint, installCountingClock } from "./fingerprint";
 import { genericRoute, loadSolver, type GenericResult } from "./generic";
 
 interface Row {
@@ -51,15 +52,42 @@ async function bestOf(run: () => number | Promise<number>): Promise<number> {
   return best;
 }
 
-async function main(): Promise<void> {
-  const quick = process.argv.includes("--quick");
-  await loadSolver();
+/** The cases of a run: random functions by inputs (`--quick`: fewer seeds), then the structured ones. */
+function benchCases(quick: boolean): { c: BenchCase; timeLimitMs: number }[] {
   const cases: { c: BenchCase; timeLimitMs: number }[] = [];
   const seeds: Record<number, number> = quick ? { 8: 3, 10: 3, 12: 1, 14: 1, 16: 1 } : { 8: 11, 10: 11, 12: 5, 14: 3, 16: 2 };
   for (const n of [8, 10, 12, 14, 16]) for (let s = 1; s <= seeds[n]!; s++) cases.push({ c: randomCase(n, s), timeLimitMs: 5000 });
   for (const c of structuredCases()) cases.push({ c, timeLimitMs: 10_000 });
+  return cases;
+}
 
-  const header = `${"case".padEnd(24)}${pad("in", 4)}${pad("out", 4)}${pad("primes", 8)}${pad("cover", 7)}${pad("bound", 7)} exact${pad("gap%", 7)}${pad("ms", 8)}${pad("MILP ms", 9)}${pad("ratio", 8)}  agree`;
+/**
+ * `--fingerprint`: every case once, on a clock that advances 25 ms at each
+ * reading (see installCountingClock), printing each result's digest. Runs cut
+ * short by a time limit then stop after the same work every time, so two
+ * versions of the minimizer that should agree can be compared on every case.
+ */
+function fingerprints(quick: boolean): void {
+  console.log(`${"case".padEnd(24)}${pad("cover", 7)}${pad("bound", 7)} exact  fingerprint`);
+  for (const { c, timeLimitMs } of benchCases(quick)) {
+    const restore = installCountingClock(25);
+    let r: MinimizeResult;
+    try {
+      r = minimize(c.spec, { timeLimitMs });
+    } finally {
+      restore();
+    }
+    console.log(`${c.name.padEnd(24)}${pad(r.cost, 7)}${pad(r.lowerBound, 7)} ${r.exact ? " yes " : " no  "}  ${fingerprint(r)}`);
+  }
+}
+
+async function main(): Promise<void> {
+  const quick = process.argv.includes("--quick");
+  if (process.argv.includes("--fingerprint")) return fingerprints(quick);
+  await loadSolver();
+  const cases = benchCases(quick);
+
+  const header = `${"case".padEnd(24)}${pad("in", 4)}${pad("out", 4)}${pad("primes", 8)}${pad("cover", 7)}${pad("bound", 7)} exact${pad("gap%", 7)}${pad("ms", 8)}${pad("MILP ms", 9)}${pad("ratio", 8)}  agree  fingerprint`;
   console.log(header);
   console.log("-".repeat(header.length));
   // Warm-up, untimed: both routes get their code compiled (JIT, WebAssembly) before the first timed case,
@@ -109,7 +137,7 @@ async function main(): Promise<void> {
     const gap = r.lowerBound > 0 ? ((r.cost - r.lowerBound) / r.lowerBound) * 100 : 0;
     const ratio = generic ? generic.ms / r.ms : NaN;
     console.log(
-      `${c.name.padEnd(24)}${pad(c.spec.inputs.length, 4)}${pad(c.spec.outputs.length, 4)}${pad(r.primes < 0 ? "-" : r.primes, 8)}${pad(r.cost, 7)}${pad(r.lowerBound, 7)} ${r.exact ? " yes " : " no  "}${pad(gap.toFixed(1), 7)}${pad(r.ms.toFixed(r.ms < 10 ? 1 : 0), 8)}${pad(generic ? generic.ms.toFixed(0) : "-", 9)}${pad(generic ? ratio.toFixed(1) + "x" : "-", 8)}  ${generic ? (generic.agree === null ? generic.status : generic.agree ? "yes" : "NO") : "-"}`,
+      `${c.name.padEnd(24)}${pad(c.spec.inputs.length, 4)}${pad(c.spec.outputs.length, 4)}${pad(r.primes < 0 ? "-" : r.primes, 8)}${pad(r.cost, 7)}${pad(r.lowerBound, 7)} ${r.exact ? " yes " : " no  "}${pad(gap.toFixed(1), 7)}${pad(r.ms.toFixed(r.ms < 10 ? 1 : 0), 8)}${pad(generic ? generic.ms.toFixed(0) : "-", 9)}${pad(generic ? ratio.toFixed(1) + "x" : "-", 8)}  ${(generic ? (generic.agree === null ? generic.status : generic.agree ? "yes" : "NO") : "-").padEnd(5)}  ${fingerprint(r)}`,
     );
   }
 
