@@ -25,6 +25,18 @@ export interface MinimizeOptions {
   timeLimitMs?: number;
 }
 
+/** Defaults of {@link MinimizeOptions}. */
+export const DEFAULTS = {
+  form: "sop" as const,
+  cost: { kind: "products" } as CostModel,
+  maxPrimes: 100_000,
+  timeLimitMs: 10_000,
+  /** Implicants the Quine–McCluskey tables may hold in total before the exact route gives way. */
+  maxImplicants: 400_000,
+  /** Outputs that share terms exactly; above, outputs are covered one by one (tags are 31-bit). */
+  maxSharedOutputs: 31,
+};
+
 export interface MinimizedOutput {
   name: string;
   form: "sop" | "pos";

@@ -10,9 +10,13 @@
  * The duals are only used as Lagrangian multipliers: the caller evaluates the
  * Lagrangian bound at them, which is a proven bound for any multipliers ≥ 0,
  * so rounding in the simplex can cost tightness but never soundness. The same
- * holds for the cuts built from the tableau ({@link CoverLp.gomoryCuts}) and
- * for the infeasibility certificate, both computed from the problem's data.
+ * holds for the cuts built from the tableau (./cuts) and for the
+ * infeasibility certificate (./certificate), both computed from the
+ * problem's data.
  */
+import { certifiedInfeasible } from "./certificate";
+import { gomoryCuts as cutsFromTableau } from "./cuts";
+import type { BufferPool } from "./pool";
 
 /** A row Σ val_k · x_{cols_k} ≤ rhs with integer coefficients: a Chvátal–Gomory cut, a covering row added later, or a dive's fixing row. */
 export interface LpCut {
@@ -36,36 +40,6 @@ export interface CoverLpResult {
 }
 
 /**
- * Basis inverses handed back by released LPs, for reuse: a B⁻¹ of a few
- * hundred rows is about a megabyte, and allocating one per node LP kept the
- * collector busy.
- */
-const freeBuffers: Float64Array[] = [];
-
-/** A buffer of at least `size` entries whose first `zero` are zero, from the free list when one fits. */
-function takeBuffer(size: number, zero = size): Float64Array {
-  let best = -1;
-  for (let k = 0; k < freeBuffers.length; k++) {
-    const len = freeBuffers[k]!.length;
-    if (len >= size && len <= 4 * size && (best < 0 || len < freeBuffers[best]!.length)) best = k;
-  }
-  if (best < 0) return new Float64Array(size);
-  // The whole buffer, not a view of its first `size` entries: the simplex ran slower on views.
-  const buf = freeBuffers.splice(best, 1)[0]!;
-  buf.fill(0, 0, zero);
-  return buf;
-}
-
-function giveBuffer(buf: Float64Array): void {
-  if (buf.length === 0) return;
-  if (freeBuffers.length >= 4) freeBuffers.shift();
-  freeBuffers.push(buf);
-}
-
-/** Largest magnitude of a cut's coefficients and right-hand side (see {@link CoverLp.gomoryCuts}). */
-const CUT_LIMIT = 2 ** 20;
-
-/**
  * The covering LP with a dense basis inverse. Rows: -a_r·x + t_r = -1
  * (t_r ≥ 0), Σx + t = K, and cut rows g·x + t_g = rhs_g; the slacks t are
  * variables n .. n+M-1, the columns 0 .. n-1 lie in [0, 1] (a nonbasic
@@ -73,52 +47,53 @@ const CUT_LIMIT = 2 ** 20;
  * integer right-hand side, so every slack of an integer point is an integer.
  */
 export class CoverLp {
+  // The simplex state below is read by ./cuts and ./certificate; outside lp/ only the methods are used.
   readonly n: number;
   /** Rows now (covering rows, the budget, cuts); grows as cuts are added. */
   M: number;
   /** Room for rows: the stride of B⁻¹'s rows and the length of the per-row arrays. */
-  private S: number;
-  private readonly hasCard: boolean;
-  private readonly card: number;
+  S: number;
+  readonly hasCard: boolean;
+  readonly card: number;
   /** Index of the first cut row. */
-  private readonly cutBase: number;
-  private readonly cutList: LpCut[];
+  readonly cutBase: number;
+  readonly cutList: LpCut[];
   /** Columns → cut rows (CSR): the cut rows of column j are colCutRow[colCutStart[j] ..), coefficients colCutVal. */
-  private colCutStart = new Int32Array(0);
-  private colCutRow = new Int32Array(0);
-  private colCutVal = new Int32Array(0);
-  private cutAt = new Int32Array(0);
+  colCutStart = new Int32Array(0);
+  colCutRow = new Int32Array(0);
+  colCutVal = new Int32Array(0);
+  cutAt = new Int32Array(0);
   /** The simplex state: basis inverse (by rows, stride S), basis, each variable's basis row (-1 nonbasic), basic values,
    * nonbasic columns at 1, reduced costs, dual steepest-edge weights. */
-  private Binv: Float64Array;
-  private basis: Int32Array;
-  private pos: Int32Array;
-  private xB: Float64Array;
-  private atUpper: Uint8Array;
-  private d: Float64Array;
-  private beta: Float64Array;
-  private alpha: Float64Array;
-  private colq: Float64Array;
-  private rowp: Float64Array;
-  private nzIdx: Int32Array;
+  Binv: Float64Array;
+  basis: Int32Array;
+  pos: Int32Array;
+  xB: Float64Array;
+  atUpper: Uint8Array;
+  d: Float64Array;
+  beta: Float64Array;
+  alpha: Float64Array;
+  colq: Float64Array;
+  rowp: Float64Array;
+  nzIdx: Int32Array;
   /** Rows → columns (CSR), for the tableau row computed over B⁻¹'s nonzeros. */
-  private readonly rowStart: Int32Array;
-  private readonly rowCols: Int32Array;
-  private rowNz: Int32Array;
+  readonly rowStart: Int32Array;
+  readonly rowCols: Int32Array;
+  rowNz: Int32Array;
   /**
    * For each column k of B⁻¹, a superset of its nonzero rows (bitset, W words a column; bits only ever set
    * between rebuilds): the entering column B⁻¹a_q is computed over the union of its columns' sets only
    * (B⁻¹ a_q is 6–13 % nonzero on the random 10-input bench cases). `colNzRows` lists the entering
    * column's nonzero rows, `pivotRows` is the bitset of the rows a pivot changes, `union` scratch.
    */
-  private colMask: Uint32Array;
-  private W: number;
-  private union: Uint32Array;
-  private pivotRows: Uint32Array;
-  private colNzRows: Int32Array;
-  private readonly seen: Int32Array;
-  private touched: Int32Array;
-  private stamp = 0;
+  colMask: Uint32Array;
+  W: number;
+  union: Uint32Array;
+  pivotRows: Uint32Array;
+  colNzRows: Int32Array;
+  readonly seen: Int32Array;
+  touched: Int32Array;
+  stamp = 0;
   iterations = 0;
 
   constructor(
@@ -129,6 +104,8 @@ export class CoverLp {
     cuts: readonly LpCut[] = [],
     /** Room for this many more rows (cuts added later by {@link withCuts} without a new allocation). */
     spare = 0,
+    /** Where B⁻¹ comes from and goes back to on {@link release}; without one, each LP allocates its own. */
+    private readonly pool: BufferPool | null = null,
   ) {
     // A copy: the caller's list may grow.
     this.cutList = cuts.slice();
@@ -144,7 +121,7 @@ export class CoverLp {
     this.indexCuts();
     const NV = n + S;
     // Only the rows in use are cleared: a row added later is written whole (see withCuts).
-    const Binv = takeBuffer(S * S, M * S);
+    const Binv = pool ? pool.take(S * S, M * S) : new Float64Array(S * S);
     for (let i = 0; i < M; i++) Binv[i * S + i] = 1;
     const W = (S + 31) >>> 5;
     this.W = W;
@@ -192,7 +169,7 @@ export class CoverLp {
 
   /** Hands the basis inverse back for reuse by a later LP; this LP must not be used after. */
   release(): void {
-    giveBuffer(this.Binv);
+    this.pool?.give(this.Binv);
     this.Binv = new Float64Array(0);
     this.M = 0;
   }
@@ -241,7 +218,7 @@ export class CoverLp {
   /**
    * Dual simplex from the current basis. Stops after `maxIters` pivots or at
    * `deadline` ("stopped"); "infeasible" only with a certificate (see
-   * {@link certifiedInfeasible}).
+   * ./certificate).
    */
   solve(deadline = Infinity, maxIters = 50 * (this.M + 1)): "optimal" | "infeasible" | "stopped" {
     const { Binv, basis, pos, xB, atUpper, d, beta } = this;
@@ -338,7 +315,7 @@ export class CoverLp {
           q = j;
         }
       }
-      if (q < 0) return this.certifiedInfeasible(p) ? "infeasible" : "stopped";
+      if (q < 0) return certifiedInfeasible(this, p) ? "infeasible" : "stopped";
       // Entering column B⁻¹ a_q, over the rows where one of a_q's columns of B⁻¹ may be nonzero (elsewhere
       // every term is 0, and so is the entry); nc of them end nonzero, listed in colNzRows.
       colq.fill(0, 0, M);
@@ -463,51 +440,6 @@ export class CoverLp {
   }
 
 
-  /**
-   * Whether row p of B⁻¹ proves the LP infeasible (a Farkas certificate):
-   * with y that row, every point satisfies Σ_j (yᵀA_j)·x_j + Σ_i y_i·t_i = yᵀb.
-   * Over the box every feasible point lies in (columns in [0, 1], a row's
-   * surplus in [0, its columns − 1], the budget's in [0, K], a cut's in
-   * [0, its rhs less its least value]) the left side's
-   * range is computed from the problem's own data, not from the basis; when
-   * yᵀb lies outside it by more than a rounding margin, no point exists. Any
-   * y makes a valid certificate, so errors in B⁻¹ can only lose one.
-   */
-  private certifiedInfeasible(p: number): boolean {
-    const { Binv } = this;
-    const { n, cols, rowCount, rowStart } = this;
-    const y = (k: number) => Binv[p * this.S + k]!;
-    const yCard = this.hasCard ? y(this.card) : 0;
-    let rhs = this.hasCard ? yCard * this.K : 0;
-    for (let r = 0; r < rowCount; r++) rhs -= y(r);
-    this.cuts.forEach((cut, g) => (rhs += y(this.cutBase + g) * cut.rhs));
-    let lo = 0;
-    let hi = 0;
-    let scale = Math.abs(rhs);
-    const add = (a: number, range: number) => {
-      if (a > 0) hi += a * range;
-      else lo += a * range;
-      scale += Math.abs(a) * range;
-    };
-    for (let j = 0; j < n; j++) {
-      let a = yCard;
-      const l = cols[j]!;
-      for (let k = 0; k < l.length; k++) a -= y(l[k]!);
-      for (let e = this.colCutStart[j]!; e < this.colCutStart[j + 1]!; e++) a += this.colCutVal[e]! * y(this.colCutRow[e]!);
-      add(a, 1);
-    }
-    for (let r = 0; r < rowCount; r++) add(y(r), Math.max(0, rowStart[r + 1]! - rowStart[r]! - 1));
-    if (this.hasCard) add(yCard, this.K);
-    // A cut's slack rhs − g·x lies in [0, rhs − (the least g·x over the box)].
-    this.cuts.forEach((cut, g) => {
-      let least = 0;
-      for (let k = 0; k < cut.val.length; k++) if (cut.val[k]! < 0) least += cut.val[k]!;
-      add(y(this.cutBase + g), Math.max(0, cut.rhs - least));
-    });
-    const margin = 1e-7 * (1 + scale);
-    return rhs > hi + margin || rhs < lo - margin;
-  }
-
   /** Row duals u_r ≥ 0 from the slacks' reduced costs. */
   duals(u: Float64Array = new Float64Array(this.rowCount)): Float64Array {
     const { pos, d } = this;
@@ -589,9 +521,9 @@ export class CoverLp {
   /** Room for `S2` rows: the per-row arrays and B⁻¹ (at the new stride) are copied into larger ones. */
   private grow(S2: number): void {
     const { n, S, M } = this;
-    const Binv = takeBuffer(S2 * S2);
+    const Binv = this.pool ? this.pool.take(S2 * S2) : new Float64Array(S2 * S2);
     for (let i = 0; i < M; i++) Binv.set(this.Binv.subarray(i * S, i * S + M), i * S2);
-    giveBuffer(this.Binv);
+    this.pool?.give(this.Binv);
     this.Binv = Binv;
     const more = <T extends Float64Array | Int32Array | Uint8Array>(a: T, len: number): T => {
       const b = new (a.constructor as { new (len: number): T })(len);
@@ -642,118 +574,9 @@ export class CoverLp {
     return out;
   }
 
-  /**
-   * Chvátal–Gomory cuts from the rows of the optimal tableau whose basic
-   * variable is fractional. Each row i is read as e_i(x) ≤ b_i (integer
-   * data); with multipliers λ_i, the fractional parts of B⁻¹'s row rounded
-   * to multiples of 2⁻²⁰, and ν_j = ⌈c_j⌉ − c_j on x_j ≤ 1 for the columns
-   * at 1 (c = λA), the inequality Σ_j ⌊c_j + ν_j⌋ x_j ≤ ⌊λb + Σν⌋ holds for
-   * every integer point: λ ≥ 0 and ν ≥ 0 make any choice valid, and with
-   * dyadic multipliers every sum is exact in floating point (the rows'
-   * numbers stay below 2^20 in magnitude: cuts with larger ones are dropped),
-   * so the cut does not depend on the simplex's rounding. Returns the cuts the current
-   * point violates by more than `minViolation`, most violated (per unit of
-   * coefficient norm) first, at most `max`.
-   */
+  /** Chvátal–Gomory cuts of the optimal tableau (see ./cuts). */
   gomoryCuts(max: number, minViolation = 0.05): LpCut[] {
-    const { n, M, S, Binv, xB, atUpper, pos, rowCount, rowStart, rowCols, cuts, cutBase, hasCard, card, K } = this;
-    const SCALE = 1048576;
-    const x = this.primal();
-    // The rows whose basic value is most fractional first.
-    const cand: number[] = [];
-    for (let p = 0; p < M; p++) {
-      const f = xB[p]! - Math.floor(xB[p]!);
-      if (f >= 0.01 && f <= 0.99) cand.push(p);
-    }
-    const frac = (p: number) => Math.abs(xB[p]! - Math.floor(xB[p]!) - 0.5);
-    cand.sort((a, b) => frac(a) - frac(b));
-    if (cand.length > 4 * max) cand.length = 4 * max;
-    const found: { cut: LpCut; score: number }[] = [];
-    const c = new Float64Array(n);
-    const idx = new Int32Array(n);
-    const val = new Int32Array(n);
-    // The columns each combination touches (bitset; the others have c = 0 and add nothing below).
-    const NW = (n + 31) >>> 5;
-    const mark = new Uint32Array(NW);
-    // Cuts met twice are kept once, told apart by a hash (a collision can only drop a cut).
-    const seenKey = new Set<number>();
-    for (const p of cand) {
-      // c = λA and λb, exactly (dyadic λ, integer data), over the nonzero multipliers only.
-      let lb = 0;
-      let any = false;
-      for (let i = 0; i < M; i++) {
-        const y = Binv[p * S + i]!;
-        if (y === 0) continue;
-        const l = Math.round((y - Math.floor(y)) * SCALE) / SCALE;
-        if (l >= 1 || l < 1e-6) continue;
-        any = true;
-        if (i < rowCount) {
-          lb -= l;
-          for (let e = rowStart[i]!; e < rowStart[i + 1]!; e++) {
-            const j = rowCols[e]!;
-            c[j]! -= l;
-            mark[j >>> 5]! |= 1 << (j & 31);
-          }
-        } else if (hasCard && i === card) {
-          lb += l * K;
-          for (let j = 0; j < n; j++) c[j]! += l;
-          mark.fill(0xffffffff);
-          if (n & 31) mark[NW - 1] = (1 << (n & 31)) - 1;
-        } else {
-          const cut = cuts[i - cutBase]!;
-          lb += l * cut.rhs;
-          for (let k = 0; k < cut.cols.length; k++) {
-            const j = cut.cols[k]!;
-            c[j]! += l * cut.val[k]!;
-            mark[j >>> 5]! |= 1 << (j & 31);
-          }
-        }
-      }
-      if (!any) continue;
-      let rhs = lb;
-      let nnz = 0;
-      let lhs = 0;
-      let norm = 0;
-      let hash = 0x811c9dc5;
-      let big = false;
-      // The touched columns in ascending order (each then cleared for the next row).
-      for (let w = 0; w < NW; w++) {
-        for (let bits = mark[w]!; bits !== 0; bits &= bits - 1) {
-          const j = (w << 5) | (31 - Math.clz32(bits & -bits));
-          let cj = c[j]!;
-          c[j] = 0;
-          if (atUpper[j] === 1 && pos[j]! < 0) {
-            const nu = Math.ceil(cj) - cj;
-            rhs += nu;
-            cj += nu;
-          }
-          const pi = Math.floor(cj);
-          if (pi > CUT_LIMIT || pi < -CUT_LIMIT) big = true;
-          if (pi !== 0) {
-            idx[nnz] = j;
-            val[nnz++] = pi;
-            lhs += pi * x[j]!;
-            norm += pi * pi;
-            hash = Math.imul(hash ^ j, 16777619);
-            hash = Math.imul(hash ^ (pi & 0xffff), 16777619);
-          }
-        }
-        mark[w] = 0;
-      }
-      if (nnz === 0) continue;
-      // Sums are exact while |c|·2^20 stays below 2^53, and coefficients must fit Int32: cuts with large
-      // numbers (they grow over many rounds, and make the LP ill-conditioned) are dropped.
-      const r0 = Math.floor(rhs);
-      if (big || r0 > CUT_LIMIT || r0 < -CUT_LIMIT) continue;
-      const viol = lhs - r0;
-      if (!(viol > minViolation)) continue;
-      hash = Math.imul(hash ^ (r0 | 0), 16777619);
-      if (seenKey.has(hash)) continue;
-      seenKey.add(hash);
-      found.push({ cut: { cols: idx.slice(0, nnz), val: val.slice(0, nnz), rhs: r0 }, score: viol / Math.sqrt(norm) });
-    }
-    found.sort((a, b) => b.score - a.score);
-    return found.slice(0, max).map((f) => f.cut);
+    return cutsFromTableau(this, max, minViolation);
   }
 
   /** Primal column values of the current basis. */
@@ -761,35 +584,4 @@ export class CoverLp {
     for (let c = 0; c < this.n; c++) x[c] = this.value(c);
     return x;
   }
-}
-
-/**
- * Duals of the LP relaxation. `cols[c]` lists the rows column c covers
- * (0 ≤ r < rowCount), `w[c]` ≥ 0 its weight; `K` < 0 means no budget.
- * Stops after `maxIters` pivots (default 50 × rows) or at `deadline`
- * (Date.now() milliseconds), returning the duals reached so far.
- */
-export function coverLpDuals(rowCount: number, cols: Int32Array[], w: ArrayLike<number>, K = -1, deadline = Infinity, maxIters = 50 * (rowCount + 1)): CoverLpResult {
-  const lp = new CoverLp(rowCount, cols, w, K);
-  const status = lp.solve(deadline, maxIters);
-  return { u: lp.duals(), mu: lp.budgetDual(), x: lp.primal(), optimal: status === "optimal", status, iterations: lp.iterations };
-}
-
-/**
- * Lagrangian bound Σu − μK + Σ_c min(0, w_c + μ − Σ_{r ∈ c} u_r): a proven
- * lower bound on every cover of at most K columns (K < 0: no budget, μ
- * ignored) for any u ≥ 0, μ ≥ 0.
- */
-export function lagrangianValue(cols: ArrayLike<number>[], w: ArrayLike<number>, u: ArrayLike<number>, mu: number, K = -1): number {
-  let L = 0;
-  for (let r = 0; r < u.length; r++) L += Math.max(0, u[r]!);
-  const m = K >= 0 ? Math.max(0, mu) : 0;
-  if (K >= 0) L -= m * K;
-  for (let c = 0; c < cols.length; c++) {
-    let s = w[c]! + m;
-    const l = cols[c]!;
-    for (let k = 0; k < l.length; k++) s -= Math.max(0, u[l[k]!]!);
-    if (s < 0) L += s;
-  }
-  return L;
 }

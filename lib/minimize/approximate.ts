@@ -1,0 +1,104 @@
+/**
+ * The heuristic route over a design: a prime and irredundant cover per output
+ * (./heuristic), identical terms shared, and a proven lower bound from
+ * independent points (./bound).
+ */
+import type { Cube } from "../logic";
+import { TRUTH_TABLE_MAX_INPUTS, fullMask, tableMinterms } from "../logic";
+import { independentPoints, tableOracle, cubeOracle, type BoundPoint } from "./bound";
+import { gatesFor } from "./cost";
+import { HeuristicTimeout, heuristicCover } from "./heuristic";
+import { costOfCovers } from "./share";
+import { type Solved, boundProves } from "./solved";
+import type { Target } from "./target";
+import { type CostModel, LimitError } from "./types";
+import { complement } from "./unate";
+
+/** Heuristic route: a prime and irredundant cover per output, identical terms shared, proven bound. */
+export function heuristicAll(n: number, targets: Target[], model: CostModel, deadline: number, limit: number): Solved {
+  const covers: Cube[][] = [];
+  for (const t of targets) {
+    try {
+      covers.push(heuristicCover(n, t.on, t.dc, deadline, t.onT && t.dcT ? { on: t.onT, dc: t.dcT } : undefined));
+    } catch (e) {
+      if (e instanceof HeuristicTimeout) {
+        throw new LimitError(
+          "timeLimitMs",
+          limit,
+          "no prime and irredundant cover could be finished within the time limit",
+          "Raise timeLimitMs, or split the design into smaller blocks.",
+        );
+      }
+      throw e;
+    }
+  }
+  // Candidate points: a spread sample of each output's ON points (or its cubes' corners above 20 inputs).
+  const full = fullMask(n);
+  const candidates: BoundPoint[] = [];
+  const perOutputCap = Math.max(64, Math.floor(12000 / Math.max(1, targets.length)));
+  targets.forEach((t, j) => {
+    const pts = t.onT ? tableMinterms(t.onT, n) : t.on.map((c) => c.value);
+    const step = Math.max(1, Math.ceil(pts.length / perOutputCap));
+    for (let i = 0; i < pts.length; i += step) candidates.push({ output: j, minterm: pts[i]! });
+  });
+  const oracle =
+    n <= TRUTH_TABLE_MAX_INPUTS
+      ? tableOracle(
+          targets.map((t) => {
+            const c = new Uint32Array(t.onT!.length);
+            for (let w = 0; w < c.length; w++) c[w] = t.onT![w]! | t.dcT![w]!;
+            return c;
+          }),
+          n,
+        )
+      : cubeOracle(targets.map((t) => complement(t.on.concat(t.dc), full)));
+  if (n <= TRUTH_TABLE_MAX_INPUTS) {
+    // Points with few care neighbours first: they are the likeliest to be independent of the rest.
+    const degree = (p: BoundPoint): number => {
+      const t = targets[p.output]!;
+      let d = 0;
+      for (let i = 0; i < n; i++) {
+        const q = (p.minterm ^ (1 << i)) >>> 0;
+        if (((t.onT![q >>> 5]! | t.dcT![q >>> 5]!) >>> (q & 31)) & 1) d++;
+      }
+      return d;
+    };
+    const deg = candidates.map(degree);
+    const idx = candidates.map((_, i) => i).sort((a, b) => deg[a]! - deg[b]!);
+    const sorted = idx.map((i) => candidates[i]!);
+    candidates.length = 0;
+    candidates.push(...sorted);
+  }
+  const boundDeadline = Math.min(deadline, Date.now() + 2000);
+  const ind = independentPoints(candidates, oracle, full, boundDeadline);
+  const k = targets.map((_, j) => ind.perOutput.get(j) ?? 0);
+  const perOutput = k.map((kj) => pointsToCost(model, kj, kj));
+  let design: number;
+  switch (model.kind) {
+    case "products":
+      design = ind.total;
+      break;
+    case "gate-inputs":
+      // Connections: each output needs k_j terms; literals: independent terms are not constant 1 when ≥ 2.
+      design = k.reduce((a, b) => a + b, 0) + (ind.total >= 2 ? ind.total : 0);
+      break;
+    case "fan-in":
+      design = k.reduce((a, kj) => a + gatesFor(kj, model.fanIn), 0);
+      break;
+  }
+  const cost = costOfCovers(model, covers);
+  design = Math.min(cost, Math.max(design, ...perOutput));
+  return { covers, cost, exact: boundProves(model, cost, design), designBound: design, outputBounds: perOutput, primes: -1, route: "heuristic" };
+}
+
+/** Cost bound of an output whose ON-set holds k independent points. */
+function pointsToCost(model: CostModel, k: number, _indep: number): number {
+  switch (model.kind) {
+    case "products":
+      return k;
+    case "gate-inputs":
+      return k >= 2 ? 2 * k : k;
+    case "fan-in":
+      return gatesFor(k, model.fanIn);
+  }
+}
