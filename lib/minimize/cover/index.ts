@@ -11,7 +11,7 @@
  * Stronger bounds come from Lagrangian relaxation (subgradient steps) and,
  * under a column budget and at root-only searches, from the LP relaxation
  * solved by dual simplex. At such a root the LP is tightened by rounds of
- * Chvátal–Gomory cuts (lp.ts), which hold for every cover of the root's
+ * Chvátal–Gomory cuts (../lp), which hold for every cover of the root's
  * problem and so enter the LP of every node below; an LP dive (columns fixed
  * at 1 one step at a time) looks for an incumbent. A later search on the
  * same problem may take the cuts over when its root reductions leave the
