@@ -3,7 +3,7 @@
  * bit-parallel truth tables over a chosen set of at most
  * TRUTH_TABLE_MAX_INPUTS design inputs, or cube lists over all inputs.
  */
-import { emptyTable, fullMask, type Cube, type TruthTable } from "../logic/index";
+import { LOW_VARIABLE_WORDS, emptyTable, fullMask, type Cube, type TruthTable } from "../logic/index";
 import { cubesAnd, cubesNot, cubesOr, cubesXor, tableToCubes } from "./cubes";
 
 export interface Algebra<V> {
@@ -20,8 +20,6 @@ export interface Algebra<V> {
   someMinterm(a: V): number | null;
   toCubes(a: V): Cube[];
 }
-
-const PATTERNS = [0xaaaaaaaa, 0xcccccccc, 0xf0f0f0f0, 0xff00ff00, 0xffff0000];
 
 /** Truth tables over the design inputs vars (ascending declared indices) out of n. */
 export function tableAlgebra(vars: readonly number[], n: number): Algebra<TruthTable> {
@@ -46,7 +44,7 @@ export function tableAlgebra(vars: readonly number[], n: number): Algebra<TruthT
       let t = cache.get(j);
       if (!t) {
         const p = k - 1 - j;
-        t = p < 5 ? map(() => PATTERNS[p]!) : map((w) => ((w >>> (p - 5)) & 1 ? 0xffffffff : 0));
+        t = p < 5 ? map(() => LOW_VARIABLE_WORDS[p]!) : map((w) => ((w >>> (p - 5)) & 1 ? 0xffffffff : 0));
         cache.set(j, t);
       }
       return t;

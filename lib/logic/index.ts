@@ -111,10 +111,14 @@ export function tableGet(t: TruthTable, m: number): boolean {
 }
 
 /**
- * Minterms of a cube among the 32 of one table word: the low five variables
- * (bits 0..4 of the minterm index) pick positions inside the word.
+ * The table word of each of the low five variables (bits 0..4 of the minterm
+ * index), which pick positions inside a 32-bit word of a truth table: bit b
+ * of LOW_VARIABLE_WORDS[i] is 1 exactly when bit i of b is 1, so the word of
+ * variable i is 1 where it is 1, and its complement (~word >>> 0) where it is
+ * 0. Variables 5 and up pick whole words. The one copy in the pipeline
+ * (lib/verify keeps its own, for independence).
  */
-const LOW_VARIABLE_WORDS = [0xaaaaaaaa, 0xcccccccc, 0xf0f0f0f0, 0xff00ff00, 0xffff0000];
+export const LOW_VARIABLE_WORDS: readonly number[] = Object.freeze([0xaaaaaaaa, 0xcccccccc, 0xf0f0f0f0, 0xff00ff00, 0xffff0000]);
 
 /**
  * Set every minterm of the cube in the table. Works a word at a time: the

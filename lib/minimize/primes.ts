@@ -13,7 +13,7 @@
  * Don't-cares take part in merging; the cover step ignores them.
  */
 import type { Cube } from "../logic";
-import { fullMask } from "../logic";
+import { LOW_VARIABLE_WORDS, fullMask } from "../logic";
 import { COST, type WorkBudget, mergeLists, primesOfCover, removeContained } from "./unate";
 
 export interface TaggedPrime {
@@ -390,7 +390,6 @@ export function compactCover(t: Uint32Array, n: number, budget?: WorkBudget): Cu
  * the binate variables (a unate function's primes are its maximal cubes).
  */
 function dropUnateLiterals(F: readonly Cube[], t: Uint32Array, n: number): Cube[] {
-  const low = [0x55555555, 0x33333333, 0x0f0f0f0f, 0x00ff00ff, 0x0000ffff];
   // Literals that may go: drop0 = complemented ones, drop1 = plain ones (bit i = variable i).
   let drop0 = 0;
   let drop1 = 0;
@@ -399,7 +398,8 @@ function dropUnateLiterals(F: readonly Cube[], t: Uint32Array, n: number): Cube[
     let down = 0; // points that are 1 with x_i = 1 and 0 with x_i = 0
     if (i < 5) {
       const sh = 1 << i;
-      const L = n >= 5 ? low[i]! : low[i]! & (2 ** 2 ** n - 1);
+      // The positions with variable i at 0 (within the table's 2^n points when n < 5).
+      const L = n >= 5 ? ~LOW_VARIABLE_WORDS[i]! : ~LOW_VARIABLE_WORDS[i]! & (2 ** 2 ** n - 1);
       for (let w = 0; w < t.length; w++) {
         const x0 = t[w]! & L;
         const x1 = (t[w]! >>> sh) & L;

@@ -6,7 +6,7 @@
  * table or Quine–McCluskey tables.
  */
 import type { FunctionSpec } from "../logic";
-import { fullMask, popcount, tableMinterms } from "../logic";
+import { LOW_VARIABLE_WORDS, fullMask, popcount, tableMinterms } from "../logic";
 import { columnWeight } from "./cost";
 import type { CoverTuning } from "./cover";
 import { DENSE_MAX_INPUTS, ExactLimit, compactCover, coverTaggedPrimes, denseTaggedPrimes, taggedPrimes, type TaggedPrime } from "./primes";
@@ -94,10 +94,11 @@ export function buildProblem(
 /** Pairs of care points one variable apart (n ≥ 5, bit-parallel over the table). */
 function adjacentPairs(care: Uint32Array, n: number): number {
   let pairs = 0;
-  const low = [0x55555555, 0x33333333, 0x0f0f0f0f, 0x00ff00ff, 0x0000ffff];
   for (let i = 0; i < Math.min(n, 5); i++) {
     const sh = 1 << i;
-    for (let w = 0; w < care.length; w++) pairs += popcount(care[w]! & (care[w]! >>> sh) & low[i]!);
+    // The pair's lower point has variable i at 0.
+    const zero = ~LOW_VARIABLE_WORDS[i]!;
+    for (let w = 0; w < care.length; w++) pairs += popcount(care[w]! & (care[w]! >>> sh) & zero);
   }
   for (let i = 5; i < n; i++) {
     const s = 1 << (i - 5);
