@@ -15,7 +15,7 @@ describe("landing and sign-in pages in chromium", () => {
     const res = await s.page.goto(`${BASE_URL}/`, { waitUntil: "networkidle" });
     expect(res?.status()).toBe(200);
     await expect(s.page.locator("h1").innerText()).resolves.toContain("gates a logic family can build");
-    // The paper background of PRODUCT.md (#f6f4ee) is what the body shows.
+    // The product's own paper background (#f6f4ee, app/globals.css; a choice of ours, no outside source) is what the body shows.
     const bg = await s.page.evaluate(() => getComputedStyle(document.documentElement).backgroundColor);
     expect(bg).toBe("rgb(246, 244, 238)");
     // The interface face is the shipped one, not a system fallback.

@@ -171,7 +171,7 @@ describe("built-in families", () => {
 
 describe("validateFamily", () => {
   it("accepts a family with only a fan-in and a fan-out", () => {
-    // the product brief: a user family may give only a fan-in and a fan-out; the rest is then not estimated
+    // the product's own rule, no outside source: a user family may give only a fan-in and a fan-out; the rest is then not estimated
     expect(validateFamily({ id: "bench-rule", name: "Bench rule", fanIn: 4, fanOut: 8 })).toEqual([]);
     const d = deriveFamily({ id: "bench-rule", name: "Bench rule", fanIn: 4, fanOut: 8 });
     expect(d.fanOut.value).toBe(8);

@@ -30,7 +30,7 @@ function evalTree(t: Tree, env: boolean[]): boolean {
   }
 }
 
-/** Minterm m over n inputs, first input = most significant bit (PRODUCT.md). */
+/** Minterm m over n inputs, first input = most significant bit (lib/logic's bit order, as truth tables are usually written: common practice, no source). */
 function envOf(m: number, n: number): boolean[] {
   return Array.from({ length: n }, (_, i) => ((m >> (n - 1 - i)) & 1) === 1);
 }
@@ -114,7 +114,9 @@ describe("random expressions", () => {
 });
 
 // Flat expressions without parentheses: the expected value comes from a
-// precedence-climbing evaluator here, with NOT > AND > XOR > OR (PRODUCT.md).
+// precedence-climbing evaluator here, with NOT > AND > XOR > OR. NOT above AND
+// above OR is common practice, no source; XOR between AND and OR is the
+// equation language's own choice (the grammar in lib/lang), no outside source.
 describe("precedence", () => {
   type Flat = { operands: { i: number; pre: number; post: number }[]; ops: ("+" | "*" | "^")[] };
   const flatArb = fc.integer({ min: 1, max: 6 }).chain((len) =>
@@ -152,7 +154,7 @@ describe("precedence", () => {
     );
   });
   it("a + b * c and a ^ b * c and a + b ^ c group as the precedence says", () => {
-    // expected tables by hand from the precedence rule (PRODUCT.md)
+    // expected tables by hand from the precedence rule above (NOT > AND > XOR > OR)
     const cases: [string, (a: boolean, b: boolean, c: boolean) => boolean][] = [
       ["a + b * c", (a, b, c) => a || (b && c)],
       ["a ^ b * c", (a, b, c) => a !== (b && c)],

@@ -63,8 +63,9 @@ describe("random functions against brute force and the highs MILP", () => {
       const ref = await milpMinimum(spec);
       expect(r.lowerBound).toBeLessThanOrEqual(ref.products);
       expect(r.outputs[0]!.products).toBeGreaterThanOrEqual(ref.products);
-      // "exact" may be claimed only for a true minimum in products and then literals (the MILP's).
-      if (r.exact) expect([r.outputs[0]!.products, r.outputs[0]!.literals]).toEqual([ref.products, ref.literals]);
+      // Under "products, then literals" only the exact route's searches prove a minimum: the heuristic's
+      // bounds count products, so it never claims one (the MILP's minimum may still match it).
+      expect(r.exact).toBe(false);
     });
   }
 
@@ -80,8 +81,10 @@ describe("random functions against brute force and the highs MILP", () => {
     expect(ref).toEqual({ products: 3, literals: 9 });
     const r = minimize(spec, { heuristic: true });
     expect(coverMatches(spec, r)).toBe(true);
-    if (r.exact) expect([r.outputs[0]!.products, r.outputs[0]!.literals]).toEqual([3, 9]);
-    else expect(r.outputs[0]!.literals).toBeGreaterThanOrEqual(9);
+    // Its product bound meets its three products, which proves nothing about the literals.
+    expect(r.lowerBound).toBe(3);
+    expect(r.exact).toBe(false);
+    expect(r.outputs[0]!.literals).toBeGreaterThanOrEqual(9);
   });
 
   for (const seed of [61, 62, 63]) {
@@ -98,7 +101,7 @@ describe("random functions against brute force and the highs MILP", () => {
   }
 
   for (const [seed, fanIn] of [[64, 2], [65, 3], [66, 4]] as const) {
-    it(`fan-in ${fanIn} model, 6 inputs, seed ${seed}: never below the MILP minimum, equal when exact`, async () => {
+    it(`fan-in ${fanIn} model, 6 inputs, seed ${seed}: proven at the MILP minimum`, async () => {
       const spec = randomSpec(6, 1, seed);
       const r = minimize(spec, { cost: { kind: "fan-in", fanIn } });
       // Reference: the test's own MILP (highs) with AND gates per term and integer OR gates.
@@ -106,7 +109,9 @@ describe("random functions against brute force and the highs MILP", () => {
       expect(coverMatches(spec, r)).toBe(true);
       expect(r.cost).toBeGreaterThanOrEqual(ref);
       expect(r.lowerBound).toBeLessThanOrEqual(ref);
-      if (r.exact) expect(r.cost).toBe(ref);
+      // Small enough for the exact route to close: its cover's true cost meets the surrogate's bound.
+      expect(r.exact).toBe(true);
+      expect(r.cost).toBe(ref);
     });
   }
 });

@@ -1,7 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { cubeFromString, cubeToString, minterm, type FunctionSpec } from "../../lib/logic";
+import { cubeFromString, cubeToString, minterm, popcount, type FunctionSpec } from "../../lib/logic";
 import { LimitError, minimize } from "../../lib/minimize";
-import { verifyCovers } from "../../lib/verify";
 import { milpMinimum } from "./helpers";
 
 const spec1 = (n: number, on: number[], dc: number[] = [], inputs = ["a", "b", "c", "d"].slice(0, n)): FunctionSpec => ({
@@ -40,8 +39,8 @@ describe("worked examples", () => {
   });
 
   it("BCD to excess-3 with don't-cares 10..15 shares terms across its four outputs", async () => {
-    // From memory (common digital design textbook example): the separately minimized
-    // outputs are w = a + b*c + b*d, x = b'*c + b'*d + b*c'*d', y = c*d + c'*d', z = d'.
+    // The code converter of digital design textbooks: outputs w x y z = the BCD digit a b c d plus 3,
+    // codes 10..15 unused (don't-care). Common practice, no source.
     const on: number[][] = [[], [], [], []];
     for (let v = 0; v <= 9; v++) {
       const e = v + 3;
@@ -54,23 +53,42 @@ describe("worked examples", () => {
     };
     const r = minimize(spec);
     expect(r.exact).toBe(true);
-    // From memory: separately the outputs need 3 + 3 + 2 + 1 = 9 products; sharing cannot need more.
-    expect(r.cost).toBeLessThanOrEqual(9);
-    // Brute force by the test (all implicants, highs MILP): the shared minimum.
+    // Reference: the arithmetic itself, evaluated by the test at every digit (not lib/verify).
+    for (let v = 0; v <= 9; v++) {
+      r.outputs.forEach((o, j) => {
+        const got = o.cubes.some((c) => ((v ^ c.value) & c.mask) === 0);
+        expect(got).toBe((((v + 3) >> (3 - j)) & 1) === 1);
+      });
+    }
+    // Reference: every implicant enumerated by the test and an exact MILP (highs): the shared minimum,
+    // products first, then the literals of the distinct terms.
     const ref = await milpMinimum(spec);
+    const distinct = new Map<string, number>();
+    for (const o of r.outputs) for (const c of o.cubes) distinct.set(`${c.value}/${c.mask}`, popcount(c.mask));
     expect(r.cost).toBe(ref.products);
-    expect(r.outputs[3]!.products).toBeGreaterThanOrEqual(1);
-    expect(verifyCovers(spec, r.outputs.map((o) => ({ form: o.form, cubes: o.cubes }))).ok).toBe(true);
+    expect([distinct.size, [...distinct.values()].reduce((a, b) => a + b, 0)]).toEqual([ref.products, ref.literals]);
   });
 
-  it("POS form of the Wikipedia example is verified and uses sum terms", () => {
-    // Source: Wikipedia QM example function; its complement Σm(0..3,5,6,7,13) ... checked by verification, not by value.
+  it("POS form of the Wikipedia example has the fewest sum terms and literals", async () => {
+    // Source: Wikipedia, "Quine–McCluskey algorithm", worked example f = Σm(4,8,10,11,12,15) + d(9,14).
     const spec = spec1(4, [4, 8, 10, 11, 12, 15], [9, 14]);
     const r = minimize(spec, { form: "pos" });
     const o = r.outputs[0]!;
     expect(o.form).toBe("pos");
     expect(o.expression.startsWith("(")).toBe(true);
-    expect(verifyCovers(spec, [{ form: "pos", cubes: o.cubes }]).ok).toBe(true);
+    expect(r.exact).toBe(true);
+    // Reference: a minimum product of sums of f is a minimum sum of products of f' with every literal
+    // inverted (De Morgan; common practice, no source); the minimum SOP of f' = Σm(0,1,2,3,5,6,7,13) + d(9,14)
+    // by the test's own enumeration of implicants and an exact MILP (highs).
+    const ref = await milpMinimum(spec1(4, [0, 1, 2, 3, 5, 6, 7, 13], [9, 14]));
+    expect([o.products, o.literals]).toEqual([ref.products, ref.literals]);
+    // Reference: the definition of a product of sums, evaluated by the test at every minterm: a sum term
+    // (1 = plain literal, 0 = complemented) is 0 exactly on the points its literals all miss.
+    for (let m = 0; m < 16; m++) {
+      if ([9, 14].includes(m)) continue;
+      const zero = o.cubes.some((c) => ((m ^ ~c.value) & c.mask) === 0);
+      expect(!zero).toBe([4, 8, 10, 11, 12, 15].includes(m));
+    }
   });
 
   it("constant outputs print 0 and 1", () => {
@@ -88,7 +106,8 @@ describe("worked examples", () => {
   });
 
   it("expressions use the language's operators", () => {
-    // Our language (docs/PRODUCT.md fixed core): AND '*', OR '+', postfix ' for NOT.
+    // The equation language's operators (lib/lang), no outside source: AND '*', OR '+', postfix ' for NOT
+    // (the apostrophe for a complement is common textbook notation: common practice, no source).
     const r = minimize(spec1(2, [1], [], ["p", "q"]));
     expect(r.outputs[0]!.expression).toBe("p' * q");
   });
