@@ -10,10 +10,14 @@ const forms: Array<[TargetForm, string]> = [
   ["nor", "NOR–NOR"],
   ["mixed", "Mixed"],
 ];
-const costs: Array<[CostKind, string]> = [
-  ["products", "Products, then literals"],
-  ["gate-inputs", "Gate inputs"],
-  ["fan-in", "Fan-in aware"],
+const costs: Array<[CostKind, string, string]> = [
+  [
+    "products",
+    "Products, then literals",
+    "Fewest product terms that need a gate, then fewest literals. A term of one literal is a wire (or an inverter), not a gate, so it is not counted among the products.",
+  ],
+  ["gate-inputs", "Gate inputs", "Fewest gate inputs: the literals of every product, plus one OR input for each product an output uses."],
+  ["fan-in", "Fan-in aware", "Fewest gates when no gate may have more inputs than the fan-in: wide products and sums count the gates they split into."],
 ];
 
 const field = "rounded border border-rule bg-paper px-2 py-1 text-sm disabled:opacity-70";
@@ -58,8 +62,9 @@ export function SettingsBar({ families, familyId, onFamily, settings, onChange, 
       <label className="flex flex-col gap-0.5">
         Cost model
         <select className={field} value={settings.cost ?? "products"} disabled={readOnly}
+          title={costs.find(([v]) => v === (settings.cost ?? "products"))?.[2]}
           onChange={(e) => set("cost", e.target.value as CostKind)}>
-          {costs.map(([v, l]) => <option key={v} value={v}>{l}</option>)}
+          {costs.map(([v, l, d]) => <option key={v} value={v} title={d}>{l}</option>)}
         </select>
       </label>
       <NumberField label="Fan-in" aria="Fan-in override" width="w-16" readOnly={readOnly}

@@ -4,7 +4,7 @@
  * independent points (./bound).
  */
 import type { Cube } from "../logic";
-import { TRUTH_TABLE_MAX_INPUTS, fullMask, tableMinterms } from "../logic";
+import { LOW_VARIABLE_WORDS, TRUTH_TABLE_MAX_INPUTS, fullMask, tableMinterms } from "../logic";
 import { independentPoints, tableOracle, cubeOracle, type BoundPoint } from "./bound";
 import { gatesFor } from "./cost";
 import { HeuristicTimeout, heuristicCover } from "./heuristic";
@@ -33,11 +33,14 @@ export function heuristicAll(n: number, targets: Target[], model: CostModel, dea
     }
   }
   // Candidate points: a spread sample of each output's ON points (or its cubes' corners above 20 inputs).
+  // Under the products model a point a wire of its output may serve is left out: a wire is no product.
   const full = fullMask(n);
+  const offCubes = n <= TRUTH_TABLE_MAX_INPUTS ? null : targets.map((t) => complement(t.on.concat(t.dc), full));
   const candidates: BoundPoint[] = [];
   const perOutputCap = Math.max(64, Math.floor(12000 / Math.max(1, targets.length)));
   targets.forEach((t, j) => {
-    const pts = t.onT ? tableMinterms(t.onT, n) : t.on.map((c) => c.value);
+    const wires = model.kind === "products" ? wiresOf(t, n, offCubes?.[j]) : [];
+    const pts = (t.onT ? tableMinterms(t.onT, n) : t.on.map((c) => c.value)).filter((m) => !wires.some((c) => ((m ^ c.value) & c.mask) === 0));
     const step = Math.max(1, Math.ceil(pts.length / perOutputCap));
     for (let i = 0; i < pts.length; i += step) candidates.push({ output: j, minterm: pts[i]! });
   });
@@ -51,7 +54,7 @@ export function heuristicAll(n: number, targets: Target[], model: CostModel, dea
           }),
           n,
         )
-      : cubeOracle(targets.map((t) => complement(t.on.concat(t.dc), full)));
+      : cubeOracle(offCubes!);
   if (n <= TRUTH_TABLE_MAX_INPUTS) {
     // Points with few care neighbours first: they are the likeliest to be independent of the rest.
     const degree = (p: BoundPoint): number => {
@@ -101,4 +104,29 @@ function pointsToCost(model: CostModel, k: number, _indep: number): number {
     case "fan-in":
       return gatesFor(k, model.fanIn);
   }
+}
+
+/**
+ * The terms of one literal that lie in the output's ON ∪ DC: the wires it may
+ * use. Exact on the truth tables; above them, on the OFF-set's cubes.
+ */
+function wiresOf(t: Target, n: number, off: readonly Cube[] | undefined): Cube[] {
+  const out: Cube[] = [];
+  for (let i = 0; i < n; i++) {
+    for (const v of [0, 1]) {
+      const c = { value: (v << i) >>> 0, mask: (1 << i) >>> 0 };
+      let inside: boolean;
+      if (t.onT && t.dcT) {
+        inside = true;
+        const valid = n >= 5 ? 0xffffffff : 2 ** 2 ** n - 1;
+        for (let w = 0; w < t.onT.length && inside; w++) {
+          // The word's points with variable i at v.
+          const pts = i < 5 ? (v ? LOW_VARIABLE_WORDS[i]! : ~LOW_VARIABLE_WORDS[i]!) & valid : ((w >>> (i - 5)) & 1) === v ? valid : 0;
+          if ((pts & ~(t.onT[w]! | t.dcT[w]!)) !== 0) inside = false;
+        }
+      } else inside = !off!.some((r) => ((r.value ^ c.value) & r.mask & c.mask) === 0);
+      if (inside) out.push(c);
+    }
+  }
+  return out;
 }

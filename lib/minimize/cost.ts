@@ -3,6 +3,16 @@ import type { CostModel } from "./types";
 /** Scale that keeps "products first, literals second" lexicographic in one integer. */
 export const PRODUCT_WEIGHT = 2 ** 21;
 
+/**
+ * Whether a term of this many literals needs a gate of its own. A product of
+ * one literal is a wire (or an inverter, when the literal is complemented and
+ * complements are not at hand), and a product of none is the constant 1: the
+ * products model counts neither among the products.
+ */
+export function needsGate(literals: number): boolean {
+  return literals >= 2;
+}
+
 /** Gates of at most `fanIn` inputs needed to combine k signals (0 when k ≤ 1). */
 export function gatesFor(k: number, fanIn: number): number {
   return k <= 1 ? 0 : Math.ceil((k - 1) / (fanIn - 1));
@@ -17,7 +27,7 @@ export function gatesFor(k: number, fanIn: number): number {
 export function columnWeight(model: CostModel, literals: number): number {
   switch (model.kind) {
     case "products":
-      return PRODUCT_WEIGHT + literals;
+      return (needsGate(literals) ? PRODUCT_WEIGHT : 0) + literals;
     case "gate-inputs":
       return literals + 1;
     case "fan-in":
@@ -29,8 +39,11 @@ export function columnWeight(model: CostModel, literals: number): number {
 /** True cost of a design under the model: its distinct terms and, per output, its term count. */
 export function designCost(model: CostModel, distinctLiterals: number[], termsPerOutput: number[]): number {
   switch (model.kind) {
-    case "products":
-      return distinctLiterals.length;
+    case "products": {
+      let products = 0;
+      for (const l of distinctLiterals) if (needsGate(l)) products++;
+      return products;
+    }
     case "gate-inputs":
       return distinctLiterals.reduce((a, b) => a + b, 0) + termsPerOutput.reduce((a, b) => a + b, 0);
     case "fan-in": {

@@ -5,7 +5,7 @@
  * per-output bounds.
  */
 import { popcount } from "../logic";
-import { PRODUCT_WEIGHT, boundFromSurrogate, designCost } from "./cost";
+import { PRODUCT_WEIGHT, boundFromSurrogate, designCost, needsGate } from "./cost";
 import { type RowColumns, rowColumns, solveCover } from "./cover";
 import { BufferPool } from "./lp";
 import { type CoveringProblem, type ExactSettings, buildProblem } from "./problem";
@@ -21,6 +21,8 @@ import { type CostModel, DEFAULTS } from "./types";
  * far more nodes. First the fewest products P* (unit weights); then the
  * fewest literals among covers of at most P* columns (the column budget is
  * relaxed into the Lagrangian bound and checked against independent rows).
+ * When some columns are wires (one literal, no product), the budget would
+ * have to skip them, and one search over the combined weight runs instead.
  * Returns weights in the {@link columnWeight} scale.
  */
 function lexicographicCover(prob: CoveringProblem, model: CostModel, settings: ExactSettings, rc: RowColumns) {
@@ -37,17 +39,27 @@ function lexicographicCover(prob: CoveringProblem, model: CostModel, settings: E
   }
   if (model.kind !== "products") return solveCover({ colRows, weight, rowCount, deadline, rowCols: rc, tuning, pool });
   const lits = prob.columns.map((p) => popcount(p.mask));
+  // Wires (terms of one literal) and the constant 1 are no products: they weigh their literals only.
+  let wires = 0;
+  for (let c = 0; c < lits.length; c++) if (!needsGate(lits[c]!)) wires++;
+  const gates = (cs: number[]) => cs.reduce((a, c) => a + (needsGate(lits[c]!) ? 1 : 0), 0);
   // One root LP over the combined weight first: when its rounding meets its bound the cover is
   // lexicographically minimum as well, provided no cover with fewer products can make up the product
-  // weight in literals (PRODUCT_WEIGHT ≥ most literals × products).
+  // weight in literals (PRODUCT_WEIGHT ≥ most literals × products + wires).
   const s0 = solveCover({ colRows, weight, rowCount, deadline, rootOnly: true, rowCols: rc, tuning, pool });
   let mostLits = 1;
   for (let c = 0; c < lits.length; c++) if (lits[c]! > mostLits) mostLits = lits[c]!;
-  if (s0.exact && PRODUCT_WEIGHT >= mostLits * s0.chosen.length) {
+  if (s0.exact && PRODUCT_WEIGHT >= mostLits * gates(s0.chosen) + wires) {
     return { chosen: s0.chosen, weight: s0.weight, lowerBound: s0.weight, exact: true };
   }
   // The root's rounded cover, when there is one, starts both searches.
   const first = Number.isFinite(s0.weight) ? s0.chosen : undefined;
+  if (wires > 0) {
+    // The literal search's column budget would have to leave the wires out: one search over the
+    // combined weight instead, from the root's cover and cuts (found without a budget, on these weights).
+    const s = solveCover({ colRows, weight, rowCount, deadline, rowCols: rc, incumbent: first, cuts: s0.cuts, tuning, pool });
+    return { chosen: s.chosen, weight: s.weight, lowerBound: s.lowerBound, exact: s.exact };
+  }
   // The root's bound proves the fewest products when no cover of one product less reaches it
   // (each of its products weighs at most PRODUCT_WEIGHT + mostLits): the product search is then not needed.
   const proven = first !== undefined && s0.lowerBound > (first.length - 1) * (PRODUCT_WEIGHT + mostLits);

@@ -2,7 +2,11 @@ import type { Cube } from "../logic";
 
 /**
  * How a two-level cover is priced.
- * - `products`: number of distinct product terms, then literals as a tie-break (default).
+ * - `products` (default): the fewest product terms that need a gate, then the
+ *   fewest literals. A product of one literal needs no gate — it is a wire, or
+ *   an inverter — so it is not counted among the products (its literal is
+ *   counted); nor is the constant 1. Distinct terms are counted once, however
+ *   many outputs share them.
  * - `gate-inputs`: literals of every distinct product plus one OR-plane input per
  *   (term, output) connection.
  * - `fan-in`: gates needed when every gate has at most `fanIn` inputs: a term of k
@@ -60,7 +64,7 @@ export interface MinimizeResult {
   exact: boolean;
   /** Wall-clock milliseconds of the run. */
   ms: number;
-  /** The design's cost under the chosen model (products model: distinct products). */
+  /** The design's cost under the chosen model (products model: distinct products of two or more literals). */
   cost: number;
   /** Proven lower bound on the design's cost under the chosen model. */
   lowerBound: number;

@@ -16,7 +16,7 @@ export type CostKind = "products" | "gate-inputs" | "fan-in";
 export interface DesignSettings {
   /** Target gate form; default "and-or". "or-and" and "nor" minimize to POS, the others to SOP. */
   form?: TargetForm;
-  /** Minimizer cost model; default "products". "fan-in" uses the mapping fan-in. */
+  /** Minimizer cost model (CostModel in lib/minimize); default "products": the products that need a gate (a term of one literal is a wire), then literals. "fan-in" uses the mapping fan-in. */
   cost?: CostKind;
   /** Widest gate input allowed; default the family's. */
   fanIn?: number;

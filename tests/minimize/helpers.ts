@@ -84,12 +84,18 @@ export function isPrimeFor(spec: FunctionSpec, j: number, c: Cube): boolean {
 let highsPromise: ReturnType<typeof highsLoader> | null = null;
 
 /**
- * Minimum of Σ (W·[term used] + literals) over all multi-output implicants,
- * every (output, ON minterm) covered by a used term tagged with that output:
- * products first, literals second (W = n·2^n·outputs + 1 exceeds any cover's
- * literals). Solved by highs to a proven optimum (no MIP gap). Returns {products, literals}.
+ * Minimum of Σ (W·[term used and of two or more literals] + literals) over all
+ * multi-output implicants, every (output, ON minterm) covered by a used term
+ * tagged with that output: products first, literals second (W = n·2^n·outputs + 1
+ * exceeds any cover's literals). A term of one literal is a wire, not a product
+ * (a gate count: common practice, no source). Solved by highs to a proven
+ * optimum (no MIP gap). Returns {products, literals}.
  */
-export async function milpMinimum(spec: FunctionSpec): Promise<{ products: number; literals: number }> {
+export async function milpMinimum(
+  spec: FunctionSpec,
+  /** Count every term as a product, a term of one literal too (the plain set-cover count of columns). */
+  options: { everyTermAProduct?: boolean } = {},
+): Promise<{ products: number; literals: number }> {
   highsPromise ??= highsLoader();
   const highs = await highsPromise;
   const imps = bruteImplicants(spec);
@@ -115,7 +121,12 @@ export async function milpMinimum(spec: FunctionSpec): Promise<{ products: numbe
   if (rows.size === 0) return { products: 0, literals: 0 };
   // Products first: a product outweighs the most literals any cover can hold (n per term, at most 2^n terms per output).
   const W = spec.inputs.length * 2 ** spec.inputs.length * Math.max(1, spec.outputs.length) + 1;
-  const obj = cols.map((i) => `${W + popcount(imps[i]!.cube.mask)} y${i}`).join(" + ");
+  const obj = cols
+    .map((i) => {
+      const lits = popcount(imps[i]!.cube.mask);
+      return `${(lits >= 2 || options.everyTermAProduct ? W : 0) + lits} y${i}`;
+    })
+    .join(" + ");
   let k = 0;
   const cons = [...rows.values()].map((cs) => ` r${k++}: ${cs.map((i) => `y${i}`).join(" + ")} >= 1`);
   const lp = `Minimize\n obj: ${obj}\nSubject To\n${cons.join("\n")}\nBinary\n ${cols.map((i) => `y${i}`).join(" ")}\nEnd\n`;

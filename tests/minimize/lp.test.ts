@@ -88,8 +88,9 @@ describe("LP relaxation of the covering problem", () => {
       const prob = coveringProblem(spec);
       if (prob.rowCount === 0) continue;
       const lits = prob.columns.map((c) => popcount(c.mask));
-      // Reference: highs MILP over all implicants found by brute force (tests/minimize/helpers.ts).
-      const ref = await milpMinimum(spec);
+      // Reference: highs MILP over all implicants found by brute force (tests/minimize/helpers.ts), every
+      // term counted as a product, as the column budget counts every column.
+      const ref = await milpMinimum(spec, { everyTermAProduct: true });
       const lp = coverLpDuals(prob.rowCount, prob.colRows, lits, ref.products);
       expect(lp.optimal).toBe(true);
       expect(lagrangianValue(prob.colRows, lits, lp.u, lp.mu, ref.products)).toBeLessThanOrEqual(ref.literals + 1e-6);
@@ -218,8 +219,9 @@ describe("Chvátal–Gomory cuts of the covering LP", () => {
     const { spec, pool } = found!;
     const prob = coveringProblem(spec);
     const lits = prob.columns.map((c) => popcount(c.mask));
-    // Reference: highs MILP over all implicants found by brute force (tests/minimize/helpers.ts).
-    const ref = await milpMinimum(spec);
+    // Reference: highs MILP over all implicants found by brute force (tests/minimize/helpers.ts), every term
+    // counted, as the column budget and the combined weight above count every column.
+    const ref = await milpMinimum(spec, { everyTermAProduct: true });
     const solve = (cuts: typeof pool) =>
       solveCover({ colRows: prob.colRows, weight: lits, rowCount: prob.rowCount, deadline: Infinity, maxColumns: ref.products, cuts });
     // Its own cuts: the same minimum as without them.
