@@ -27,7 +27,10 @@ import { type CostModel, DEFAULTS } from "./types";
  */
 function lexicographicCover(prob: CoveringProblem, model: CostModel, settings: ExactSettings, rc: RowColumns) {
   const { colRows, weight, rowCount } = prob;
-  const { deadline, tuning } = settings;
+  const { tuning } = settings;
+  // The searches may go on past the primes' deadline: the primes are there, and the heuristic that follows
+  // rarely beats what they find on large functions.
+  const deadline = settings.coverDeadline ?? settings.deadline;
   // The three searches below hand their LPs' basis inverses to each other.
   const pool = new BufferPool();
   const only = essentialCover(colRows, rc, rowCount);

@@ -55,8 +55,9 @@ export function minimize(spec: FunctionSpec, options: MinimizeOptions = {}): Min
   let solved: Solved | null = null;
   const exactPossible = !options.heuristic && n <= TRUTH_TABLE_MAX_INPUTS && targets.length > 0;
   if (exactPossible) {
-    // The exact route may use about 60 % of the budget; the heuristic keeps the rest.
-    const limits = { maxPrimes, maxImplicants: DEFAULTS.maxImplicants, deadline: t0 + timeLimitMs * 0.6 };
+    // The exact route may use about 60 % of the budget for its primes and 85 % for its covers; the
+    // heuristic keeps the rest (all of it when the exact route gives way).
+    const limits = { maxPrimes, maxImplicants: DEFAULTS.maxImplicants, deadline: t0 + timeLimitMs * 0.6, coverDeadline: t0 + timeLimitMs * 0.85 };
     try {
       solved = exactRoute(n, targets, model, limits);
     } catch (e) {

@@ -19,6 +19,8 @@ export interface ExactSettings {
   maxPrimes: number;
   maxImplicants: number;
   deadline: number;
+  /** Date.now() milliseconds at which the cover searches stop; default `deadline`. */
+  coverDeadline?: number;
   /** Settings of the cover searches; default DEFAULT_TUNING of ./cover. */
   tuning?: CoverTuning;
 }
@@ -288,3 +290,4 @@ export function coveringProblem(spec: FunctionSpec, options: { cost?: CostModel;
   }
   return { primes: p.primes, columns: p.columns, colRows: p.colRows, weight: p.weight, rowCount: p.rowCount };
 }
+

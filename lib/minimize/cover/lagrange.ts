@@ -60,6 +60,8 @@ export function lagrange(
   let lastHeur = -Infinity;
   const bestU = new Float64Array(u.length);
   for (let it = 0; it < iters; it++) {
+    // A large root's steps take seconds: the deadline stops them (the best bound so far stands).
+    if ((it & 15) === 15 && atRoot && Date.now() > s.deadline) break;
     let L = 0;
     for (const r of liveRows) {
       L += u[r]!;

@@ -9,6 +9,7 @@ import { greedy } from "./greedy";
 import { independentRows } from "./independent";
 import { lagrange } from "./lagrange";
 import { dive, lpBound, type LpNode } from "./lp-node";
+import { improveIncumbent } from "./local";
 import { lpRounding, roundCover } from "./primal";
 import { reduce } from "./reduce";
 import type { Search } from "./state";
@@ -38,6 +39,11 @@ export function run(s: Search): { chosen: number[]; weight: number; lowerBound: 
   }
   if (core.sparseOnly) {
     const lag = lagrange(s, rowsA, colsA, u, true, s.best, s.card);
+    if (s.card < 0 && s.unicost && core.R >= s.tuning.localMinRows) {
+      const target = Math.ceil(lag.lb - 1e-6);
+      const share = Math.max(0, s.deadline - Date.now()) * s.tuning.localTimeShare;
+      improveIncumbent(s, rowsA, colsA, 0, [], target, s.tuning.localStepsPerRow * core.R, Date.now() + share, lag.rc);
+    }
     const lb = Math.min(s.best, Math.max(independentRows(s.core, rowsA, colsA).lb, Math.ceil(lag.lb - 1e-6)));
     return { chosen: s.bestChosen, weight: s.best, lowerBound: lb, exact: lb === s.best };
   }
@@ -138,6 +144,11 @@ export function search(s: Search, rowsA: Uint32Array, colsA: Uint32Array, cost: 
   if (depth === 0) s.rootBound = Math.max(s.rootBound, cost + lb, cost + Math.ceil(lbBest - 1e-6));
   if (depth <= s.tuning.heurDepth) {
     roundCover(s, rowsA, colsA, lag.rc, lag.liveCols, cost, here);
+    const target = cost + Math.ceil(lbBest - 1e-6);
+    if (depth === 0 && s.card < 0 && target < s.best && s.unicost && members(rowsA).length >= s.tuning.localMinRows) {
+      const share = Math.max(0, s.deadline - Date.now()) * s.tuning.localTimeShare;
+      improveIncumbent(s, rowsA, colsA, cost, here, target - cost, s.tuning.localStepsPerRow * members(rowsA).length, Date.now() + share, lag.rc);
+    }
     if (cost + Math.ceil(lbBest - 1e-6) >= s.best) return;
   }
   let fixed = false;

@@ -46,6 +46,9 @@ export class Search {
   readonly dirtyRow: Uint8Array;
   readonly dirtyCol: Uint8Array;
 
+  /** Every column weighs the same: a cover of fewest columns is sought. */
+  readonly unicost: boolean;
+
   constructor(
     readonly core: Core,
     /** Date.now() milliseconds after which the search stops. */
@@ -65,6 +68,7 @@ export class Search {
     this.dirtyEss = new Uint8Array(R);
     this.dirtyRow = new Uint8Array(R);
     this.dirtyCol = new Uint8Array(C);
+    this.unicost = core.w.every((x) => x === core.w[0]);
   }
 
   /** Offers a known cover of the core as incumbent. */

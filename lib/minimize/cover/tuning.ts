@@ -36,6 +36,16 @@ export interface CoverTuning {
   /** LPs of `rowGenMin` rows or more start on the fraction `rowGenStart` of them and add the others as needed. */
   rowGenMin: number;
   rowGenStart: number;
+  /**
+   * Covers of fewest columns with at least `localMinRows` live rows at the root: a local search (./local)
+   * looks for a smaller cover, for at most `localStepsPerRow` steps a row and the share `localTimeShare`
+   * of the time left, among the columns whose reduced cost at the root's multipliers is below
+   * `localTheta` (and the incumbent's, and each row's cheapest).
+   */
+  localMinRows: number;
+  localStepsPerRow: number;
+  localTimeShare: number;
+  localTheta: number;
 }
 
 /** The settings every search uses unless its problem carries others. */
@@ -61,4 +71,8 @@ export const DEFAULT_TUNING: Readonly<CoverTuning> = Object.freeze({
   diveFixAbove: 0.9,
   rowGenMin: 60,
   rowGenStart: 0.5,
+  localMinRows: 1000,
+  localStepsPerRow: 100,
+  localTimeShare: 0.7,
+  localTheta: 0.03,
 });
