@@ -4,14 +4,14 @@
  * independent points (./bound).
  */
 import type { Cube } from "../logic";
-import { LOW_VARIABLE_WORDS, TRUTH_TABLE_MAX_INPUTS, fullMask, tableMinterms } from "../logic";
+import { LOW_VARIABLE_WORDS, TRUTH_TABLE_MAX_INPUTS, fullMask, popcount, tableMinterms } from "../logic";
 import { independentPoints, tableOracle, cubeOracle, type BoundPoint } from "./bound";
 import { gatesFor } from "./cost";
 import { HeuristicTimeout, heuristicCover } from "./heuristic";
 import { costOfCovers } from "./share";
 import { type Solved, boundProves } from "./solved";
 import type { Target } from "./target";
-import { type CostModel, LimitError } from "./types";
+import { type CostModel, LimitError, plainDuration } from "./types";
 import { complement } from "./unate";
 
 /** Heuristic route: a prime and irredundant cover per output, identical terms shared, proven bound. */
@@ -25,13 +25,18 @@ export function heuristicAll(n: number, targets: Target[], model: CostModel, dea
         throw new LimitError(
           "timeLimitMs",
           limit,
-          "no prime and irredundant cover could be finished within the time limit",
-          "Raise timeLimitMs, or split the design into smaller blocks.",
+          `not even a first cover of every output could be finished within the time limit of ${plainDuration(limit)}`,
+          "Split the design into smaller blocks, with fewer inputs or outputs each.",
+          `time limit of ${plainDuration(limit)}`,
         );
       }
       throw e;
     }
   }
+  // ON points with no ON or DC neighbour ("isolated") are each their output's only implicant through
+  // them: every cover holds them as terms, and they are independent of every point at another minterm.
+  // They are counted directly; the greedy set below is drawn from the other minterms.
+  const iso = n <= TRUTH_TABLE_MAX_INPUTS ? isolatedPoints(targets, n) : null;
   // Candidate points: a spread sample of each output's ON points (or its cubes' corners above 20 inputs).
   // Under the products model a point a wire of its output may serve is left out: a wire is no product.
   const full = fullMask(n);
@@ -40,7 +45,9 @@ export function heuristicAll(n: number, targets: Target[], model: CostModel, dea
   const perOutputCap = Math.max(64, Math.floor(12000 / Math.max(1, targets.length)));
   targets.forEach((t, j) => {
     const wires = model.kind === "products" ? wiresOf(t, n, offCubes?.[j]) : [];
-    const pts = (t.onT ? tableMinterms(t.onT, n) : t.on.map((c) => c.value)).filter((m) => !wires.some((c) => ((m ^ c.value) & c.mask) === 0));
+    const pts = (t.onT ? tableMinterms(t.onT, n) : t.on.map((c) => c.value)).filter(
+      (m) => !(iso && (iso.any[m >>> 5]! >>> (m & 31)) & 1) && !wires.some((c) => ((m ^ c.value) & c.mask) === 0),
+    );
     const step = Math.max(1, Math.ceil(pts.length / perOutputCap));
     for (let i = 0; i < pts.length; i += step) candidates.push({ output: j, minterm: pts[i]! });
   });
@@ -73,8 +80,9 @@ export function heuristicAll(n: number, targets: Target[], model: CostModel, dea
     candidates.push(...sorted);
   }
   const boundDeadline = Math.min(deadline, Date.now() + 2000);
-  const ind = independentPoints(candidates, oracle, full, boundDeadline);
-  const k = targets.map((_, j) => ind.perOutput.get(j) ?? 0);
+  const found = independentPoints(candidates, oracle, full, boundDeadline);
+  const ind = { total: found.total + (iso?.total ?? 0) };
+  const k = targets.map((_, j) => (found.perOutput.get(j) ?? 0) + (iso?.perOutput[j] ?? 0));
   const perOutput = k.map((kj) => pointsToCost(model, kj, kj));
   let design: number;
   switch (model.kind) {
@@ -91,7 +99,50 @@ export function heuristicAll(n: number, targets: Target[], model: CostModel, dea
   }
   const cost = costOfCovers(model, covers);
   design = Math.min(cost, Math.max(design, ...perOutput));
-  return { covers, cost, exact: boundProves(model, cost, design), designBound: design, outputBounds: perOutput, primes: -1, route: "heuristic" };
+  // When every ON point is isolated, its minterm is the one cover there is (a parity function's): minimum under any model.
+  const forced = iso !== null && targets.every((t, j) => iso.perOutput[j] === t.on.length && t.on.every((c) => c.mask === full));
+  const exact = forced || boundProves(model, cost, design);
+  return { covers, cost, exact, designBound: exact ? cost : design, outputBounds: exact && targets.length === 1 ? [cost] : perOutput, primes: -1, route: "heuristic" };
+}
+
+/**
+ * Per output, its ON points with no ON or DC point one variable away, and
+ * the minterms isolated in some output: `total` counts those minterms (a
+ * term at one minterm may serve every output it is ON in).
+ */
+function isolatedPoints(targets: Target[], n: number): { any: Uint32Array; perOutput: number[]; total: number } {
+  const words = targets[0]?.onT?.length ?? 1;
+  const any = new Uint32Array(words);
+  const perOutput: number[] = [];
+  const near = new Uint32Array(words);
+  for (const t of targets) {
+    near.fill(0);
+    const on = t.onT!;
+    const dc = t.dcT!;
+    for (let i = 0; i < n; i++) {
+      if (i < 5) {
+        const up = LOW_VARIABLE_WORDS[i]!;
+        const sh = 1 << i;
+        for (let w = 0; w < words; w++) {
+          const care = on[w]! | dc[w]!;
+          near[w]! |= ((care & ~up) << sh) | ((care & up) >>> sh);
+        }
+      } else {
+        const s = 1 << (i - 5);
+        for (let w = 0; w < words; w++) near[w]! |= on[w ^ s]! | dc[w ^ s]!;
+      }
+    }
+    let count = 0;
+    for (let w = 0; w < words; w++) {
+      const lone = on[w]! & ~near[w]!;
+      any[w]! |= lone;
+      count += popcount(lone);
+    }
+    perOutput.push(count);
+  }
+  let total = 0;
+  for (let w = 0; w < words; w++) total += popcount(any[w]!);
+  return { any, perOutput, total };
 }
 
 /** Cost bound of an output whose ON-set holds k independent points. */

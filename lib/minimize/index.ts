@@ -45,7 +45,13 @@ export function minimize(spec: FunctionSpec, options: MinimizeOptions = {}): Min
   const maxPrimes = options.maxPrimes ?? DEFAULTS.maxPrimes;
   const timeLimitMs = options.timeLimitMs ?? DEFAULTS.timeLimitMs;
   if (n > MAX_INPUTS) {
-    throw new LimitError("MAX_INPUTS", MAX_INPUTS, `the design has ${n} inputs`, "Split the design into blocks of at most 30 inputs.");
+    throw new LimitError(
+      "MAX_INPUTS",
+      MAX_INPUTS,
+      `the design has ${n} inputs, more than the ${MAX_INPUTS} a design may have`,
+      `Split it into blocks of at most ${MAX_INPUTS} inputs each.`,
+      `limit of ${MAX_INPUTS} inputs`,
+    );
   }
   const deadline = t0 + timeLimitMs;
   // Value bits outside a cube's mask are no literals (lib/logic's cube definition); drop them once here.

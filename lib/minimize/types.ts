@@ -74,20 +74,38 @@ export interface MinimizeResult {
   route: "exact" | "heuristic";
 }
 
+/** A duration in plain words: "400 ms", "10 s", "1.5 s", "2 min". */
+export function plainDuration(ms: number): string {
+  if (ms < 1000) return `${Math.round(ms)} ms`;
+  if (ms < 120_000) return `${Number((ms / 1000).toFixed(1))} s`;
+  return `${Number((ms / 60_000).toFixed(1))} min`;
+}
+
 /**
- * The one error {@link minimize} throws: a limit stopped the run.
- * `limit` names the option or constant that was exceeded, `value` its setting,
- * `hint` what to change.
+ * The one error {@link minimize} throws: a limit stopped the run. The message
+ * says in plain words what happened and what to change; `what` names the
+ * limit reached, to follow "Stopped at the" ("time limit of 10 s"); `hint` is
+ * what to change; `limit` is a code for programs ("MAX_INPUTS", "timeLimitMs"),
+ * not for display, and `value` its setting.
  */
 export class LimitError extends Error {
   limit: string;
   value: number;
+  what: string;
   hint: string;
-  constructor(limit: string, value: number, message: string, hint: string) {
-    super(`${message} (limit ${limit} = ${value}). ${hint}`);
+  constructor(
+    limit: string,
+    value: number,
+    /** What happened, as a sentence without its full stop: "the design has 31 inputs, ...". */
+    happened: string,
+    hint: string,
+    what: string = happened,
+  ) {
+    super(`${happened.charAt(0).toUpperCase()}${happened.slice(1)}. ${hint}`);
     this.name = "LimitError";
     this.limit = limit;
     this.value = value;
+    this.what = what;
     this.hint = hint;
   }
 }

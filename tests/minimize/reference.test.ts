@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { cubeFromString, cubeToString, minterm, popcount, type FunctionSpec } from "../../lib/logic";
+import { cubeFromString, cubeToString, minterm, popcount, type Cube, type FunctionSpec } from "../../lib/logic";
 import { LimitError, minimize } from "../../lib/minimize";
 import { milpMinimum } from "./helpers";
 
@@ -124,14 +124,59 @@ describe("worked examples", () => {
     expect(r.exact).toBe(true);
   });
 
-  it("too many inputs is a LimitError naming the limit", () => {
+  it("too many inputs is a LimitError saying so in plain words", () => {
     // Shared contract lib/logic: MAX_INPUTS = 30.
     const spec: FunctionSpec = { inputs: Array.from({ length: 31 }, (_, i) => `i${i}`), outputs: [] };
-    expect(() => minimize(spec)).toThrow(LimitError);
+    let err: unknown = null;
     try {
       minimize(spec);
     } catch (e) {
-      expect((e as LimitError).limit).toBe("MAX_INPUTS");
+      err = e;
     }
+    expect(err).toBeInstanceOf(LimitError);
+    const e = err as LimitError;
+    expect(e.limit).toBe("MAX_INPUTS");
+    expect(e.what).toBe("limit of 30 inputs");
+    expect(e.message).toContain("31 inputs");
+    expect(e.message).toContain(e.hint);
+    expect(e.message).not.toMatch(/MAX_INPUTS|timeLimitMs|budgetMs/);
   });
+
+  it("the heuristic alone finishes an 18-input parity: every minterm its own prime, proven minimum", () => {
+    // Common practice, no source: two ON points of a parity function are never one variable apart, so each
+    // minterm is its own prime and the minimum sum of products is all 2^17 of them.
+    const n = 18;
+    const on: Cube[] = [];
+    for (let m = 0; m < 2 ** n; m++) if (popcount(m) & 1) on.push(minterm(m, n));
+    const spec: FunctionSpec = { inputs: Array.from({ length: n }, (_, i) => `x${i}`), outputs: [{ name: "p", on, dc: [] }] };
+    const r = minimize(spec, { heuristic: true });
+    expect(r.route).toBe("heuristic");
+    expect(r.outputs[0]!.products).toBe(2 ** 17);
+    expect(r.outputs[0]!.literals).toBe(18 * 2 ** 17);
+    expect(r.lowerBound).toBe(2 ** 17);
+    expect(r.exact).toBe(true);
+    // Reference: the definition of parity, at a sample of points evaluated by the test.
+    for (let m = 0; m < 2 ** n; m += 4099) {
+      expect(r.outputs[0]!.cubes.some((c) => ((m ^ c.value) & c.mask) === 0)).toBe((popcount(m) & 1) === 1);
+    }
+  }, 120_000);
+
+  it("a heuristic run out of time says which limit, and does not advise the heuristic", () => {
+    const n = 18;
+    const on: Cube[] = [];
+    for (let m = 0; m < 2 ** n; m++) if (popcount(m) & 1) on.push(minterm(m, n));
+    const spec: FunctionSpec = { inputs: Array.from({ length: n }, (_, i) => `x${i}`), outputs: [{ name: "p", on, dc: [] }] };
+    let err: unknown = null;
+    try {
+      minimize(spec, { heuristic: true, timeLimitMs: 1 });
+    } catch (e) {
+      err = e;
+    }
+    expect(err).toBeInstanceOf(LimitError);
+    const e = err as LimitError;
+    expect(e.what).toBe("time limit of 1 ms");
+    expect(e.message).toContain("time limit of 1 ms");
+    expect(e.hint).not.toMatch(/heuristic/i);
+    expect(e.message).not.toMatch(/timeLimitMs|budgetMs/);
+  }, 120_000);
 });

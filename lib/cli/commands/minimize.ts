@@ -86,7 +86,7 @@ export async function run(args: string[], io: CliIO): Promise<number> {
     return 0;
   } catch (e) {
     if (e instanceof LimitError) {
-      io.out(JSON.stringify({ error: { code: "limit", message: e.message, limit: e.limit } }, null, 2));
+      io.out(JSON.stringify({ error: { code: "limit", message: e.message, limit: e.limit, what: e.what } }, null, 2));
       return 1;
     }
     throw e;
