@@ -16,8 +16,12 @@ export function prng(seed: number): () => number {
 
 export interface BenchCase {
   name: string;
-  kind: "random" | "structured";
+  kind: "random" | "structured" | "wide";
   spec: FunctionSpec;
+  /** Heuristic only (the setting). */
+  heuristic?: boolean;
+  /** The known minimum in products, where the case has one. */
+  minimum?: number;
 }
 
 export function randomCase(n: number, seed: number, pOn = 0.4, pDc = 0.1): BenchCase {
@@ -133,5 +137,36 @@ export function structuredCases(): BenchCase[] {
     priority(16),
     mux(2),
     mux(3),
+  ];
+}
+
+/**
+ * "Not all inputs equal" over n inputs, as the equation language writes
+ * (x0 + … + x(n−1)) · (x0' + … + x(n−1)'): the products xi·xj' for i ≠ j.
+ * Its minimum is the n products x0·x1' + x1·x2' + … + x(n−1)·x0' (a product
+ * needs a plain and a complemented literal, and the n points with one input
+ * at 1 need n different products).
+ */
+function notAllEqual(n: number): BenchCase {
+  const inputs = Array.from({ length: n }, (_, i) => `x${i}`);
+  const on: Cube[] = [];
+  // Input i is bit n − 1 − i of a minterm (lib/logic).
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) {
+      if (i === j) continue;
+      const bi = 2 ** (n - 1 - i);
+      const bj = 2 ** (n - 1 - j);
+      on.push({ value: bi, mask: (bi + bj) >>> 0 });
+    }
+  }
+  return { name: `not all equal ${n}`, kind: "wide", spec: { inputs, outputs: [{ name: "d", on, dc: [] }] }, minimum: n };
+}
+
+/** Wide structured functions: "not all equal" of 16 to 30 inputs, and an 18-input parity on the heuristic alone. */
+export function wideCases(): BenchCase[] {
+  const parity18 = parity(18);
+  return [
+    ...[16, 18, 20, 24, 30].map(notAllEqual),
+    { ...parity18, name: "parity 18 (heuristic)", kind: "wide", heuristic: true, minimum: 2 ** 17 },
   ];
 }

@@ -45,7 +45,8 @@ export function heuristicAll(n: number, targets: Target[], model: CostModel, dea
   const perOutputCap = Math.max(64, Math.floor(12000 / Math.max(1, targets.length)));
   targets.forEach((t, j) => {
     const wires = model.kind === "products" ? wiresOf(t, n, offCubes?.[j]) : [];
-    const pts = (t.onT ? tableMinterms(t.onT, n) : t.on.map((c) => c.value)).filter(
+    // Above the tables, two opposite corners of each ON cube (its free variables all 0, all 1).
+    const pts = (t.onT ? tableMinterms(t.onT, n) : t.on.flatMap((c) => (c.mask === full ? [c.value] : [c.value, (c.value | (full & ~c.mask)) >>> 0]))).filter(
       (m) => !(iso && (iso.any[m >>> 5]! >>> (m & 31)) & 1) && !wires.some((c) => ((m ^ c.value) & c.mask) === 0),
     );
     const step = Math.max(1, Math.ceil(pts.length / perOutputCap));

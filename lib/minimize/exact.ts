@@ -8,7 +8,8 @@ import { popcount } from "../logic";
 import { PRODUCT_WEIGHT, boundFromSurrogate, designCost, needsGate } from "./cost";
 import { type RowColumns, rowColumns, solveCover } from "./cover";
 import { BufferPool } from "./lp";
-import { type CoveringProblem, type ExactSettings, buildProblem } from "./problem";
+import { implicitCover, tableSpace } from "./implicit";
+import { type CoveringProblem, type ExactSettings, multiOutputPrimes, problemFromPrimes } from "./problem";
 import { assignTerms, costOfCovers } from "./share";
 import { type Solved, boundProves } from "./solved";
 import { swapForFewerLiterals } from "./swap";
@@ -25,7 +26,7 @@ import { type CostModel, DEFAULTS } from "./types";
  * have to skip them, and one search over the combined weight runs instead.
  * Returns weights in the {@link columnWeight} scale.
  */
-function lexicographicCover(prob: CoveringProblem, model: CostModel, settings: ExactSettings, rc: RowColumns) {
+export function lexicographicCover(prob: CoveringProblem, model: CostModel, settings: ExactSettings, rc: RowColumns) {
   const { colRows, weight, rowCount } = prob;
   const { tuning } = settings;
   // The searches may go on past the primes' deadline: the primes are there, and the heuristic that follows
@@ -74,6 +75,16 @@ function lexicographicCover(prob: CoveringProblem, model: CostModel, settings: E
   if (first && first.length <= P) {
     const litsOf = (cs: number[]) => cs.reduce((a, c) => a + lits[c]!, 0);
     if (litsOf(first) < litsOf(start)) start = first;
+  }
+  // A cover of P columns has at least the literals of the P columns with fewest: a start that has no more is the minimum.
+  if (s1.exact) {
+    const fewest = lits.slice().sort((a, b) => a - b);
+    let least = 0;
+    for (let i = 0; i < P; i++) least += fewest[i]!;
+    if (start.reduce((a, c) => a + lits[c]!, 0) === least) {
+      const w = start.reduce((a, c) => a + weight[c]!, 0);
+      return { chosen: start, weight: w, lowerBound: w, exact: true };
+    }
   }
   // The root's cuts hold for the literal search too: its root reductions, the same under the literal weights, are checked.
   const s2 = solveCover({ colRows, weight: lits, rowCount, deadline, incumbent: start, maxColumns: P, rowCols: rc, cuts: s0.cuts, tuning, pool });
@@ -153,6 +164,10 @@ function outputAloneBounds(prob: CoveringProblem & { rowsPerOutput: number[] }, 
   return bounds;
 }
 
+/** ON points, and ON points per prime, from which rows are made on demand (./implicit) rather than all listed. */
+const IMPLICIT_MIN_POINTS = 16_384;
+const IMPLICIT_POINTS_PER_PRIME = 16;
+
 /** Exact route over a group of outputs sharing terms. Throws ExactLimit beyond its limits. */
 export function exactGroup(
   n: number,
@@ -160,7 +175,14 @@ export function exactGroup(
   model: CostModel,
   limits: ExactSettings,
 ): Solved {
-  const prob = buildProblem(n, targets, model, limits);
+  const primes = multiOutputPrimes(n, targets, limits);
+  // Few primes and a great many ON points: rows on demand (./implicit) instead of all of them.
+  let points = 0;
+  for (const t of targets) for (let w = 0; w < t.onT!.length; w++) points += popcount(t.onT![w]!);
+  if (points >= IMPLICIT_MIN_POINTS && points > IMPLICIT_POINTS_PER_PRIME * primes.length) {
+    return implicitCover(n, targets, model, primes, tableSpace(targets, n), limits, true);
+  }
+  const prob = problemFromPrimes(n, targets, model, primes);
   const { rowCount } = prob;
   const all = prob.primes;
   const live = targets.filter((t, j) => t.on.length > 0 && prob.rowsPerOutput[j]! > 0).length;

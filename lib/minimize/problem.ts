@@ -44,6 +44,11 @@ export function buildProblem(
   model: CostModel,
   limits: ExactSettings,
 ): CoveringProblem & { rowsPerOutput: number[] } {
+  return problemFromPrimes(n, targets, model, multiOutputPrimes(n, targets, limits));
+}
+
+/** The multi-output primes of the targets (n ≤ TRUTH_TABLE_MAX_INPUTS), by the route that costs least. Throws ExactLimit beyond the limits. */
+export function multiOutputPrimes(n: number, targets: Target[], limits: ExactSettings): TaggedPrime[] {
   const words = targets[0]!.onT!.length;
   const care = new Uint32Array(words);
   for (const t of targets) for (let w = 0; w < words; w++) care[w]! |= t.onT![w]! | t.dcT![w]!;
@@ -90,7 +95,7 @@ export function buildProblem(
       all = tablePrimes(n, targets, words, minterms(), tagOf, limits, pairs <= 2 ** (n - 1));
     }
   }
-  return problemFromPrimes(n, targets, model, all);
+  return all;
 }
 
 /** Pairs of care points one variable apart (n ≥ 5, bit-parallel over the table). */
@@ -138,7 +143,8 @@ function tablePrimes(
   return all;
 }
 
-function problemFromPrimes(n: number, targets: Target[], model: CostModel, all: TaggedPrime[]): CoveringProblem & { rowsPerOutput: number[] } {
+/** The covering problem over the given primes: rows (output, ON minterm) numbered output by output in minterm order. */
+export function problemFromPrimes(n: number, targets: Target[], model: CostModel, all: TaggedPrime[]): CoveringProblem & { rowsPerOutput: number[] } {
   const full = fullMask(n);
   const words = targets[0]!.onT!.length;
   const valid = n >= 5 ? -1 >>> 0 : 2 ** 2 ** n - 1;

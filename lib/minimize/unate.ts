@@ -277,9 +277,12 @@ export function primesOfCover(F: readonly Cube[], space: number, cap = Infinity,
   const covered1 = new Uint8Array(P1.length);
   const covered0 = new Uint8Array(P0.length);
   const products: Cube[] = [];
-  // Keys mask·2^w + value, w the width of `rest`: small integers (fast set keys) up to 15 inputs.
+  // Keys mask·2^w + value, w the width of `rest`: small integers (fast set keys) up to 15 inputs, exact
+  // up to 26; wider, the key is mask·2^w + value only if it stays below 2^53, else a key per mask.
   const scale = 2 ** (32 - Math.clz32(rest));
+  const exactKeys = scale * scale <= 2 ** 53;
   const seen = new Set<number>();
+  const seenWide = new Map<number, Set<number>>();
   for (let i = 0; i < P1.length; i++) {
     const p = P1[i]!;
     for (let k = 0; k < P0.length; k++) {
@@ -289,9 +292,16 @@ export function primesOfCover(F: readonly Cube[], space: number, cap = Infinity,
       if (mask === p.mask) covered1[i] = 1;
       if (mask === q.mask) covered0[k] = 1;
       const value = (p.value | q.value) >>> 0;
-      const key = mask * scale + value;
-      if (seen.has(key)) continue;
-      seen.add(key);
+      if (exactKeys) {
+        const key = mask * scale + value;
+        if (seen.has(key)) continue;
+        seen.add(key);
+      } else {
+        let values = seenWide.get(mask);
+        if (!values) seenWide.set(mask, (values = new Set<number>()));
+        if (values.has(value)) continue;
+        values.add(value);
+      }
       products.push({ value, mask });
     }
     if (products.length > cap) throw new RangeError(`more than ${cap} candidate primes`);

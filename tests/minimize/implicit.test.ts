@@ -1,0 +1,72 @@
+import { describe, expect, it } from "vitest";
+import type { Cube, FunctionSpec } from "../../lib/logic";
+import { minimize } from "../../lib/minimize";
+import { DEFAULT_TUNING } from "../../lib/minimize/cover";
+import { cubeSpace, implicitCover, tableSpace } from "../../lib/minimize/implicit";
+import { multiOutputPrimes } from "../../lib/minimize/problem";
+import { buildTargets } from "../../lib/minimize/target";
+import { milpMinimum, randomSpec, valueAt } from "./helpers";
+
+/** "Not all inputs equal" over n inputs, as the products xi·xj' (i ≠ j). */
+function notAllEqual(n: number): FunctionSpec {
+  const on: Cube[] = [];
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) {
+      if (i !== j) on.push({ value: 2 ** (n - 1 - i), mask: (2 ** (n - 1 - i) + 2 ** (n - 1 - j)) >>> 0 });
+    }
+  }
+  return { inputs: Array.from({ length: n }, (_, i) => `x${i}`), outputs: [{ name: "d", on, dc: [] }] };
+}
+
+const settings = { maxPrimes: 100_000, maxImplicants: 400_000, deadline: Infinity, tuning: DEFAULT_TUNING };
+
+describe("covering with rows made on demand", () => {
+  for (const seed of [91, 92, 93]) {
+    it(`reaches the MILP minimum of a random 7-input function of 2 outputs (seed ${seed})`, async () => {
+      const spec = randomSpec(7, 2, seed);
+      const targets = buildTargets(spec, "sop");
+      const primes = multiOutputPrimes(7, targets, settings);
+      for (const space of [tableSpace(targets, 7), cubeSpace(targets, 7)]) {
+        const r = implicitCover(7, targets, { kind: "products" }, primes, space, settings, true);
+        // Reference: the test's own enumeration of implicants and an exact MILP (highs).
+        const ref = await milpMinimum(spec);
+        expect(r.exact).toBe(true);
+        expect(r.cost).toBe(ref.products);
+        // Reference: the definition of a cover, evaluated by the test at every minterm.
+        spec.outputs.forEach((_, j) => {
+          for (let m = 0; m < 128; m++) {
+            const v = valueAt(spec, j, m);
+            const got = r.covers[j]!.some((c) => ((m ^ c.value) & c.mask) === 0);
+            if (v !== null) expect(got).toBe(v === 1);
+          }
+        });
+      }
+    }, 60_000);
+  }
+
+  it("gives 'not all equal' of 16 inputs its minimum of 16 products, proven", () => {
+    // The test's own argument, no source: a product avoiding 0…0 and 1…1 has a plain and a complemented
+    // literal, and no product holds two of the 16 points with a single input at 1 (the smallest cube holding
+    // both holds 0…0); x0·x1' + x1·x2' + … + x15·x0' covers every other point, so the minimum is 16.
+    const r = minimize(notAllEqual(16), { timeLimitMs: 120_000 });
+    expect(r.cost).toBe(16);
+    expect(r.exact).toBe(true);
+    expect(r.lowerBound).toBe(16);
+  }, 240_000);
+
+  it("bounds 'not all equal' of 21 inputs by its minimum of 21 products, above the truth tables", () => {
+    // The same argument: no cover has fewer than 21 products, and the bound proven reaches it.
+    const r = minimize(notAllEqual(21), { timeLimitMs: 20_000 });
+    expect(r.lowerBound).toBe(21);
+    expect(r.cost).toBeGreaterThanOrEqual(21);
+    // Reference: the definition, at the points with a single input at 1 or 0 and at 0…0 and 1…1, evaluated by the test.
+    const holds = (m: number) => r.outputs[0]!.cubes.some((c) => ((m ^ c.value) & c.mask) === 0);
+    const full = 2 ** 21 - 1;
+    for (let i = 0; i < 21; i++) {
+      expect(holds(2 ** i)).toBe(true);
+      expect(holds(full - 2 ** i)).toBe(true);
+    }
+    expect(holds(0)).toBe(false);
+    expect(holds(full)).toBe(false);
+  }, 120_000);
+});
