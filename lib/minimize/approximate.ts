@@ -8,6 +8,7 @@ import { LOW_VARIABLE_WORDS, TRUTH_TABLE_MAX_INPUTS, fullMask, popcount, tableMi
 import { independentPoints, tableOracle, cubeOracle, type BoundPoint } from "./bound";
 import { gatesFor } from "./cost";
 import { HeuristicTimeout, heuristicCover } from "./heuristic";
+import type { Reporter } from "./progress";
 import { costOfCovers } from "./share";
 import { type Solved, boundProves } from "./solved";
 import type { Target } from "./target";
@@ -15,7 +16,7 @@ import { type CostModel, LimitError, plainDuration } from "./types";
 import { complement } from "./unate";
 
 /** Heuristic route: a prime and irredundant cover per output, identical terms shared, proven bound. */
-export function heuristicAll(n: number, targets: Target[], model: CostModel, deadline: number, limit: number): Solved {
+export function heuristicAll(n: number, targets: Target[], model: CostModel, deadline: number, limit: number, progress?: Reporter): Solved {
   const covers: Cube[][] = [];
   for (const t of targets) {
     try {
@@ -99,10 +100,12 @@ export function heuristicAll(n: number, targets: Target[], model: CostModel, dea
       break;
   }
   const cost = costOfCovers(model, covers);
+  progress?.update({ cost });
   design = Math.min(cost, Math.max(design, ...perOutput));
   // When every ON point is isolated, its minterm is the one cover there is (a parity function's): minimum under any model.
   const forced = iso !== null && targets.every((t, j) => iso.perOutput[j] === t.on.length && t.on.every((c) => c.mask === full));
   const exact = forced || boundProves(model, cost, design);
+  progress?.update({ lowerBound: exact ? cost : design }, true);
   return { covers, cost, exact, designBound: exact ? cost : design, outputBounds: exact && targets.length === 1 ? [cost] : perOutput, primes: -1, route: "heuristic" };
 }
 

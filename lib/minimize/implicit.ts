@@ -17,7 +17,7 @@ import type { Cube } from "../logic";
 import { fullMask, popcount, tableAddCube } from "../logic";
 import { boundFromSurrogate, columnWeight, designCost } from "./cost";
 import { rowColumns } from "./cover";
-import { lexicographicCover } from "./exact";
+import { lexicographicCover } from "./lexicographic";
 import type { CoveringProblem, ExactSettings } from "./problem";
 import type { TaggedPrime } from "./primes";
 import type { Solved } from "./solved";
@@ -126,6 +126,8 @@ export function implicitCover(
   complete: boolean,
 ): Solved {
   const k = targets.length;
+  const live = targets.filter((t) => t.on.length > 0).length;
+  settings.progress?.update({ primes: primes.length });
   const weight = primes.map((p) => columnWeight(model, popcount(p.mask)));
   const colRows: number[][] = primes.map(() => []);
   const seen = new Set<number>();
@@ -178,10 +180,13 @@ export function implicitCover(
       weight,
       rowCount,
     };
-    const sol = lexicographicCover(prob, model, settings, rowColumns(prob.colRows, rowCount));
+    // A cover of some rows covers nothing yet; a bound over them is the design's when the primes are all.
+    const report = complete && settings.progress ? { progress: settings.progress, live, covers: false } : undefined;
+    const sol = lexicographicCover(prob, model, settings, rowColumns(prob.colRows, rowCount), report);
     chosen = sol.chosen;
     // A minimum over some rows bounds the minimum over all of them.
     lowerBound = Math.max(lowerBound, sol.lowerBound);
+    if (complete) settings.progress?.update({ lowerBound: boundFromSurrogate(model, lowerBound, live) });
     exactRounds = sol.exact;
     const added = missedBy(chosen);
     if (added === 0) {
@@ -220,8 +225,10 @@ export function implicitCover(
   const distinct = new Map<string, number>();
   for (const cv of covers) for (const c of cv) distinct.set(`${c.value}/${c.mask}`, popcount(c.mask));
   const cost = designCost(model, [...distinct.values()], covers.map((c) => c.length));
-  const live = targets.filter((t) => t.on.length > 0).length;
-  const bound = Math.min(cost, boundFromSurrogate(model, lowerBound, live));
+  // Over some of the primes only (several outputs above the tables: no primes of their products), a minimum
+  // bounds nothing: a shared term outside them may serve several outputs at once.
+  const bound = complete ? Math.min(cost, boundFromSurrogate(model, lowerBound, live)) : 0;
+  settings.progress?.update({ cost, lowerBound: bound }, true);
   return {
     covers,
     cost,

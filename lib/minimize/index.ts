@@ -20,13 +20,14 @@ import { exactRoute } from "./exact";
 import { formatCover } from "./expression";
 import { cubeSpace, implicitCover, widePrimes } from "./implicit";
 import { canonicalOrder, literalsOf } from "./order";
+import { Reporter } from "./progress";
 import { ExactLimit } from "./primes";
 import { costOfCovers, sharedTerms } from "./share";
 import { type Solved, boundProves } from "./solved";
 import { buildTargets } from "./target";
 import { DEFAULTS, LimitError, type MinimizeOptions, type MinimizeResult, type MinimizedOutput } from "./types";
 
-export type { CostModel, MinimizeOptions, MinimizeResult, MinimizedOutput } from "./types";
+export type { CostModel, MinimizeOptions, MinimizeProgress, MinimizeResult, MinimizedOutput } from "./types";
 export { DEFAULTS, LimitError } from "./types";
 export { formatCover } from "./expression";
 export { coveringProblem, type CoveringProblem } from "./problem";
@@ -55,56 +56,50 @@ export function minimize(spec: FunctionSpec, options: MinimizeOptions = {}): Min
     );
   }
   const deadline = t0 + timeLimitMs;
+  const progress = new Reporter(options.onProgress);
   // Value bits outside a cube's mask are no literals (lib/logic's cube definition); drop them once here.
   const clean = (cs: Cube[]): Cube[] => (cs.some((c) => (c.value & ~c.mask) !== 0) ? cs.map((c) => ({ value: (c.value & c.mask) >>> 0, mask: c.mask })) : cs);
   spec = { ...spec, outputs: spec.outputs.map((o) => ({ ...o, on: clean(o.on), dc: clean(o.dc) })) };
   const targets = buildTargets(spec, form);
   let solved: Solved | null = null;
+  /** A route cut short: the heuristic's cover when it is cheaper, and the higher of the two bounds either way. */
+  const orHeuristic = (s: Solved): Solved => {
+    if (s.exact || Date.now() >= deadline) return s;
+    let h: Solved | null = null;
+    try {
+      h = heuristicAll(n, targets, model, deadline, timeLimitMs, progress);
+    } catch (e) {
+      if (!(e instanceof LimitError)) throw e;
+    }
+    if (!h) return s;
+    const out = h.cost < s.cost ? { ...h, primes: s.primes } : { ...s };
+    out.designBound = Math.max(h.designBound, s.designBound);
+    out.exact = out.exact || boundProves(model, out.cost, out.designBound);
+    return out;
+  };
   const exactPossible = !options.heuristic && n <= TRUTH_TABLE_MAX_INPUTS && targets.length > 0;
   if (exactPossible) {
     // The exact route may use about 60 % of the budget for its primes and 85 % for its covers; the
     // heuristic keeps the rest (all of it when the exact route gives way).
-    const limits = { maxPrimes, maxImplicants: DEFAULTS.maxImplicants, deadline: t0 + timeLimitMs * 0.6, coverDeadline: t0 + timeLimitMs * 0.85 };
+    const limits = { maxPrimes, maxImplicants: DEFAULTS.maxImplicants, deadline: t0 + timeLimitMs * 0.6, coverDeadline: t0 + timeLimitMs * 0.85, progress };
     try {
       solved = exactRoute(n, targets, model, limits);
     } catch (e) {
       if (!(e instanceof ExactLimit)) throw e;
       solved = null;
     }
-    // A search cut short keeps its cover only if the heuristic does not beat it.
-    if (solved && !solved.exact && Date.now() < deadline) {
-      let h: Solved | null = null;
-      try {
-        h = heuristicAll(n, targets, model, deadline, timeLimitMs);
-      } catch (e) {
-        if (!(e instanceof LimitError)) throw e;
-      }
-      if (h && h.cost < solved.cost) {
-        solved = { ...h, designBound: Math.max(h.designBound, solved.designBound), primes: solved.primes };
-      }
-      solved.exact = boundProves(model, solved.cost, solved.designBound);
-    }
+    if (solved) solved = orHeuristic(solved);
   }
   if (!options.heuristic && n > TRUTH_TABLE_MAX_INPUTS && targets.length > 0 && targets.length <= DEFAULTS.maxSharedOutputs) {
     // Above the truth tables, functions with few primes are covered exactly with rows made on demand
     // (./implicit): within 60 % of the time for the primes, 85 % for the covers, like the exact route.
     const primes = widePrimes(targets, n, maxPrimes, timeLimitMs * 0.2 * 1e6);
     if (primes) {
-      const limits = { maxPrimes, maxImplicants: DEFAULTS.maxImplicants, deadline: t0 + timeLimitMs * 0.6, coverDeadline: t0 + timeLimitMs * 0.85 };
-      solved = implicitCover(n, targets, model, primes, cubeSpace(targets, n), limits, targets.length === 1);
-      if (!solved.exact && Date.now() < deadline) {
-        let h: Solved | null = null;
-        try {
-          h = heuristicAll(n, targets, model, deadline, timeLimitMs);
-        } catch (e) {
-          if (!(e instanceof LimitError)) throw e;
-        }
-        if (h && h.cost < solved.cost) solved = { ...h, designBound: Math.max(h.designBound, solved.designBound), primes: solved.primes };
-        solved.exact = solved.exact || boundProves(model, solved.cost, solved.designBound);
-      }
+      const limits = { maxPrimes, maxImplicants: DEFAULTS.maxImplicants, deadline: t0 + timeLimitMs * 0.6, coverDeadline: t0 + timeLimitMs * 0.85, progress };
+      solved = orHeuristic(implicitCover(n, targets, model, primes, cubeSpace(targets, n), limits, targets.length === 1));
     }
   }
-  solved ??= heuristicAll(n, targets, model, deadline, timeLimitMs);
+  solved ??= heuristicAll(n, targets, model, deadline, timeLimitMs, progress);
 
   // Canonical order: fewer literals first, then by the earliest declared inputs.
   const outCubes = solved.covers.map((cv) => canonicalOrder(cv, n, form === "pos"));
@@ -116,6 +111,7 @@ export function minimize(spec: FunctionSpec, options: MinimizeOptions = {}): Min
   }
   const shared = sharedTerms(solved.covers);
   const cost = solved.cost;
+  progress.update({ cost, lowerBound: solved.designBound }, true);
   const outputs: MinimizedOutput[] = spec.outputs.map((o, j) => {
     const cubes = outCubes[j]!;
     const own = solved.covers.length === 1 ? cost : costOfCovers(model, [solved.covers[j]!]);

@@ -10,6 +10,7 @@ import { LOW_VARIABLE_WORDS, fullMask, popcount, tableMinterms } from "../logic"
 import { columnWeight } from "./cost";
 import type { CoverTuning } from "./cover";
 import { DENSE_MAX_INPUTS, ExactLimit, compactCover, coverTaggedPrimes, denseTaggedPrimes, taggedPrimes, type TaggedPrime } from "./primes";
+import type { Reporter } from "./progress";
 import { buildTargets, type Target } from "./target";
 import { type CostModel, DEFAULTS } from "./types";
 import { OverBudget, WorkBudget } from "./unate";
@@ -23,6 +24,8 @@ export interface ExactSettings {
   coverDeadline?: number;
   /** Settings of the cover searches; default DEFAULT_TUNING of ./cover. */
   tuning?: CoverTuning;
+  /** Where the route reports what it finds (primes, covers, bounds); default nowhere. */
+  progress?: Reporter;
 }
 
 /** The covering problem of the exact route: rows (output, ON minterm), columns multi-output primes. */

@@ -27,6 +27,21 @@ export interface MinimizeOptions {
   maxPrimes?: number;
   /** Wall-clock budget of one run in milliseconds. Default 10 000. */
   timeLimitMs?: number;
+  /**
+   * Called as the run goes on with where it stands (see {@link MinimizeProgress}):
+   * at most about twice a second, and as each route ends. Default none.
+   */
+  onProgress?: (p: MinimizeProgress) => void;
+}
+
+/** Where a run stands; each field appears once known. */
+export interface MinimizeProgress {
+  /** Multi-output prime implicants found (the exact route and rows on demand). */
+  primes?: number;
+  /** Cost of the best cover of the whole design found so far, under the cost model. */
+  cost?: number;
+  /** Proven lower bound on the design's cost under the cost model; the minimum when it meets `cost`. */
+  lowerBound?: number;
 }
 
 /** Defaults of {@link MinimizeOptions}. */

@@ -58,6 +58,12 @@ export interface CoverProblem {
   tuning?: CoverTuning;
   /** Where node LPs take their basis inverses from; searches of one problem may share one. Default: a pool of this search's own. */
   pool?: BufferPool;
+  /**
+   * Called now and then during the branch-and-bound (every 64 nodes) with the
+   * incumbent's weight and the bound proven at the root, once there is an
+   * incumbent. Default none.
+   */
+  onProgress?: (weight: number, lowerBound: number) => void;
 }
 
 /** Valid inequalities over the problem's columns, with the problem and root reductions they assume. */
@@ -186,6 +192,10 @@ export function solveCover(p: CoverProblem): CoverSolution {
         taken: rootTaken.map((c) => coreIndex[c]!).sort((a, b) => a - b),
       };
     }
+  }
+  if (p.onProgress) {
+    const report = p.onProgress;
+    bb.onProgress = (w, lb) => report(base + w, base + lb);
   }
   if (p.incumbent) {
     const mapped = p.incumbent.filter(inCoreCol).map((c) => coreIndex[c]!);

@@ -29,6 +29,7 @@ export function run(s: Search): { chosen: number[]; weight: number; lowerBound: 
   for (let c = 0; c < core.cols.length; c++) colsA[c >>> 5]! |= 1 << (c & 31);
   // A root-only search takes its incumbent from the LP's rounding.
   if (s.card < 0 && !s.rootOnly) greedy(s, rowsA, colsA);
+  s.report();
   const u = new Float64Array(core.R + 1);
   for (let r = 0; r < core.R; r++) u[r] = Infinity;
   // Start the budget multiplier where the combined products-then-literals weight would put it.
@@ -45,6 +46,8 @@ export function run(s: Search): { chosen: number[]; weight: number; lowerBound: 
       improveIncumbent(s, rowsA, colsA, 0, [], target, s.tuning.localStepsPerRow * core.R, Date.now() + share, lag.rc);
     }
     const lb = Math.min(s.best, Math.max(independentRows(s.core, rowsA, colsA).lb, Math.ceil(lag.lb - 1e-6)));
+    s.rootBound = Math.max(s.rootBound, lb);
+    s.report();
     return { chosen: s.bestChosen, weight: s.best, lowerBound: lb, exact: lb === s.best };
   }
   search(s, rowsA, colsA, 0, [], u, 0);
@@ -60,9 +63,12 @@ export function run(s: Search): { chosen: number[]; weight: number; lowerBound: 
 export function search(s: Search, rowsA: Uint32Array, colsA: Uint32Array, cost: number, chosen: number[], u: Float64Array, depth: number): void {
   const core = s.core;
   if (s.aborted) return;
-  if ((++s.nodes & 63) === 0 && Date.now() > s.deadline) {
-    s.aborted = true;
-    return;
+  if ((++s.nodes & 63) === 0) {
+    if (Date.now() > s.deadline) {
+      s.aborted = true;
+      return;
+    }
+    s.report();
   }
   const picked: number[] = [];
   const add = reduce(s, rowsA, colsA, picked, depth === 0 ? 3 : s.tuning.nodeDominance);
@@ -141,13 +147,17 @@ export function search(s: Search, rowsA: Uint32Array, colsA: Uint32Array, cost: 
   }
   if (lpFix && !(lpFix.lb > lag.lb)) lpFix = null;
   const lbBest = lpFix ? lpFix.lb : lag.lb;
-  if (depth === 0) s.rootBound = Math.max(s.rootBound, cost + lb, cost + Math.ceil(lbBest - 1e-6));
+  if (depth === 0) {
+    s.rootBound = Math.max(s.rootBound, cost + lb, cost + Math.ceil(lbBest - 1e-6));
+    s.report();
+  }
   if (depth <= s.tuning.heurDepth) {
     roundCover(s, rowsA, colsA, lag.rc, lag.liveCols, cost, here);
     const target = cost + Math.ceil(lbBest - 1e-6);
     if (depth === 0 && s.card < 0 && target < s.best && s.unicost && members(rowsA).length >= s.tuning.localMinRows) {
       const share = Math.max(0, s.deadline - Date.now()) * s.tuning.localTimeShare;
       improveIncumbent(s, rowsA, colsA, cost, here, target - cost, s.tuning.localStepsPerRow * members(rowsA).length, Date.now() + share, lag.rc);
+      s.report();
     }
     if (cost + Math.ceil(lbBest - 1e-6) >= s.best) return;
   }

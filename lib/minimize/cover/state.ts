@@ -30,6 +30,8 @@ export class Search {
   cutsIn: CorePool | null = null;
   /** Best bound proven at the root of the search (kept for a search cut short). */
   rootBound = -Infinity;
+  /** Where the search reports its incumbent's weight and root bound now and then (see CoverProblem.onProgress). */
+  onProgress: ((weight: number, lowerBound: number) => void) | null = null;
 
   /** Scratch of the Lagrangian steps: live rows of the live columns (CSR), reduced costs, subgradient. */
   csr = new Int32Array(0);
@@ -69,6 +71,11 @@ export class Search {
     this.dirtyRow = new Uint8Array(R);
     this.dirtyCol = new Uint8Array(C);
     this.unicost = core.w.every((x) => x === core.w[0]);
+  }
+
+  /** Passes the incumbent and the root's bound to onProgress, once there is an incumbent. */
+  report(): void {
+    if (this.onProgress && this.best < Infinity) this.onProgress(this.best, Math.min(this.best, Math.max(0, this.rootBound)));
   }
 
   /** Offers a known cover of the core as incumbent. */
