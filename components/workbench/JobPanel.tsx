@@ -9,6 +9,7 @@ export interface JobInfo {
   stage: string | null;
   cost: number | null;
   lowerBound: number | null;
+  primes: number | null;
   error: { message: string; hint?: string } | null;
   attempt: number;
   result: CompileResultBody | null;
@@ -23,8 +24,8 @@ const STAGE_WORDS: Record<string, string> = {
 
 /**
  * A compile running to the end on a job worker: where it stands (stage, the
- * best cost so far against the proven lower bound, as a bar that fills as the
- * gap closes), a Cancel, and the result once it is done.
+ * primes found, the best cost so far against the proven lower bound, as a bar
+ * that fills as the gap closes), a Cancel, and the result once it is done.
  */
 export function JobPanel({ ws, jobId, onDone, onClose }: {
   ws: string;
@@ -63,6 +64,9 @@ export function JobPanel({ ws, jobId, onDone, onClose }: {
           )}
         </span>
       </div>
+      {job?.cost == null && job?.primes != null && (
+        <p className="mt-1 font-mono text-xs text-graphite tabular" data-testid="job-primes">{job.primes} prime implicants found · looking for a cover</p>
+      )}
       {job?.cost != null && (
         <div className="mt-2">
           <div className="h-2 overflow-hidden rounded bg-rule/60" role="progressbar" aria-valuemin={0} aria-valuemax={job.cost} aria-valuenow={job.lowerBound ?? 0}
@@ -70,7 +74,8 @@ export function JobPanel({ ws, jobId, onDone, onClose }: {
             <div className="h-full bg-accent transition-all" style={{ width: `${filled * 100}%` }} />
           </div>
           <p className="mt-1 font-mono text-xs text-graphite tabular">
-            best cost {job.cost} · proven lower bound {job.lowerBound ?? "—"}{gap !== null ? (gap === 0 ? " · proven minimum" : ` · at most ${gap} above the minimum`) : ""}
+            {job.primes != null ? `${job.primes} prime implicants · ` : ""}best cost {job.cost} · proven lower bound {job.lowerBound ?? "—"}
+            {gap !== null ? (gap === 0 ? " · proven minimum" : ` · at most ${gap} above the minimum`) : ""}
           </p>
         </div>
       )}

@@ -153,6 +153,7 @@ const Job = z.object({
   stage: z.string().nullable().describe("minimize, map, analyse or export"),
   cost: z.number().nullable().describe("cost of the best cover so far"),
   lowerBound: z.number().nullable().describe("proven lower bound on the cost"),
+  primes: z.number().nullable().describe("prime implicants found so far; null until known, and on the heuristic alone"),
   error: z.object({ code: z.string(), message: z.string(), what: z.string().optional(), hint: z.string().optional() }).nullable(),
   attempt: z.number().describe("workers that have taken it; above 1 when a worker stopped and another took over"),
   designId: z.string().nullable(),

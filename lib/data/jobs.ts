@@ -26,6 +26,8 @@ export interface JobView {
   /** Cost of the best cover found so far, and its proven lower bound (the gap closes as the run goes on). */
   cost: number | null;
   lowerBound: number | null;
+  /** Prime implicants the minimizer found, once known (none on the heuristic alone). */
+  primes: number | null;
   error: PipelineError | null;
   attempt: number;
   designId: string | null;
@@ -42,6 +44,7 @@ interface Row {
   stage: string | null;
   cost: number | null;
   lower_bound: number | null;
+  primes: number | null;
   error: PipelineError | null;
   attempt: number;
   design_id: string | null;
@@ -52,7 +55,7 @@ interface Row {
   finished_at: Date | null;
 }
 
-const SELECT = `SELECT j.id, j.status, j.stage, j.cost, j.lower_bound, j.error, j.attempt, j.design_id, j.user_id, u.name AS user_name,
+const SELECT = `SELECT j.id, j.status, j.stage, j.cost, j.lower_bound, j.primes, j.error, j.attempt, j.design_id, j.user_id, u.name AS user_name,
                        j.key, j.created_at, j.finished_at
                 FROM compile_jobs j JOIN users u ON u.id = j.user_id`;
 
@@ -64,6 +67,7 @@ async function view(r: Row, withResult: boolean): Promise<JobView> {
     stage: r.stage,
     cost: r.cost,
     lowerBound: r.lower_bound,
+    primes: r.primes,
     error: r.error,
     attempt: r.attempt,
     designId: r.design_id,
@@ -111,11 +115,12 @@ export async function createJob(p: {
   const kept = await cachedResult(key);
   const settled = kept && (kept.covers.exact || job.settings.heuristic);
   const rows = await db().sequelize.query<{ id: string }>(
-    `INSERT INTO compile_jobs (workspace_id, design_id, user_id, key, input, status, stage, cost, lower_bound, finished_at, created_at, updated_at)
-     VALUES ($1, $2, $3, $4, $5::jsonb, $6, $7, $8, $9, $10, now(), now()) RETURNING id`,
+    `INSERT INTO compile_jobs (workspace_id, design_id, user_id, key, input, status, stage, cost, lower_bound, primes, finished_at, created_at, updated_at)
+     VALUES ($1, $2, $3, $4, $5::jsonb, $6, $7, $8, $9, $10, $11, now(), now()) RETURNING id`,
     {
       bind: [workspace.id, p.designId ?? null, p.actor!.userId, key, JSON.stringify(job), settled ? "done" : "queued",
-        settled ? "export" : null, settled ? kept.covers.cost : null, settled ? kept.covers.lowerBound : null, settled ? new Date() : null],
+        settled ? "export" : null, settled ? kept.covers.cost : null, settled ? kept.covers.lowerBound : null,
+        settled && kept.covers.primes >= 0 ? kept.covers.primes : null, settled ? new Date() : null],
       type: QueryTypes.SELECT,
     },
   );

@@ -5,7 +5,7 @@
  * all a compile worker thread loads: no parser, no layout engine.
  */
 import type { FunctionSpec } from "../logic/index";
-import { LimitError, minimize, type MinimizeOptions, type MinimizeResult } from "../minimize/index";
+import { LimitError, minimize, type MinimizeOptions, type MinimizeProgress, type MinimizeResult } from "../minimize/index";
 import type { Family } from "../families/index";
 import { mapCovers, MapError, type MapResult, type VerifyResult, type Netlist } from "../map/index";
 import { analyse, type Analysis } from "../analysis/index";
@@ -61,6 +61,8 @@ export type StageOutcome = { ok: true; result: CompileResult } | { ok: false; er
 export interface Progress {
   /** "map" includes the proof that the netlist equals the specification. */
   stage: "minimize" | "map" | "analyse" | "export";
+  /** Multi-output prime implicants found, once known (the minimizer's exact route). */
+  primes?: number;
   /** Cost of the best cover so far and its proven lower bound, once known. */
   cost?: number;
   lowerBound?: number;
@@ -97,12 +99,18 @@ export function runStages(job: StageJob, onProgress?: (p: Progress) => void): St
   let covers: MinimizeResult;
   onProgress?.({ stage: "minimize" });
   try {
-    covers = minimize(spec, { ...minimizeOptionsFor(settings, family), ...(job.minimizeMs !== undefined ? { timeLimitMs: job.minimizeMs } : {}) });
+    covers = minimize(spec, {
+      ...minimizeOptionsFor(settings, family),
+      ...(job.minimizeMs !== undefined ? { timeLimitMs: job.minimizeMs } : {}),
+      ...(onProgress ? { onProgress: (p: MinimizeProgress) => onProgress({ stage: "minimize", ...p }) } : {}),
+    });
   } catch (e) {
     if (e instanceof LimitError) return { ok: false, error: limitError(e) };
     throw e;
   }
-  onProgress?.({ stage: "map", cost: covers.cost, lowerBound: covers.lowerBound });
+  // The heuristic alone lists no primes (-1).
+  const figures = { ...(covers.primes >= 0 ? { primes: covers.primes } : {}), cost: covers.cost, lowerBound: covers.lowerBound };
+  onProgress?.({ stage: "map", ...figures });
   let mapped: MapResult;
   try {
     mapped = mapCovers(covers, family, {
@@ -117,7 +125,7 @@ export function runStages(job: StageJob, onProgress?: (p: Progress) => void): St
     if (e instanceof MapError) return { ok: false, error: { code: "mapping", message: e.message } };
     throw e;
   }
-  onProgress?.({ stage: "analyse", cost: covers.cost, lowerBound: covers.lowerBound });
+  onProgress?.({ stage: "analyse", ...figures });
   const analysis = analyse(mapped.netlist, mapped.family, {
     fanOut: mapped.fanOut,
     outputPinLoad: mapped.outputPinLoad,
@@ -127,7 +135,7 @@ export function runStages(job: StageJob, onProgress?: (p: Progress) => void): St
   });
   const warnings = [...mapped.warnings, ...(job.boundary?.warnings ?? []), ...analysis.warnings];
   const document = toJsonDocument(mapped.netlist, analysis, warnings);
-  onProgress?.({ stage: "export", cost: covers.cost, lowerBound: covers.lowerBound });
+  onProgress?.({ stage: "export", ...figures });
   const header = [`Fanbound netlist, family ${family.name} (${family.id}), form ${mapped.form}`];
   const exports: Partial<Record<ExportFormat, string>> = {};
   for (const f of job.exports) {

@@ -86,15 +86,16 @@ export async function runJob(jobId: string, pool: CompilePool, worker = workerNa
     if (now - lastReport < 500 && p.stage === "minimize") return;
     lastReport = now;
     void sequelize.query(
-      `UPDATE compile_jobs SET stage = $4, cost = $5, lower_bound = $6, updated_at = now() WHERE ${mine}`,
-      { bind: [job.id, worker, job.attempt, p.stage, p.cost ?? null, p.lowerBound ?? null], type: QueryTypes.UPDATE },
+      `UPDATE compile_jobs SET stage = $4, cost = $5, lower_bound = $6, primes = $7, updated_at = now() WHERE ${mine}`,
+      { bind: [job.id, worker, job.attempt, p.stage, p.cost ?? null, p.lowerBound ?? null, p.primes ?? null], type: QueryTypes.UPDATE },
     ).catch(() => {});
   };
   try {
     const out = await pool.executor(`job:${job.user_id}`, JOB_BUDGET_MS)(job.input, { signal: ctl.signal, onProgress });
     if (out.ok) {
       await keepResult(job.key, `ws:${job.workspace_id}`, out.result);
-      await finish(job, worker, "done", null, out.result.covers.cost, out.result.covers.lowerBound);
+      const { cost, lowerBound, primes } = out.result.covers;
+      await finish(job, worker, "done", null, { cost, lowerBound, primes: primes >= 0 ? primes : null });
       return "done";
     }
     const status = out.error.code === "cancelled" ? "cancelled" : "failed";
@@ -108,12 +109,15 @@ export async function runJob(jobId: string, pool: CompilePool, worker = workerNa
   }
 }
 
-async function finish(job: JobRow, worker: string, status: string, error: PipelineError | null, cost?: number, lowerBound?: number) {
+async function finish(job: JobRow, worker: string, status: string, error: PipelineError | null, figures?: { cost: number; lowerBound: number; primes: number | null }) {
   await db().sequelize.query(
     `UPDATE compile_jobs SET status = $4, error = $5::jsonb, finished_at = now(), updated_at = now(),
-            cost = COALESCE($6, cost), lower_bound = COALESCE($7, lower_bound)
+            cost = COALESCE($6, cost), lower_bound = COALESCE($7, lower_bound), primes = COALESCE($8, primes)
      WHERE id = $1 AND worker = $2 AND attempt = $3`,
-    { bind: [job.id, worker, job.attempt, status, error ? JSON.stringify(error) : null, cost ?? null, lowerBound ?? null], type: QueryTypes.UPDATE },
+    {
+      bind: [job.id, worker, job.attempt, status, error ? JSON.stringify(error) : null, figures?.cost ?? null, figures?.lowerBound ?? null, figures?.primes ?? null],
+      type: QueryTypes.UPDATE,
+    },
   );
 }
 

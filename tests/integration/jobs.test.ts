@@ -12,6 +12,8 @@ import { resetLimits } from "@/lib/api/rate-limit";
 import { compileNow } from "@/lib/pipeline";
 import { BUILT_IN_FAMILIES } from "@/lib/families";
 import { paritySource } from "@/lib/bench/sources";
+import { randomCase } from "@/lib/bench/cases";
+import type { FunctionSpec } from "@/lib/logic";
 import { builtinFamily, call, makeUser, makeWorkspace, tag, type TestUser } from "./helpers";
 
 const workers: ChildProcess[] = [];
@@ -19,6 +21,40 @@ function startWorker(): ChildProcess {
   const w = spawn(process.execPath, [".build/jobs-worker.mjs"], { env: process.env, stdio: ["ignore", "ignore", "inherit"] });
   workers.push(w);
   return w;
+}
+
+/**
+ * Prime implicants of a one-output function's ON ∪ DC set, from the definition (common practice, no source):
+ * every cube of the 3^n, written in ternary (digit i: input i at 0, 1, or free), is an implicant when both its
+ * halves on its first free input are; a prime is an implicant that stays one with no fixed input freed.
+ */
+function primeCount(spec: FunctionSpec): number {
+  const n = spec.inputs.length;
+  const care = new Uint8Array(2 ** n);
+  for (const c of [...spec.outputs[0]!.on, ...spec.outputs[0]!.dc]) care[c.value] = 1;
+  const p3 = Array.from({ length: n + 1 }, (_, i) => 3 ** i);
+  const implicant = new Uint8Array(p3[n]!);
+  for (let t = 0; t < p3[n]!; t++) {
+    let m = 0;
+    let free = -1;
+    for (let i = 0, x = t; i < n; i++, x = Math.floor(x / 3)) {
+      const d = x % 3;
+      if (d === 2) free = free < 0 ? i : free;
+      else if (d === 1) m |= 1 << (n - 1 - i);
+    }
+    implicant[t] = free < 0 ? care[m]! : implicant[t - 2 * p3[free]!]! & implicant[t - p3[free]!]!;
+  }
+  let count = 0;
+  for (let t = 0; t < p3[n]!; t++) {
+    if (!implicant[t]) continue;
+    let prime = true;
+    for (let i = 0, x = t; i < n && prime; i++, x = Math.floor(x / 3)) {
+      const d = x % 3;
+      if (d !== 2 && implicant[t + (2 - d) * p3[i]!]) prime = false;
+    }
+    if (prime) count++;
+  }
+  return count;
 }
 
 let owner: TestUser;
@@ -92,6 +128,26 @@ describe("compile jobs", () => {
     await until(r.json.job.id, (j) => j.status !== "queued");
     const c = await call(jobRoute.DELETE, "DELETE", "/job", { token: owner.token, params: { ws: ws.slug, jobId: r.json.job.id } });
     expect(c.status).toBe(200);
+    const end = await until(r.json.job.id, (j) => j.status !== "running" && j.status !== "queued", 60);
+    expect(end.status).toBe("cancelled");
+  });
+
+  it("reports the primes, the best cost and the proven bound while it minimizes", async () => {
+    startWorker();
+    // A random 12-input function (the bench's seed 1): thousands of primes, and a cover search that runs far
+    // longer than this test waits; its minimum is not known, so the test stops it once it has reported.
+    const { spec } = randomCase(12, 1);
+    const idx = (cs: { value: number }[]) => cs.map((c) => c.value).join(", ");
+    const o = spec.outputs[0]!;
+    const text = `inputs ${spec.inputs.join(", ")}\noutputs f\nf = on(${idx(o.on)}) dc(${idx(o.dc)})\n// ${tag()}\n`;
+    const r = await file(text);
+    const seen = await until(r.json.job.id, (j) => j.status === "running" && j.primes !== null && j.cost !== null && j.lowerBound !== null);
+    // Reference: the test's own count of the primes (every cube of the ON ∪ DC set that no larger one holds).
+    expect(seen.primes).toBe(primeCount(spec));
+    expect(seen.stage).toBe("minimize");
+    expect(seen.lowerBound as number).toBeLessThanOrEqual(seen.cost as number);
+    expect(seen.lowerBound as number).toBeGreaterThan(0);
+    await call(jobRoute.DELETE, "DELETE", "/job", { token: owner.token, params: { ws: ws.slug, jobId: r.json.job.id } });
     const end = await until(r.json.job.id, (j) => j.status !== "running" && j.status !== "queued", 60);
     expect(end.status).toBe("cancelled");
   });

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { readFileSync } from "node:fs";
-import { cancelledError, compile, compileNow, designSettingsSchema, resolveSettings, runInThread, type Executor } from "../../lib/pipeline/index";
+import { cancelledError, compile, compileNow, designSettingsSchema, resolveSettings, runInThread, type Executor, type Progress } from "../../lib/pipeline/index";
 import { BUILT_IN_FAMILIES, type Family } from "../../lib/families/index";
 
 const LAMPS = readFileSync("lib/lang/examples/status-lamps.fnb", "utf8");
@@ -75,9 +75,16 @@ describe("compile (the pipeline on an executor)", () => {
     ctl.abort(Object.assign(new Error("timeout"), { name: "TimeoutError", budgetMs: 10_000 }));
     expect(cancelledError(ctl.signal)).toMatchObject({ code: "limit", what: "time limit of 10 s" });
   });
-  it("reports progress by stage", async () => {
-    const stages: string[] = [];
-    await compile({ source: LAMPS, family: family("ttl-std-5v") }, runInThread, { onProgress: (p) => stages.push(p.stage) });
+  it("reports progress by stage, with the minimizer's primes, cost and bound while it runs", async () => {
+    const seen: Progress[] = [];
+    const r = await compile({ source: LAMPS, family: family("ttl-std-5v") }, runInThread, { onProgress: (p) => seen.push(p) });
+    const stages = seen.map((p) => p.stage).filter((s, i, all) => i === 0 || all[i - 1] !== s);
     expect(stages).toEqual(["minimize", "map", "analyse", "export"]);
+    const covers = r.result!.covers;
+    // Within the minimize stage: the primes once listed, then the cover found and its bound.
+    const minimizing = seen.filter((p) => p.stage === "minimize");
+    expect(minimizing.some((p) => p.primes === covers.primes && p.cost === undefined)).toBe(true);
+    expect(minimizing.at(-1)).toEqual({ stage: "minimize", primes: covers.primes, cost: covers.cost, lowerBound: covers.lowerBound });
+    expect(seen.at(-1)).toEqual({ stage: "export", primes: covers.primes, cost: covers.cost, lowerBound: covers.lowerBound });
   });
 });
