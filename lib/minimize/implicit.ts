@@ -12,18 +12,27 @@
  * function; a run cut short keeps the bound of its last complete search,
  * and its last cover completed by the primes that reach the points it
  * misses.
+ *
+ * When the minimum holds for a few rounds while rows are added, a cover of
+ * that size likely exists, and searching from scratch each round finds one
+ * slowly (a wide "not all equal" function's minimum is a ring of arrows
+ * i → j; each round's search finds rings that fall apart into several, a new
+ * way each time). A local search then moves the last cover, as many columns
+ * at a time, to cover the new rows, and asks again: it mends one ring after
+ * another within a few rounds.
  */
 import type { Cube } from "../logic";
 import { fullMask, popcount, tableAddCube } from "../logic";
 import { boundFromSurrogate, columnWeight, designCost } from "./cost";
 import { rowColumns } from "./cover";
+import { unicostLocalSearch } from "./cover/local";
 import { lexicographicCover } from "./lexicographic";
 import type { CoveringProblem, ExactSettings } from "./problem";
 import type { TaggedPrime } from "./primes";
 import type { Solved } from "./solved";
 import type { Target } from "./target";
 import type { CostModel } from "./types";
-import { OverBudget, WorkBudget, cofactorCube, primesOfCover, tautology } from "./unate";
+import { OverBudget, WorkBudget, cofactorCube, complement, primesOfCover, tautology } from "./unate";
 
 /** Where the ON points are: which points of an output a set of cubes misses. */
 export interface PointSpace {
@@ -81,7 +90,35 @@ export function cubeSpace(targets: Target[], n: number): PointSpace {
     missed(j, cubes, k) {
       const on = targets[j]!.on;
       const out: number[] = [];
+      const offer = (m: number) => {
+        if (!out.includes(m)) out.push(m);
+      };
       const step = Math.max(1, Math.floor(on.length / k));
+      // What the cubes miss, as cubes, when that is cheap to work out: a cover near the function's misses
+      // little. Each ON cube's part of it offers two corners, its free inputs at 0 and at 1.
+      let holes: Cube[] | null = null;
+      try {
+        holes = complement(cubes, full, new WorkBudget(HOLE_WORK));
+      } catch (e) {
+        if (!(e instanceof OverBudget)) throw e;
+      }
+      if (holes) {
+        for (let pass = 0; pass < 2 && out.length < k; pass++) {
+          for (let i = pass; i < on.length && out.length < k; i += pass === 0 ? step : 1) {
+            const o = on[i]!;
+            for (const q of holes) {
+              if (((o.value ^ q.value) & o.mask & q.mask) !== 0) continue;
+              const mask = (o.mask | q.mask) >>> 0;
+              const low = (o.value | q.value) >>> 0;
+              offer(low);
+              offer((low | (full & ~mask)) >>> 0);
+            }
+          }
+        }
+        return out;
+      }
+      // Else each ON cube the cubes do not hold is halved down to a point (a tautology test a half),
+      // keeping a half they do not hold, the one with the free input at 0 first.
       for (let pass = 0; pass < 2 && out.length < k; pass++) {
         for (let i = pass; i < on.length && out.length < k; i += pass === 0 ? step : 1) {
           let o = on[i]!;
@@ -91,7 +128,7 @@ export function cubeSpace(targets: Target[], n: number): PointSpace {
             const low = { value: o.value, mask: (o.mask | bit) >>> 0 };
             o = inside(cubes, low) ? { value: (o.value | bit) >>> 0, mask: (o.mask | bit) >>> 0 } : low;
           }
-          if (!out.includes(o.value)) out.push(o.value);
+          offer(o.value);
         }
       }
       return out;
@@ -106,6 +143,15 @@ export function cubeSpace(targets: Target[], n: number): PointSpace {
     },
   };
 }
+
+/** Work allowed to the complement of a cover (units of ./unate's COST, about a nanosecond). */
+const HOLE_WORK = 500_000_000;
+
+/** The local search of a repair: at most this many steps per row, and this share of the time left. */
+const REPAIR_STEPS_PER_ROW = 20;
+const REPAIR_TIME_SHARE = 0.25;
+/** Rounds the minimum must hold, unchanged, before a repair is tried. */
+const REPAIR_AFTER = 2;
 
 /** Rows added per output at each round, the strongest of OFFERED times as many missed points. */
 const ROWS_PER_ROUND = 24;
@@ -172,6 +218,43 @@ export function implicitCover(
     return added;
   };
   const deadline = settings.coverDeadline ?? settings.deadline;
+  /**
+   * A cover of fewest columns for the rows so far, which misses points (rows by now): a local search
+   * (./cover/local) moves it, as many columns at a time, until it covers every row again, and the function
+   * is asked again what the new cover misses. Returns a cover that misses nothing, or null when the search
+   * finds no cover of the rows of as many columns within its steps or by `until`.
+   */
+  const repair = (start: number[], until: number): number[] | null => {
+    let cover = start;
+    for (let round = 1; Date.now() < until; round++) {
+      const rowCols: number[][] = Array.from({ length: rowCount }, () => []);
+      colRows.forEach((rs, c) => {
+        for (const r of rs) rowCols[r]!.push(c);
+      });
+      // The cover, completed by the first column of each row it misses, is where the search starts.
+      const covered = new Uint8Array(rowCount);
+      for (const c of cover) for (const r of colRows[c]!) covered[r] = 1;
+      const from = cover.slice();
+      for (let r = 0; r < rowCount; r++) {
+        if (covered[r]) continue;
+        const c = rowCols[r]![0]!;
+        from.push(c);
+        for (const q of colRows[c]!) covered[q] = 1;
+      }
+      const found = unicostLocalSearch({ rowCount, colRows, rowCols }, from, {
+        target: cover.length,
+        maxSteps: REPAIR_STEPS_PER_ROW * rowCount,
+        deadline: until,
+        seed: round,
+      });
+      if (found.length > cover.length) return null;
+      cover = found;
+      if (missedBy(cover) === 0) return cover;
+    }
+    return null;
+  };
+  let previous = -1;
+  let held = 0;
   for (;;) {
     const prob: CoveringProblem = {
       primes,
@@ -194,6 +277,21 @@ export function implicitCover(
       break;
     }
     if (!sol.exact || Date.now() > deadline) break;
+    // The minimum held as rows were added: a cover of that many columns is likely to exist, and the local
+    // search looks for one among the rows to come far faster than a search from scratch each round.
+    held = sol.weight === previous ? held + 1 : 0;
+    previous = sol.weight;
+    if (held >= REPAIR_AFTER) {
+      held = 0;
+      const fixed = repair(chosen, Date.now() + (deadline - Date.now()) * REPAIR_TIME_SHARE);
+      if (fixed) {
+        chosen = fixed;
+        solvedAll = true;
+        // Minimum when it weighs what the minimum over the rows does (as many columns may differ in literals).
+        exactRounds = fixed.reduce((a, c) => a + weight[c]!, 0) <= sol.lowerBound;
+        break;
+      }
+    }
   }
   // Cut short: the points the cover misses get, one at a time, the cheapest prime that reaches them.
   const inCover = new Set(chosen);

@@ -60,8 +60,13 @@ function splitBit(F: readonly Cube[], space: number): { bit: number; binate: boo
   return { bit: bestBit, binate };
 }
 
-/** Complement of the union of F within the variables of `space`. */
-export function complement(F: readonly Cube[], space: number): Cube[] {
+/**
+ * Complement of the union of F within the variables of `space`. With a
+ * budget, each call charges COST.cube per cube of its list and throws
+ * {@link OverBudget} when the allowance runs out.
+ */
+export function complement(F: readonly Cube[], space: number, budget?: WorkBudget): Cube[] {
+  budget?.spend(COST.cube * (F.length + 1));
   if (F.length === 0) return [{ value: 0, mask: 0 }];
   for (const c of F) if ((c.mask & space) === 0) return [];
   if (F.length === 1) {
@@ -77,8 +82,8 @@ export function complement(F: readonly Cube[], space: number): Cube[] {
   }
   const { bit } = splitBit(F, space);
   const rest = (space & ~bit) >>> 0;
-  const c1 = complement(cofactorLiteral(F, bit, true), rest);
-  const c0 = complement(cofactorLiteral(F, bit, false), rest);
+  const c1 = complement(cofactorLiteral(F, bit, true), rest, budget);
+  const c0 = complement(cofactorLiteral(F, bit, false), rest, budget);
   // A cube in both halves needs no literal of the split variable. Cubes are keyed by mask, then value:
   // one number of both would pass 2^53 for masks of 23 bits and more, and distinct cubes would collide.
   const in0 = new Map<number, Set<number>>();

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import type { Cube } from "../../lib/logic";
-import { complement } from "../../lib/minimize/unate";
+import { OverBudget, WorkBudget, complement } from "../../lib/minimize/unate";
 import { rng } from "./helpers";
 
 // Reference: the definition of a cube (point m lies in c when ((m ^ value) & mask) === 0) and of the
@@ -55,5 +55,16 @@ describe("unate-recursive complement", () => {
         expect(inside(F, m) !== inside(G, m)).toBe(true);
       }
     }
+  });
+
+  it("with a work budget, gives the same complement or stops with OverBudget", () => {
+    // x0·x1' + x1·x2' + … + x23·x0' over 24 variables: its complement is the two points 0…0 and 1…1
+    // (common practice, no source: a point outside every term has no input at 1 next to one at 0 around the ring).
+    const n = 24;
+    const ring: Cube[] = Array.from({ length: n }, (_, i) => ({ value: 2 ** i, mask: 2 ** i + 2 ** ((i + 1) % n) }));
+    const space = 2 ** n - 1;
+    const G = complement(ring, space, new WorkBudget(1e9));
+    expect(G.map((c) => [c.value, c.mask]).sort((a, b) => a[0]! - b[0]!)).toEqual([[0, space], [space, space]]);
+    expect(() => complement(ring, space, new WorkBudget(1000))).toThrow(OverBudget);
   });
 });
