@@ -51,7 +51,13 @@ export function heuristicAll(n: number, targets: Target[], model: CostModel, dea
       (m) => !(iso && (iso.any[m >>> 5]! >>> (m & 31)) & 1) && !wires.some((c) => ((m ^ c.value) & c.mask) === 0),
     );
     const step = Math.max(1, Math.ceil(pts.length / perOutputCap));
-    for (let i = 0; i < pts.length; i += step) candidates.push({ output: j, minterm: pts[i]! });
+    // Cubes may share a corner: each point once.
+    const taken = new Set<number>();
+    for (let i = 0; i < pts.length; i += step) {
+      if (taken.has(pts[i]!)) continue;
+      taken.add(pts[i]!);
+      candidates.push({ output: j, minterm: pts[i]! });
+    }
   });
   const oracle =
     n <= TRUTH_TABLE_MAX_INPUTS
@@ -64,14 +70,19 @@ export function heuristicAll(n: number, targets: Target[], model: CostModel, dea
           n,
         )
       : cubeOracle(offCubes!);
-  if (n <= TRUTH_TABLE_MAX_INPUTS) {
-    // Points with few care neighbours first: they are the likeliest to be independent of the rest.
+  // Points with few care neighbours first: they are the likeliest to be independent of the rest (a corner
+  // many ON cubes share, next to all of them, taken first, would rule out every other corner of theirs).
+  // Above the tables a neighbour is looked up in the OFF cubes, when that stays within about 10^8 tests.
+  const offTests = offCubes ? candidates.length * n * Math.max(...offCubes.map((o) => o.length), 1) : 0;
+  if (n <= TRUTH_TABLE_MAX_INPUTS || offTests <= 1e8) {
     const degree = (p: BoundPoint): number => {
       const t = targets[p.output]!;
       let d = 0;
       for (let i = 0; i < n; i++) {
         const q = (p.minterm ^ (1 << i)) >>> 0;
-        if (((t.onT![q >>> 5]! | t.dcT![q >>> 5]!) >>> (q & 31)) & 1) d++;
+        if (t.onT && t.dcT) {
+          if (((t.onT[q >>> 5]! | t.dcT[q >>> 5]!) >>> (q & 31)) & 1) d++;
+        } else if (!oracle.meetsOff({ value: q, mask: full }, p.output)) d++;
       }
       return d;
     };

@@ -161,6 +161,27 @@ describe("worked examples", () => {
     }
   }, 120_000);
 
+  it("above 20 inputs the heuristic's bound reads both corners of each ON cube", () => {
+    // f = x20 · (x0' + x1' + … + x19') over 21 inputs, given as its 20 terms x_i'·x20. Their corners with the
+    // free inputs at 0 are one point; with them at 1, twenty points, no two of which one product holds: the
+    // smallest cube holding two of them holds the point with every input at 1, where f is 0. So no cover has
+    // fewer than 20 products, and the 20 terms are one (the test's own argument, no source).
+    const N = 21;
+    const bit = (i: number) => 2 ** (N - 1 - i);
+    const on: Cube[] = Array.from({ length: 20 }, (_, i) => ({ value: bit(20), mask: bit(20) + bit(i) }));
+    const spec: FunctionSpec = { inputs: Array.from({ length: N }, (_, i) => `x${i}`), outputs: [{ name: "f", on, dc: [] }] };
+    const r = minimize(spec, { heuristic: true });
+    expect(r.route).toBe("heuristic");
+    expect(r.lowerBound).toBe(20);
+    expect(r.cost).toBe(20);
+    // Reference: the definition of f, at the points with x20 = 1 and at most one other input at 0, evaluated by the test.
+    const holds = (m: number) => r.outputs[0]!.cubes.some((c) => ((m ^ c.value) & c.mask) === 0);
+    const all = 2 ** N - 1;
+    expect(holds(all)).toBe(false);
+    for (let i = 0; i < 20; i++) expect(holds(all - bit(i))).toBe(true);
+    expect(holds(all - bit(20))).toBe(false);
+  });
+
   it("a heuristic run out of time says which limit, and does not advise the heuristic", () => {
     const n = 18;
     const on: Cube[] = [];
