@@ -53,7 +53,7 @@ describe("truth table import", () => {
   });
 
   it("keeps the input order: the first column is the most significant bit", () => {
-    // Only a=1, b=0 is 1: minterm 2 with a as the high bit (PRODUCT.md bit order).
+    // Only a=1, b=0 is 1: minterm 2 with a as the high bit (the bit order of lib/logic and the equation language).
     const r = imported("a,b,y\n0,0,0\n0,1,0\n1,0,1\n1,1,0\n");
     expect(bruteTable(r.spec)[0]).toEqual(["0", "0", "1", "0"]);
     expect(r.source).toContain("inputs a, b\n");
