@@ -5,12 +5,16 @@
  * one table row per case and a summary against the targets. Both routes are
  * warmed up first and timed as the fastest of a few runs (see bestOf), in
  * three rounds on the cases both solve; both start from the same prime generation.
+ * Then the mapping section (./mapping): map, analyse, verify and export times
+ * against the gates built. `-- --quick` shortens both; `-- --mapping` runs the
+ * mapping section alone.
  */
 import { popcount } from "../logic";
 import { columnWeight } from "../minimize/cost";
 import { minimize, type MinimizeResult } from "../minimize";
 import { randomCase, structuredCases, type BenchCase } from "./cases";
 import { genericRoute, loadSolver, type GenericResult } from "./generic";
+import { mappingSection } from "./mapping";
 
 interface Row {
   c: BenchCase;
@@ -53,6 +57,10 @@ async function bestOf(run: () => number | Promise<number>): Promise<number> {
 
 async function main(): Promise<void> {
   const quick = process.argv.includes("--quick");
+  if (process.argv.includes("--mapping")) {
+    mappingSection(quick);
+    return;
+  }
   await loadSolver();
   const cases: { c: BenchCase; timeLimitMs: number }[] = [];
   const seeds: Record<number, number> = quick ? { 8: 3, 10: 3, 12: 1, 14: 1, 16: 1 } : { 8: 11, 10: 11, 12: 5, 14: 3, 16: 2 };
@@ -135,6 +143,8 @@ async function main(): Promise<void> {
   console.log(
     `  generic route (≥ 8 inputs, ${compared.length} exact cases): median ratio ${median(ratios).toFixed(1)}x, min ${Math.min(...ratios).toFixed(1)}x; ${compared.filter((x, i) => ratios[i]! >= 5).length}/${compared.length} at least 5x; cost disagreements: ${disagree.join(", ") || "none"}`,
   );
+
+  mappingSection(quick);
 }
 
 main().then(

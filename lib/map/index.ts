@@ -1,5 +1,6 @@
 /** The mapper: covers → family gates → verified netlist. */
 export * from "./netlist";
 export * from "./trees";
+export * from "./simulate";
 export * from "./verify";
 export * from "./mapper";

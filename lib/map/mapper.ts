@@ -115,6 +115,8 @@ const FORM_TYPES: Record<TargetForm, GateType[]> = {
 
 // An input inverter is shared by every use, so it is charged lightly.
 const SHARED_INVERTER_COST = 0.25;
+const FREE: Choice = { gates: 0, depth: 0 };
+const INPUT_INVERTER: Choice = { gates: SHARED_INVERTER_COST, depth: 1 };
 
 /**
  * Maps covers onto a family. Throws MapError when the family cannot build the
@@ -183,6 +185,12 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
       })
     : [];
 
+  const railPartner = new Map<string, string>();
+  for (const r of complements) {
+    railPartner.set(r.input, r.net);
+    railPartner.set(r.net, r.input);
+  }
+
   // ---- build logic trees ----
   const constNode = (v: boolean): MNode => ({ kind: "const", value: v });
   const litArrival = (plain: boolean) => (plain || rails ? 0 : 1);
@@ -190,9 +198,10 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
 
   /** Splits an op over many kids into a tree no wider than the op's widest gate. */
   const keyOf = new Map<MNode, string>();
+  const litKeys = covers.inputs.map((_, i) => [`!x${i}`, `x${i}`]);
   const nodeKey = (x: MNode): string => {
     if (x.kind === "const") return x.value ? "#1" : "#0";
-    if (x.kind === "lit") return `${x.plain ? "x" : "!x"}${x.input}`;
+    if (x.kind === "lit") return litKeys[x.input]![x.plain ? 1 : 0]!;
     let k = keyOf.get(x);
     if (k === undefined) {
       k = `${x.op}(${x.kids.map(nodeKey).sort().join(",")})`;
@@ -219,11 +228,13 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
     return toNode(root);
   };
 
+  // One node per literal, shared by every term that reads it.
+  const litNodes: MNode[][] = covers.inputs.map((_, input) => [false, true].map((plain): MNode => ({ kind: "lit", input, plain })));
   const cubeLits = (c: Cube): MNode[] => {
     const lits: MNode[] = [];
     for (let i = 0; i < n; i++) {
       const bit = 1 << (n - 1 - i);
-      if (c.mask & bit) lits.push({ kind: "lit", input: i, plain: (c.value & bit) !== 0 });
+      if (c.mask & bit) lits.push(litNodes[i]![(c.value & bit) !== 0 ? 1 : 0]!);
     }
     return lits;
   };
@@ -238,7 +249,7 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
   const better = (a: Choice, b: Choice) => a.gates < b.gates - 1e-9 || (Math.abs(a.gates - b.gates) < 1e-9 && a.depth < b.depth);
   const cost = (x: MNode, pol: boolean): Choice => {
     if (x.kind === "const") return { gates: 0, depth: 0 };
-    if (x.kind === "lit") return x.plain === pol || rails ? { gates: 0, depth: 0 } : { gates: SHARED_INVERTER_COST, depth: 1 };
+    if (x.kind === "lit") return x.plain === pol || rails ? FREE : INPUT_INVERTER;
     let m = memo.get(x);
     if (!m) {
       const best: [Choice | null, Choice | null] = [null, null];
@@ -288,8 +299,8 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
     if (net === CONST1) return CONST0;
     const d = driverOf.get(net);
     if (d && d.type === "NOT") return d.inputs[0]!;
-    const rail = complements.find((r) => r.input === net || r.net === net);
-    if (rail) return rail.input === net ? rail.net : rail.input;
+    const rail = railPartner.get(net);
+    if (rail !== undefined) return rail;
     const hit = inverted.get(net);
     if (hit) return hit;
     let out: string;
@@ -403,25 +414,24 @@ function pruneDead(gates: Gate[], outputs: NetlistOutput[]): Gate[] {
   return gates.filter((g) => need.has(g.output));
 }
 
-/** Longest path, in gates, from each net to any output (0 at an output pin). */
+/**
+ * Longest path, in gates, from each net to any output (0 at an output pin and
+ * at a net nothing reads): one pass over the gates in reverse topological
+ * order, where every reader of a gate's output has been seen before the gate.
+ */
 function tails(gates: Gate[], outputs: NetlistOutput[]): Map<string, number> {
-  const readers = new Map<string, Gate[]>();
-  for (const g of gates) for (const i of new Set(g.inputs)) (readers.get(i) ?? readers.set(i, []).get(i)!).push(g);
-  const memo = new Map<string, number>();
-  const outs = new Set(outputs.map((o) => o.net));
-  const tail = (net: string): number => {
-    const m = memo.get(net);
-    if (m !== undefined) return m;
-    memo.set(net, 0);
-    let t = outs.has(net) ? 0 : -Infinity;
-    for (const g of readers.get(net) ?? []) t = Math.max(t, 1 + tail(g.output));
-    const v = Number.isFinite(t) ? t : 0;
-    memo.set(net, v);
-    return v;
-  };
-  for (const g of gates) tail(g.output);
-  for (const g of gates) for (const i of g.inputs) tail(i);
-  return memo;
+  const order = topoOrder({ inputs: [], outputs, gates, complements: [] });
+  const tail = new Map<string, number>();
+  for (const o of outputs) tail.set(o.net, 0);
+  for (let k = order.length - 1; k >= 0; k--) {
+    const g = order[k]!;
+    const t = 1 + (tail.get(g.output) ?? 0);
+    for (const i of g.inputs) {
+      const was = tail.get(i);
+      if (was === undefined || t > was) tail.set(i, t);
+    }
+  }
+  return tail;
 }
 
 function insertBuffers(
@@ -436,20 +446,31 @@ function insertBuffers(
   warnings: string[],
 ): Gate[] {
   const tail = tails(gates, outputs);
-  const loadsOf = new Map<string, { gate?: Gate; pin?: number; weight: number; criticality: number; pinned: boolean }[]>();
-  const push = (net: string, x: { gate?: Gate; pin?: number; weight: number; criticality: number; pinned: boolean }) =>
-    (loadsOf.get(net) ?? loadsOf.set(net, []).get(net)!).push(x);
-  for (const g of gates) g.inputs.forEach((i, pin) => {
-    if (i !== CONST0 && i !== CONST1) push(i, { gate: g, pin, weight: 1, criticality: 1 + (tail.get(g.output) ?? 0), pinned: false });
+  // Each load names its reader by index in `out`; a reader is copied once, on its first rewired input.
+  type Load = { gate: number; pin: number; weight: number; criticality: number; pinned: boolean };
+  const loadsOf = new Map<string, Load[]>();
+  const push = (net: string, x: Load) => {
+    const ls = loadsOf.get(net);
+    if (ls) ls.push(x);
+    else loadsOf.set(net, [x]);
+  };
+  gates.forEach((g, gi) => {
+    const crit = 1 + (tail.get(g.output) ?? 0);
+    g.inputs.forEach((i, pin) => {
+      if (i !== CONST0 && i !== CONST1) push(i, { gate: gi, pin, weight: 1, criticality: crit, pinned: false });
+    });
   });
-  for (const o of outputs) if (o.net !== CONST0 && o.net !== CONST1) push(o.net, { weight: pinLoad, criticality: Infinity, pinned: true });
+  for (const o of outputs) if (o.net !== CONST0 && o.net !== CONST1) push(o.net, { gate: -1, pin: -1, weight: pinLoad, criticality: Infinity, pinned: true });
   const out = gates.slice();
+  const copied = new Uint8Array(gates.length);
   const drivers = new Set([...inputs, ...rails, ...gates.map((g) => g.output)]);
   for (const [net, loads] of loadsOf) {
     if (!drivers.has(net)) continue;
-    const total = loads.reduce((s, l) => s + l.weight, 0);
+    let total = 0;
+    for (const l of loads) total += l.weight;
     if (total <= fanOut + 1e-9) continue;
-    const pinned = loads.filter((l) => l.pinned).reduce((s, l) => s + l.weight, 0);
+    let pinned = 0;
+    for (const l of loads) if (l.pinned) pinned += l.weight;
     if (pinned > fanOut - 1) {
       warnings.push(`net ${net}: output pin load ${pinned} leaves no room under fan-out ${fanOut}; the pin stays on its driver over the limit`);
       continue;
@@ -462,15 +483,12 @@ function insertBuffers(
     });
     loads.forEach((l, i) => {
       const a = plan.assignment[i]!;
-      if (a >= 0 && l.gate) {
-        const idx = out.indexOf(l.gate);
-        const g = out[idx]!;
-        const ins = g.inputs.slice();
-        ins[l.pin!] = bufNets[a]!;
-        const ng = { ...g, inputs: ins };
-        out[idx] = ng;
-        // later loads of the same gate must find the updated object
-        for (const ls of loadsOf.values()) for (const x of ls) if (x.gate === g) x.gate = ng;
+      if (a >= 0 && l.gate >= 0) {
+        if (!copied[l.gate]) {
+          out[l.gate] = { ...out[l.gate]!, inputs: out[l.gate]!.inputs.slice() };
+          copied[l.gate] = 1;
+        }
+        out[l.gate]!.inputs[l.pin] = bufNets[a]!;
       }
     });
   }

@@ -10,7 +10,8 @@ import { logicSolver } from "../verify/index";
 import type { Cube } from "../logic/index";
 import { TRUTH_TABLE_MAX_INPUTS, emptyTable, fullMask, tableFromCubes, cubeToString } from "../logic/index";
 import type { Netlist } from "./netlist";
-import { CONST0, CONST1, evalWord, topoOrder } from "./netlist";
+import { CONST0, CONST1, topoOrder } from "./netlist";
+import { simulateNetlist } from "./simulate";
 
 /** What one output must do: its ON-set (or OFF-set) and DC-set as cubes over the inputs. */
 export interface VerifyTarget {
@@ -50,34 +51,22 @@ function verifyExhaustive(netlist: Netlist, inputs: string[], targets: VerifyTar
   const n = inputs.length;
   const words = emptyTable(n).length;
   const valid = n >= 5 ? 0xffffffff : fullMask(2 ** n);
-  const nets = new Map<string, Uint32Array>();
-  const constWords = (v: number) => new Uint32Array(words).fill(v);
-  nets.set(CONST0, constWords(0));
-  nets.set(CONST1, constWords(0xffffffff));
-  inputs.forEach((name, i) => {
+  const tables: Uint32Array[] = inputs.map((_, i) => {
     const p = n - 1 - i;
     const t = new Uint32Array(words);
     for (let w = 0; w < words; w++) t[w] = p < 5 ? LOW_PATTERNS[p]! : ((w * 32) >>> p) & 1 ? 0xffffffff : 0;
-    nets.set(name, t);
+    return t;
   });
-  for (const r of netlist.complements) {
-    const src = nets.get(r.input)!;
-    nets.set(r.net, src.map((x) => ~x >>> 0));
-  }
-  for (const g of topoOrder(netlist)) {
-    const ins = g.inputs.map((i) => {
-      const t = nets.get(i);
-      if (!t) throw new Error(`gate ${g.id} reads net "${i}", which nothing drives`);
+  const byName = new Map(inputs.map((name, i) => [name, tables[i]!]));
+  const outTables = simulateNetlist(
+    netlist,
+    netlist.inputs.map((name) => {
+      const t = byName.get(name);
+      if (!t) throw new Error(`the netlist's input "${name}" is not an input of the specification`);
       return t;
-    });
-    const out = new Uint32Array(words);
-    const buf: number[] = new Array(ins.length);
-    for (let w = 0; w < words; w++) {
-      for (let j = 0; j < ins.length; j++) buf[j] = ins[j]![w]!;
-      out[w] = evalWord(g.type, buf);
-    }
-    nets.set(g.output, out);
-  }
+    }),
+  );
+  const nets = new Map(netlist.outputs.map((o, i) => [o.net, outTables[i]!]));
   const mismatches: Mismatch[] = [];
   for (const t of targets) {
     const o = netlist.outputs.find((x) => x.name === t.name);
