@@ -1,6 +1,6 @@
 /**
  * The mapping options that `map` and `compare` share: --family ID (required),
- * --form, --fanin N, --fanout N and, where the command prints files, --format.
+ * --form, --fanin N, --fanout N, --no-spare-inverters and, where the command prints files, --format.
  * Values may follow the flag or be joined with "=" (--fanin=3).
  */
 import { BUILT_IN_FAMILIES, type Family } from "../families";
@@ -10,7 +10,7 @@ import type { DesignSettings, ExportFormat } from "../pipeline";
 export const FORMATS: ExportFormat[] = ["json", "verilog", "vhdl", "csv"];
 
 /** The options part of a usage line. */
-export const MAP_OPTIONS_USAGE = "--family ID [--form and-or|nand|nor|or-and|mixed] [--fanin N] [--fanout N]";
+export const MAP_OPTIONS_USAGE = "--family ID [--form and-or|nand|nor|or-and|mixed] [--fanin N] [--fanout N] [--no-spare-inverters]";
 
 export interface MapArgs {
   /** The positional arguments (file names, "-" for standard input), in order. */
@@ -56,6 +56,8 @@ export function parseMapArgs(args: string[], opts: { fileNames: string[]; format
       const n = whole("--fanout");
       if (typeof n === "string") return n;
       settings.fanOut = n;
+    } else if (flag === "--no-spare-inverters") {
+      settings.spareInverters = false;
     } else if (flag === "--format" && opts.format) {
       const v = value();
       if (!FORMATS.includes(v as ExportFormat)) return `--format takes ${FORMATS.join(", ")}, not ${v ?? "nothing"}`;

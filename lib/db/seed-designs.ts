@@ -55,6 +55,7 @@ export const DEMO_DESIGNS: DemoDesign[] = [
       { message: "The chamber cannot be level with both pounds: add it as impossible", author: "designer", family: "ttl-std-5v" },
       { message: "New controller board uses high-speed CMOS", author: "designer", family: "cmos-hc-5v" },
       { message: "Fit the spare two-input NANDs on the board: NAND–NAND, fan-in 2", author: "designer", family: "cmos-hc-5v", settings: { form: "nand", fanIn: 2 } },
+      { message: "Four-input NANDs after all; the inverters take the spare NAND places, one package fewer", author: "designer", family: "cmos-hc-5v", settings: { form: "nand", fanIn: 4 } },
     ],
   },
   {

@@ -4,12 +4,12 @@
  * fan-out buffer trees, then verification against the specification.
  */
 import type { Cube, FunctionSpec } from "../logic/index";
-import type { Family, GateType } from "../families/types";
+import type { Family, GateOffer, GateType } from "../families/types";
 import { deriveFamily, offeredGates } from "../families/derive";
-import { MAX_GATE_WIDTH } from "../families/types";
+import { GATE_TYPES, MAX_GATE_WIDTH } from "../families/types";
 import type { Gate, GateRole, Netlist, NetlistOutput } from "./netlist";
 import { CONST0, CONST1, topoOrder } from "./netlist";
-import { mergeByArrival, planBufferTree, type Group } from "./trees";
+import { bufferCount, mergeByArrival, planBufferTree, type Group } from "./trees";
 import type { VerifyResult, VerifyTarget } from "./verify";
 import { verifyNetlist } from "./verify";
 
@@ -44,6 +44,12 @@ export interface MapOptions {
   spec?: FunctionSpec;
   /** Verify before returning (default true). */
   verify?: boolean;
+  /**
+   * Put inverters into the spare places of NAND, NOR, XOR or XNOR packages
+   * already used (the other inputs tied so the gate inverts) when that saves
+   * packages of inverters. Default true.
+   */
+  spareInverters?: boolean;
 }
 
 export interface NetLoad {
@@ -60,6 +66,8 @@ export interface MapResult {
   netlist: Netlist;
   verification: VerifyResult | null;
   warnings: string[];
+  /** Every realisation priced, in the order tried; `chosen` marks the netlist returned (fewest gates, then packages, then levels). */
+  realisations: Realisation[];
   /** The widest gate width used as limit, and the fan-out applied. */
   fanIn: number;
   fanOut: number;
@@ -76,10 +84,27 @@ export class MapError extends Error {
 // ---- internal tree of the logic to build ---------------------------------
 
 type Op = "and" | "or";
+/**
+ * The logic to build. A "flat" node is one operation over all its operands
+ * (a product, a sum, an output); each of its shapes is a tree of "op" nodes
+ * no wider than one gate width, whose leaves are the flat node's operands.
+ */
 type MNode =
   | { kind: "const"; value: boolean }
   | { kind: "lit"; input: number; plain: boolean }
-  | { kind: "op"; op: Op; kids: MNode[]; arrival: number };
+  | { kind: "op"; op: Op; kids: MNode[]; arrival: number; id: number }
+  | Flat;
+
+interface Flat {
+  kind: "flat";
+  id: number;
+  op: Op;
+  kids: MNode[];
+  /** Arrival (levels) of the shape at the widest gate, used to order the merges of enclosing trees. */
+  arrival: number;
+  /** Tree shapes by gate width (width capped at the operand count). */
+  shapes: Map<number, MNode>;
+}
 
 interface Choice {
   gates: number;
@@ -87,6 +112,41 @@ interface Choice {
   type?: GateType;
   invertOut?: boolean;
   kidPol?: boolean;
+  /** For a flat node: the shape chosen, and its gate width. */
+  shape?: MNode;
+  width?: number;
+}
+
+/**
+ * One way of pricing the realisations: trees at the widest gate of each
+ * operation only, or at every width the form's gates offer; and the charge
+ * for a complemented input's inverter, which is built once and shared (so
+ * its true cost per use lies between 0 and 1).
+ */
+interface Policy {
+  name: string;
+  widths: "widest" | "every";
+  inverterCost: number;
+}
+
+/** The policies tried, in order; on a tie in gates, packages and depth the earlier one wins. The first is the mapper's original one. */
+const POLICIES: Policy[] = [
+  { name: "widest gates, shared inverters at 1/4", widths: "widest", inverterCost: 0.25 },
+  { name: "every width, shared inverters at 1/4", widths: "every", inverterCost: 0.25 },
+  { name: "every width, inverters at full cost", widths: "every", inverterCost: 1 },
+  { name: "widest gates, inverters at full cost", widths: "widest", inverterCost: 1 },
+];
+
+/** One priced realisation of the covers (see MapResult.realisations). */
+export interface Realisation {
+  name: string;
+  gates: number;
+  /** Packages, counting each gate type and width separately; null when the family does not say. */
+  packages: number | null;
+  depth: number;
+  /** True when the figures were priced before the buffers were placed (the fewest each overloaded net needs) and the netlist was not finished. */
+  estimated: boolean;
+  chosen: boolean;
 }
 
 /** For each gate type: the op it computes and the polarities: out = op(in) when out/in both true. */
@@ -113,10 +173,7 @@ const FORM_TYPES: Record<TargetForm, GateType[]> = {
   mixed: ["AND", "OR", "NAND", "NOR"],
 };
 
-// An input inverter is shared by every use, so it is charged lightly.
-const SHARED_INVERTER_COST = 0.25;
 const FREE: Choice = { gates: 0, depth: 0 };
-const INPUT_INVERTER: Choice = { gates: SHARED_INVERTER_COST, depth: 1 };
 
 /**
  * Maps covers onto a family. Throws MapError when the family cannot build the
@@ -145,6 +202,7 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
   const fanOut = options.fanOut ?? fanOutOf(fam);
   const pinLoad = options.outputPinLoad ?? 1;
   const rails = options.complementedInputs ?? false;
+  const spare = options.spareInverters ?? true;
   const warnings: string[] = [];
 
   const offers = offeredGates(fam);
@@ -167,15 +225,8 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
   const n = covers.inputs.length;
   const inputSet = new Set(covers.inputs);
   for (const o of covers.outputs) if (inputSet.has(o.name)) throw new MapError(`output ${o.name} has the name of an input; rename one of them`);
-  const used = new Set<string>([...covers.inputs, ...covers.outputs.map((o) => o.name), CONST0, CONST1]);
-  let counter = 0;
-  const fresh = (prefix: string) => {
-    let name: string;
-    do name = `${prefix}${++counter}`;
-    while (used.has(name));
-    used.add(name);
-    return name;
-  };
+  const usedBase = new Set<string>([...covers.inputs, ...covers.outputs.map((o) => o.name), CONST0, CONST1]);
+  const used = usedBase;
   const complements = rails
     ? covers.inputs.map((input) => {
         let net = `${input}_n`;
@@ -191,13 +242,14 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
     railPartner.set(r.net, r.input);
   }
 
-  // ---- build logic trees ----
+  // ---- build the logic: flat operations, each with its tree shapes ----
   const constNode = (v: boolean): MNode => ({ kind: "const", value: v });
   const litArrival = (plain: boolean) => (plain || rails ? 0 : 1);
-  const arrivalOf = (x: MNode): number => (x.kind === "op" ? x.arrival : x.kind === "lit" ? litArrival(x.plain) : 0);
+  const arrivalOf = (x: MNode): number => (x.kind === "op" || x.kind === "flat" ? x.arrival : x.kind === "lit" ? litArrival(x.plain) : 0);
 
-  /** Splits an op over many kids into a tree no wider than the op's widest gate. */
   const keyOf = new Map<MNode, string>();
+  // Op and flat nodes are numbered, so that the choices of a policy live in an array.
+  let nodes = 0;
   const litKeys = covers.inputs.map((_, i) => [`!x${i}`, `x${i}`]);
   const nodeKey = (x: MNode): string => {
     if (x.kind === "const") return x.value ? "#1" : "#0";
@@ -208,6 +260,18 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
       keyOf.set(x, k);
     }
     return k;
+  };
+  /** The tree of a flat node at gate width k: the earliest operands merge first (mergeByArrival). */
+  const shapeOf = (x: Flat, k: number): MNode => {
+    const width = Math.min(k, x.kids.length);
+    let t = x.shapes.get(width);
+    if (!t) {
+      const root = mergeByArrival(x.kids.map((item) => ({ item, arrival: arrivalOf(item) })), width);
+      const toNode = (g: Group<MNode>): MNode => ("leaf" in g ? g.leaf : { kind: "op", op: x.op, kids: g.kids.map(toNode), arrival: g.arrival, id: nodes++ });
+      t = toNode(root);
+      x.shapes.set(width, t);
+    }
+    return t;
   };
   const makeOp = (op: Op, kids: MNode[]): MNode => {
     const identity = op === "and";
@@ -222,10 +286,9 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
     if (ks.some((k) => k.kind === "const")) return constNode(!identity);
     if (ks.length === 0) return constNode(identity);
     if (ks.length === 1) return ks[0]!;
-    const k = kOf(op);
-    const root = mergeByArrival(ks.map((item) => ({ item, arrival: arrivalOf(item) })), k);
-    const toNode = (g: Group<MNode>): MNode => ("leaf" in g ? g.leaf : { kind: "op", op, kids: g.kids.map(toNode), arrival: g.arrival });
-    return toNode(root);
+    const flat: Flat = { kind: "flat", id: nodes++, op, kids: ks, arrival: 0, shapes: new Map() };
+    flat.arrival = arrivalOf(shapeOf(flat, kOf(op)));
+    return flat;
   };
 
   // One node per literal, shared by every term that reads it.
@@ -244,120 +307,269 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
     return makeOp("and", o.cubes.map((c) => makeOp("or", cubeLits(c))));
   });
 
-  // ---- choose gate types and polarities (cheapest gates, then least depth) ----
-  const memo = new Map<MNode, [Choice, Choice]>();
-  const better = (a: Choice, b: Choice) => a.gates < b.gates - 1e-9 || (Math.abs(a.gates - b.gates) < 1e-9 && a.depth < b.depth);
-  const cost = (x: MNode, pol: boolean): Choice => {
-    if (x.kind === "const") return { gates: 0, depth: 0 };
-    if (x.kind === "lit") return x.plain === pol || rails ? FREE : INPUT_INVERTER;
-    let m = memo.get(x);
-    if (!m) {
-      const best: [Choice | null, Choice | null] = [null, null];
-      for (const impl of IMPL[x.op]) {
-        if (!allowed.includes(impl.type) || fitWidth(impl.type, x.kids.length) === undefined) continue;
-        let gates = 1;
-        let depth = 0;
-        for (const kid of x.kids) {
-          const c = cost(kid, impl.inPlain);
-          gates += c.gates;
-          depth = Math.max(depth, c.depth);
-        }
-        depth += 1;
-        for (const want of [false, true]) {
-          const inv = impl.outPlain !== want;
-          const c: Choice = { gates: gates + (inv ? 1 : 0), depth: depth + (inv ? 1 : 0), type: impl.type, invertOut: inv, kidPol: impl.inPlain };
-          const idx = want ? 1 : 0;
-          if (best[idx] === null || better(c, best[idx]!)) best[idx] = c;
-        }
-      }
-      if (!best[0] || !best[1]) throw new MapError(`no gate of the ${form} form is ${x.kids.length} inputs wide`);
-      m = [best[0], best[1]];
-      memo.set(x, m);
+  /** Gate widths a flat operation's trees are tried at: the widest first, then every other width of the form's gates for it. */
+  const everyWidth = (op: Op): number[] => {
+    const ks = [kOf(op)];
+    for (const impl of IMPL[op]) {
+      if (!allowed.includes(impl.type)) continue;
+      for (const w of widths.get(impl.type) ?? []) if (w >= 2 && !ks.includes(w)) ks.push(w);
     }
-    return m[pol ? 1 : 0];
+    return ks;
   };
+  const implsOf: Record<Op, (typeof IMPL)[Op]> = {
+    and: IMPL.and.filter((i) => allowed.includes(i.type)),
+    or: IMPL.or.filter((i) => allowed.includes(i.type)),
+  };
+  const widthsFor: Record<Policy["widths"], Record<Op, number[]>> = {
+    widest: { and: [kOf("and")], or: [kOf("or")] },
+    every: { and: everyWidth("and"), or: everyWidth("or") },
+  };
+  const perPackage = new Map<string, number>();
+  for (const o of offers) for (const w of o.widths) perPackage.set(`${o.type}/${w.width}`, w.perPackage);
+  const knownPackages = (family.gates?.length ?? 0) > 0;
+  const railNets = complements.map((c) => c.net);
 
-  // ---- emit gates ----
-  const gates: Gate[] = [];
-  const byKey = new Map<string, string>();
-  const driverOf = new Map<string, Gate>();
-  const inverted = new Map<string, string>();
-  const addGate = (type: GateType, inputs: string[], role: GateRole, key?: string): string => {
-    if (key !== undefined) {
-      const hit = byKey.get(key);
+  /** Chooses, under one policy, each flat node's shape and each tree node's gate type and polarities (fewest gates, then least depth). */
+  const choose = (policy: Policy) => {
+    const inverterChoice: Choice = { gates: policy.inverterCost, depth: 1 };
+    // memo[2·id + polarity]
+    const memo: Choice[] = [];
+    const better = (a: Choice, b: Choice) => a.gates < b.gates - 1e-9 || (Math.abs(a.gates - b.gates) < 1e-9 && a.depth < b.depth);
+    const ks = widthsFor[policy.widths];
+    const cost = (x: MNode, pol: boolean): Choice => {
+      if (x.kind === "const") return FREE;
+      if (x.kind === "lit") return x.plain === pol || rails ? FREE : inverterChoice;
+      const hit = memo[2 * x.id + (pol ? 1 : 0)];
       if (hit) return hit;
-    }
-    const output = fresh("n");
-    const g: Gate = { id: `g${gates.length + 1}`, type, inputs, output, role };
-    gates.push(g);
-    driverOf.set(output, g);
-    if (key !== undefined) byKey.set(key, output);
-    return output;
+      {
+        const best: [Choice | null, Choice | null] = [null, null];
+        if (x.kind === "flat") {
+          for (const k of ks[x.op]) {
+            const shape = shapeOf(x, k);
+            for (const want of [false, true]) {
+              const c = cost(shape, want);
+              const idx = want ? 1 : 0;
+              if (best[idx] === null || better(c, best[idx]!)) best[idx] = { gates: c.gates, depth: c.depth, shape, width: Math.min(k, x.kids.length) };
+            }
+          }
+        } else {
+          for (const impl of implsOf[x.op]) {
+            if (fitWidth(impl.type, x.kids.length) === undefined) continue;
+            let gates = 1;
+            let depth = 0;
+            for (const kid of x.kids) {
+              const c = cost(kid, impl.inPlain);
+              gates += c.gates;
+              if (c.depth > depth) depth = c.depth;
+            }
+            depth += 1;
+            for (const want of [false, true]) {
+              const inv = impl.outPlain !== want;
+              const c: Choice = { gates: gates + (inv ? 1 : 0), depth: depth + (inv ? 1 : 0), type: impl.type, invertOut: inv, kidPol: impl.inPlain };
+              const idx = want ? 1 : 0;
+              if (best[idx] === null || better(c, best[idx]!)) best[idx] = c;
+            }
+          }
+        }
+        if (!best[0] || !best[1]) throw new MapError(`no gate of the ${form} form is ${x.kids.length} inputs wide`);
+        memo[2 * x.id] = best[0];
+        memo[2 * x.id + 1] = best[1];
+      }
+      return memo[2 * x.id + (pol ? 1 : 0)]!;
+    };
+    return cost;
   };
-  const invert = (net: string): string => {
-    if (net === CONST0) return CONST1;
-    if (net === CONST1) return CONST0;
-    const d = driverOf.get(net);
-    if (d && d.type === "NOT") return d.inputs[0]!;
-    const rail = railPartner.get(net);
-    if (rail !== undefined) return rail;
-    const hit = inverted.get(net);
-    if (hit) return hit;
-    let out: string;
-    if (notOffered) out = addGate("NOT", [net], "inverter");
-    else {
-      const t = allowed.find((x) => x === "NAND" || x === "NOR") ?? (["NAND", "NOR"] as GateType[]).find((x) => (widths.get(x)?.length ?? 0) > 0);
-      if (!t) throw new MapError(`${family.name} offers no inverter (NOT, or a NAND/NOR to tie as one)`);
-      const w = widths.get(t)![0]!;
-      out = addGate(t, new Array(w).fill(net), "inverter");
-    }
-    inverted.set(net, out);
-    inverted.set(out, net);
+  type CostFn = ReturnType<typeof choose>;
+
+  /** The choices met on the way the netlist is emitted, as numbers: equal lists give equal netlists. */
+  const choicesMet = (cost: CostFn): number[] => {
+    const out: number[] = [];
+    const walk = (x: MNode, pol: boolean) => {
+      if (x.kind === "const" || x.kind === "lit") return;
+      const c = cost(x, pol);
+      if (x.kind === "flat") {
+        out.push(c.width!);
+        walk(c.shape!, pol);
+        return;
+      }
+      out.push(GATE_TYPES.indexOf(c.type!) * 4 + (c.invertOut ? 2 : 0) + (c.kidPol ? 1 : 0));
+      for (const k of x.kids) walk(k, c.kidPol!);
+    };
+    for (const r of roots) walk(r, true);
     return out;
   };
-  const emit = (x: MNode, pol: boolean): string => {
-    if (x.kind === "const") return x.value === pol ? CONST1 : CONST0;
-    if (x.kind === "lit") {
-      const name = covers.inputs[x.input]!;
-      return x.plain === pol ? name : invert(name);
+
+  /** Emits the gates of one set of choices, names the output nets and drops gates that feed nothing. */
+  const emitLogic = (cost: CostFn) => {
+    const used = new Set(usedBase);
+    let counter = 0;
+    const fresh = (prefix: string) => {
+      let name: string;
+      do name = `${prefix}${++counter}`;
+      while (used.has(name));
+      used.add(name);
+      return name;
+    };
+
+    // ---- emit gates ----
+    const gates: Gate[] = [];
+    const byKey = new Map<string, string>();
+    const driverOf = new Map<string, Gate>();
+    const inverted = new Map<string, string>();
+    const addGate = (type: GateType, inputs: string[], role: GateRole, key?: string): string => {
+      if (key !== undefined) {
+        const hit = byKey.get(key);
+        if (hit) return hit;
+      }
+      const output = fresh("n");
+      const g: Gate = { id: `g${gates.length + 1}`, type, inputs, output, role };
+      gates.push(g);
+      driverOf.set(output, g);
+      if (key !== undefined) byKey.set(key, output);
+      return output;
+    };
+    const invert = (net: string): string => {
+      if (net === CONST0) return CONST1;
+      if (net === CONST1) return CONST0;
+      const d = driverOf.get(net);
+      if (d && d.type === "NOT") return d.inputs[0]!;
+      const rail = railPartner.get(net);
+      if (rail !== undefined) return rail;
+      const hit = inverted.get(net);
+      if (hit) return hit;
+      let out: string;
+      if (notOffered) out = addGate("NOT", [net], "inverter");
+      else {
+        const t = allowed.find((x) => x === "NAND" || x === "NOR") ?? (["NAND", "NOR"] as GateType[]).find((x) => (widths.get(x)?.length ?? 0) > 0);
+        if (!t) throw new MapError(`${family.name} offers no inverter (NOT, or a NAND/NOR to tie as one)`);
+        const w = widths.get(t)![0]!;
+        out = addGate(t, new Array(w).fill(net), "inverter");
+      }
+      inverted.set(net, out);
+      inverted.set(out, net);
+      return out;
+    };
+    const emit = (x: MNode, pol: boolean): string => {
+      if (x.kind === "const") return x.value === pol ? CONST1 : CONST0;
+      if (x.kind === "lit") {
+        const name = covers.inputs[x.input]!;
+        return x.plain === pol ? name : invert(name);
+      }
+      const c = cost(x, pol);
+      if (x.kind === "flat") return emit(c.shape!, pol);
+      const type = c.type!;
+      const kidNets = x.kids.map((k) => emit(k, c.kidPol!));
+      const w = fitWidth(type, kidNets.length)!;
+      const tie = type === "AND" || type === "NAND" ? CONST1 : CONST0;
+      const inputs = [...kidNets, ...new Array<string>(w - kidNets.length).fill(tie)];
+      const key = `${type}(${[...kidNets].sort().join(",")}|${w})`;
+      const out = addGate(type, inputs, "logic", key);
+      return c.invertOut ? invert(out) : out;
+    };
+
+    const outNets = roots.map((r) => emit(r, true));
+
+    // ---- name output nets after their outputs ----
+    const rename = new Map<string, string>();
+    const outputs: NetlistOutput[] = covers.outputs.map((o, i) => {
+      const net = outNets[i]!;
+      if (driverOf.has(net) && !rename.has(net)) rename.set(net, o.name);
+      return { name: o.name, net: rename.get(net) ?? net };
+    });
+    const rn = (x: string) => rename.get(x) ?? x;
+    for (const g of gates) {
+      g.output = rn(g.output);
+      g.inputs = g.inputs.map(rn);
     }
-    const c = cost(x, pol);
-    const type = c.type!;
-    const kidNets = x.kids.map((k) => emit(k, c.kidPol!));
-    const w = fitWidth(type, kidNets.length)!;
-    const tie = type === "AND" || type === "NAND" ? CONST1 : CONST0;
-    const inputs = [...kidNets, ...new Array<string>(w - kidNets.length).fill(tie)];
-    const key = `${type}(${[...kidNets].sort().join(",")}|${w})`;
-    const out = addGate(type, inputs, "logic", key);
-    return c.invertOut ? invert(out) : out;
+    for (const o of outputs) o.net = rn(o.net);
+
+    // ---- remove gates that feed nothing (inverters made for a polarity later undone) ----
+    const live = pruneDead(gates, outputs);
+
+    return { live, outputs, fresh };
+  };
+  type Emitted = ReturnType<typeof emitLogic>;
+
+  /**
+   * Figures of an emitted netlist before its buffers are placed: the buffers
+   * each overloaded net will need (the fewest a buffer tree can have), the
+   * packages once inverters take spare places, the levels without buffers.
+   */
+  const estimate = (e: Emitted) => {
+    const load = new Map<string, number>();
+    const pinned = new Map<string, number>();
+    for (const g of e.live) for (const i of g.inputs) if (i !== CONST0 && i !== CONST1) load.set(i, (load.get(i) ?? 0) + 1);
+    for (const o of e.outputs) {
+      if (o.net === CONST0 || o.net === CONST1) continue;
+      load.set(o.net, (load.get(o.net) ?? 0) + pinLoad);
+      pinned.set(o.net, (pinned.get(o.net) ?? 0) + pinLoad);
+    }
+    let buffers = 0;
+    for (const [net, l] of load) if (l > fanOut + 1e-9 && (pinned.get(net) ?? 0) <= fanOut - 1) buffers += bufferCount(Math.ceil(l - 1e-9), fanOut);
+    const count = typeWidthCounts(e.live);
+    if (buffers) count.set("BUF/1", (count.get("BUF/1") ?? 0) + buffers);
+    if (spare) for (const m of spareMoves(count, offers)) {
+      count.set("NOT/1", count.get("NOT/1")! - 1);
+      count.set(`${m.type}/${m.width}`, count.get(`${m.type}/${m.width}`)! + 1);
+    }
+    let packages = 0;
+    for (const [k, c] of count) packages += Math.ceil(c / (perPackage.get(k) ?? 1));
+    return { gates: e.live.length + buffers, packages: knownPackages ? packages : null, depth: gateLevels({ inputs: [], outputs: e.outputs, gates: e.live, complements: [] }) };
   };
 
-  const outNets = roots.map((r) => emit(r, true));
+  /** The netlist from an emitted one: fan-out buffer trees, inverters in spare places, topological order and gate ids. */
+  const finishNetlist = (e: Emitted) => {
+    const warnings: string[] = [];
+    // ---- fan-out: buffer trees where a load exceeds the fan-out ----
+    let live = insertBuffers(e.live, e.outputs, fanOut, pinLoad, covers.inputs, railNets, e.fresh, bufOffered, warnings);
+    if (!bufOffered && live.some((g) => g.role === "buffer")) warnings.push(`${family.name} lists no buffer; BUF gates were used for the fan-out trees`);
 
-  // ---- name output nets after their outputs ----
-  const rename = new Map<string, string>();
-  const outputs: NetlistOutput[] = covers.outputs.map((o, i) => {
-    const net = outNets[i]!;
-    if (driverOf.has(net) && !rename.has(net)) rename.set(net, o.name);
-    return { name: o.name, net: rename.get(net) ?? net };
+    // ---- inverters into the spare places of packages already on the board ----
+    if (spare) live = fillSparePlaces(live, offers);
+
+    const netlist: Netlist = { inputs: covers.inputs.slice(), outputs: e.outputs, gates: live, complements };
+    netlist.gates = topoOrder(netlist).map((g, i) => ({ ...g, id: `g${i + 1}` }));
+    return { netlist, warnings, gates: netlist.gates.length, packages: knownPackages ? packageCount(netlist.gates, perPackage) : null, depth: gateLevels(netlist) };
+  };
+
+  // ---- price the realisations; keep the fewest gates, then packages, then levels ----
+  // A policy whose choices equal an earlier one's gives the same netlist: it is emitted once. Each netlist is
+  // priced with its buffers counted (not yet placed); the cheapest is finished, and so is the first policy's
+  // when it is another, and the two compare on their finished figures, so the result is never worse than the
+  // first policy's (the mapper's original one).
+  type Figures = { gates: number; packages: number | null; depth: number };
+  const ahead = (a: Figures, b: Figures) => {
+    const x = [a.gates, a.packages ?? 0, a.depth];
+    const y = [b.gates, b.packages ?? 0, b.depth];
+    const k = x.findIndex((v, j) => v !== y[j]);
+    return k >= 0 && x[k]! < y[k]!;
+  };
+  const same = (a: number[], b: number[]) => a.length === b.length && a.every((x, i) => x === b[i]);
+  const unique: { met: number[]; emitted: Emitted; est: Figures; done?: ReturnType<typeof finishNetlist> }[] = [];
+  const slotOf = POLICIES.map((policy) => {
+    const cost = choose(policy);
+    const met = choicesMet(cost);
+    let k = unique.findIndex((x) => same(x.met, met));
+    if (k < 0) {
+      const emitted = emitLogic(cost);
+      unique.push({ met, emitted, est: estimate(emitted) });
+      k = unique.length - 1;
+    }
+    return k;
   });
-  const rn = (x: string) => rename.get(x) ?? x;
-  for (const g of gates) {
-    g.output = rn(g.output);
-    g.inputs = g.inputs.map(rn);
-  }
-  for (const o of outputs) o.net = rn(o.net);
-
-  // ---- remove gates that feed nothing (inverters made for a polarity later undone) ----
-  let live = pruneDead(gates, outputs);
-
-  // ---- fan-out: buffer trees where a load exceeds the fan-out ----
-  live = insertBuffers(live, outputs, fanOut, pinLoad, covers.inputs, complements.map((c) => c.net), fresh, bufOffered, warnings);
-  if (!bufOffered && live.some((g) => g.role === "buffer")) warnings.push(`${family.name} lists no buffer; BUF gates were used for the fan-out trees`);
-
-  const netlist: Netlist = { inputs: covers.inputs.slice(), outputs, gates: [], complements };
-  netlist.gates = live;
-  netlist.gates = topoOrder(netlist).map((g, i) => ({ ...g, id: `g${i + 1}` }));
+  let best = 0;
+  for (let k = 1; k < unique.length; k++) if (ahead(unique[k]!.est, unique[best]!.est)) best = k;
+  const finished = (k: number) => (unique[k]!.done ??= finishNetlist(unique[k]!.emitted));
+  let pick = best;
+  if (best !== 0 && ahead(finished(0), finished(best))) pick = 0;
+  else finished(best);
+  const { netlist } = finished(pick);
+  warnings.push(...finished(pick).warnings);
+  const realisations: Realisation[] = POLICIES.map((policy, i) => {
+    const u = unique[slotOf[i]!]!;
+    const f = u.done ?? u.est;
+    return { name: policy.name, gates: f.gates, packages: f.packages, depth: f.depth, estimated: !u.done, chosen: slotOf[i] === pick && slotOf.indexOf(pick) === i };
+  });
 
   let verification: VerifyResult | null = null;
   if (options.verify !== false) {
@@ -372,7 +584,7 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
       throw new MapError(`internal check failed: output ${m.output} gives ${m.got} at inputs ${m.assignment} where ${m.expected} is specified; please report this design`);
     }
   }
-  return { netlist, verification, warnings, fanIn: Math.max(kOf("and"), kOf("or")), fanOut, outputPinLoad: pinLoad, form, family: fam };
+  return { netlist, verification, warnings, realisations, fanIn: Math.max(kOf("and"), kOf("or")), fanOut, outputPinLoad: pinLoad, form, family: fam };
 }
 
 /**
@@ -396,6 +608,95 @@ function fanOutOf(family: Family): number {
       "give a fan-out setting, set fanOut in the family, or fix IOL/IIL/IOH/IIH in the family" +
       (d.acFanOut.value !== null && d.acFanOut.value < 2 ? " (and its output resistance, transition limit or input capacitance)" : ""),
   );
+}
+
+/** Packages of a gate list: each type and width fills its own packages of `perPackage` gates (1 when unknown). */
+function packageCount(gates: Gate[], perPackage: Map<string, number>): number {
+  const count = new Map<string, number>();
+  for (const g of gates) {
+    const k = `${g.type}/${g.inputs.length}`;
+    count.set(k, (count.get(k) ?? 0) + 1);
+  }
+  let total = 0;
+  for (const [k, c] of count) total += Math.ceil(c / (perPackage.get(k) ?? 1));
+  return total;
+}
+
+/** Gate levels on the longest path from an input to an output of a netlist whose gates are in topological order. */
+function gateLevels(n: Netlist): number {
+  const level = new Map<string, number>();
+  for (const g of n.gates) {
+    let lv = 0;
+    for (const i of g.inputs) lv = Math.max(lv, level.get(i) ?? 0);
+    level.set(g.output, lv + 1);
+  }
+  return n.outputs.reduce((m, o) => Math.max(m, level.get(o.net) ?? 0), 0);
+}
+
+/** How a gate of each inverting type is tied to act as an inverter of its first input. */
+const INVERTING_TIES: Partial<Record<GateType, (width: number) => string[]>> = {
+  NAND: (w) => new Array<string>(w - 1).fill(CONST1),
+  NOR: (w) => new Array<string>(w - 1).fill(CONST0),
+  // x ⊕ 1 ⊕ 0 ⊕ … = x'
+  XOR: (w) => [CONST1, ...new Array<string>(w - 2).fill(CONST0)],
+  // ¬(x ⊕ 0 ⊕ …) = x'
+  XNOR: (w) => new Array<string>(w - 1).fill(CONST0),
+};
+
+/**
+ * Moves NOT gates into the unused places of NAND, NOR, XOR and XNOR packages
+ * already in the netlist, with the other inputs tied (NAND to 1, NOR to 0,
+ * XOR to 1 then 0, XNOR to 0) so that each inverts, when that leaves fewer
+ * packages of NOT gates: as few as give the fewest inverter packages. Gate
+ * count, loads (a tied input loads no net) and levels stay as they are.
+ */
+export function fillSparePlaces(gates: Gate[], offers: GateOffer[]): Gate[] {
+  const moves = spareMoves(typeWidthCounts(gates), offers);
+  if (moves.length === 0) return gates;
+  const moved = new Map<Gate, Gate>();
+  let k = 0;
+  for (const g of gates) {
+    if (k === moves.length) break;
+    if (g.type !== "NOT") continue;
+    const p = moves[k++]!;
+    moved.set(g, { ...g, type: p.type, inputs: [g.inputs[0]!, ...INVERTING_TIES[p.type]!(p.width)] });
+  }
+  return gates.map((g) => moved.get(g) ?? g);
+}
+
+/** Gates per "TYPE/width". */
+function typeWidthCounts(gates: Gate[]): Map<string, number> {
+  const count = new Map<string, number>();
+  for (const g of gates) {
+    const k = `${g.type}/${g.inputs.length}`;
+    count.set(k, (count.get(k) ?? 0) + 1);
+  }
+  return count;
+}
+
+/**
+ * The places NOT gates move to (one per NOT moved, first NOTs first): free
+ * places of inverting types in packages already used, in the family's order
+ * of types and widths; as few as give the fewest packages of NOT gates, none
+ * when no package is saved.
+ */
+function spareMoves(count: Map<string, number>, offers: GateOffer[]): { type: GateType; width: number }[] {
+  const nots = count.get("NOT/1") ?? 0;
+  const notPer = offers.find((o) => o.type === "NOT")?.widths.find((w) => w.width === 1)?.perPackage;
+  if (nots === 0 || notPer === undefined) return [];
+  const places: { type: GateType; width: number }[] = [];
+  for (const o of offers) {
+    if (!INVERTING_TIES[o.type]) continue;
+    for (const w of o.widths) {
+      const c = count.get(`${o.type}/${w.width}`) ?? 0;
+      if (c === 0 || w.width < 2) continue;
+      const free = Math.ceil(c / w.perPackage) * w.perPackage - c;
+      for (let k = 0; k < free && places.length < nots; k++) places.push({ type: o.type, width: w.width });
+    }
+  }
+  const fewest = Math.ceil((nots - places.length) / notPer);
+  if (fewest === Math.ceil(nots / notPer)) return [];
+  return places.slice(0, nots - fewest * notPer);
 }
 
 function pruneDead(gates: Gate[], outputs: NetlistOutput[]): Gate[] {

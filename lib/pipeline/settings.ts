@@ -36,6 +36,11 @@ export interface DesignSettings {
   inputsDrivenBy?: string;
   /** Family (id) whose inputs the design's outputs drive; checked like inputsDrivenBy. Default: not checked. */
   outputsDrive?: string;
+  /**
+   * Inverters may take the spare places of NAND, NOR, XOR or XNOR packages
+   * already used (other inputs tied) when that saves inverter packages; default true.
+   */
+  spareInverters?: boolean;
 }
 
 export const DEFAULT_SETTINGS = {
@@ -46,6 +51,7 @@ export const DEFAULT_SETTINGS = {
   clockMHz: 10,
   activity: 0.25,
   heuristic: false,
+  spareInverters: true,
 };
 
 const FAMILY_ID = /^[a-z0-9][a-z0-9-]{0,62}$/;
@@ -65,7 +71,7 @@ export function resolveSettings(s: DesignSettings = {}): ResolvedSettings {
   return out;
 }
 
-const SETTING_KEYS = ["form", "cost", "fanIn", "fanOut", "complementedInputs", "outputPinLoad", "clockMHz", "activity", "heuristic", "inputsDrivenBy", "outputsDrive"] as const satisfies ReadonlyArray<keyof DesignSettings>;
+const SETTING_KEYS = ["form", "cost", "fanIn", "fanOut", "complementedInputs", "outputPinLoad", "clockMHz", "activity", "heuristic", "inputsDrivenBy", "outputsDrive", "spareInverters"] as const satisfies ReadonlyArray<keyof DesignSettings>;
 
 /** The settings as the API and storage take them (no family: that travels apart as familyId). */
 export const designSettingsSchema = z.object({
@@ -80,4 +86,5 @@ export const designSettingsSchema = z.object({
   heuristic: z.boolean().optional(),
   inputsDrivenBy: z.string().regex(FAMILY_ID, "give a family's key, e.g. ttl-ls-5v").optional(),
   outputsDrive: z.string().regex(FAMILY_ID, "give a family's key, e.g. ttl-ls-5v").optional(),
+  spareInverters: z.boolean().optional(),
 });

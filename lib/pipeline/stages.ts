@@ -111,6 +111,7 @@ export function runStages(job: StageJob, onProgress?: (p: Progress) => void): St
       ...(settings.fanOut !== undefined ? { fanOut: settings.fanOut } : {}),
       complementedInputs: settings.complementedInputs,
       outputPinLoad: settings.outputPinLoad,
+      spareInverters: settings.spareInverters,
       spec,
     });
   } catch (e) {

@@ -1,6 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { BASE_URL, openBrowser, screenshot, signIn, typeInEditor, type Session } from "../support/browser";
 import { DEMO_PASSWORD } from "../../lib/scripts/demo.mjs";
+import { readFileSync } from "node:fs";
+import { compileNow } from "../../lib/pipeline/index";
+import { BUILT_IN_FAMILIES } from "../../lib/families/index";
 
 /** Product terms of an SOP expression as sets of literals, so term and literal order do not matter. */
 function terms(expr: string): string[] {
@@ -110,6 +113,38 @@ describe("the designer's workbench in chromium", () => {
     await first.click();
     await expect.poll(() => page.locator(`#gate-row-${id}`).getAttribute("class")).toContain("bg-accent");
     await screenshot(page, "schematic");
+    expect(s.outside).toEqual([]);
+  });
+
+  it("puts inverters into spare NAND places when the setting is on, and into inverter packages when it is off", async () => {
+    const { page } = s;
+    // The demo's last revision of the chamber interlock: NAND–NAND with gates of up to four inputs, on high-speed CMOS.
+    const source = readFileSync("lib/lang/examples/chamber-interlock.fnb", "utf8");
+    const family = BUILT_IN_FAMILIES.find((f) => f.id === "cmos-hc-5v")!;
+    const run = (spareInverters: boolean) => compileNow({ source, family, settings: { form: "nand", fanIn: 4, spareInverters } }).result!.analysis;
+    const on = run(true);
+    const off = run(false);
+    // The same gates either way; with the setting on, fewer NOT gates and one package fewer (a hex inverter
+    // package holds six, a quad two-input NAND four: common practice, no source).
+    expect(on.gates).toBe(off.gates);
+    expect(on.byType.NOT ?? 0).toBeLessThan(off.byType.NOT ?? 0);
+    expect(on.packages).toBe(off.packages! - 1);
+
+    await page.goto(`${BASE_URL}/w/ferrow-controls`);
+    await page.getByRole("link", { name: "Chamber interlock" }).click();
+    await page.getByRole("tab", { name: "Figures" }).click();
+    const figure = (label: string) => page.locator('[data-testid="figures"] dt', { hasText: label }).locator("xpath=following-sibling::dd");
+    const shown = async () => [Number(await figure("Gates").innerText()), Number(await figure("Packages").innerText())];
+    const spare = page.getByLabel("Spare gates as inverters");
+    // on by default; a draft kept by an earlier run may have it off
+    if (!(await spare.isChecked())) await spare.check();
+    await expect.poll(shown, { timeout: 30_000 }).toEqual([on.gates, on.packages]);
+    await spare.uncheck();
+    await expect.poll(shown, { timeout: 30_000 }).toEqual([off.gates, off.packages]);
+    await screenshot(page, "spare-inverters-off");
+    await spare.check();
+    await expect.poll(shown, { timeout: 30_000 }).toEqual([on.gates, on.packages]);
+    await screenshot(page, "spare-inverters-on");
     expect(s.outside).toEqual([]);
   });
 

@@ -1,10 +1,12 @@
 /**
  * `npm run -s cli -- map FILE --family ID [--form and-or|nand|nor|or-and|mixed] [--fanin N] [--fanout N]
- *  [--format json|verilog|vhdl|csv]` maps the minimized design onto a family and prints the JSON
+ *  [--no-spare-inverters] [--format json|verilog|vhdl|csv]` maps the minimized design onto a family and prints the JSON
  * netlist {"inputs", "outputs", "gates", "stats", "warnings"} or the chosen export.
  * --fanin and --fanout override the family's limits: --fanin N caps the gate widths on offer at N
  * (a family that lists no gates offers every width from 2 to N), --fanout N replaces the derived
  * fan-out in unit loads. Output pins count 1 unit load each; complemented inputs are not assumed.
+ * Inverters take spare places of NAND/NOR/XOR/XNOR packages already used when that saves inverter
+ * packages, unless --no-spare-inverters is given.
  * Language errors print the `check` JSON and exit 1; a mapping or limit error prints
  * {"error": {"code", "message"}} and exits 1; an unknown family or bad option exits 2.
  */
