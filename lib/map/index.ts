@@ -2,5 +2,5 @@
 export * from "./netlist";
 export * from "./trees";
 export * from "./simulate";
-export * from "./verify";
+export * from "./verification";
 export * from "./mapper";

@@ -10,8 +10,7 @@ import { GATE_TYPES, MAX_GATE_WIDTH } from "../families/types";
 import type { Gate, GateRole, Netlist, NetlistOutput } from "./netlist";
 import { CONST0, CONST1, topoOrder } from "./netlist";
 import { bufferCount, mergeByArrival, planBufferTree, type Group } from "./trees";
-import type { VerifyResult, VerifyTarget } from "./verify";
-import { verifyNetlist } from "./verify";
+import { verdictAssignment, verifyAgainstCovers, verifyNetlist, type VerifyResult } from "./verification";
 
 export type TargetForm = "and-or" | "nand" | "nor" | "or-and" | "mixed";
 export const TARGET_FORMS: readonly TargetForm[] = ["and-or", "nand", "nor", "or-and", "mixed"];
@@ -573,15 +572,13 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
 
   let verification: VerifyResult | null = null;
   if (options.verify !== false) {
-    const targets: VerifyTarget[] = options.spec
-      ? options.spec.outputs.map((o) => ({ name: o.name, on: o.on, dc: o.dc }))
-      : covers.outputs.map((o) =>
-          o.form === "sop" ? { name: o.name, on: o.cubes, dc: [] } : { name: o.name, off: o.cubes.map((c) => ({ value: (~c.value & c.mask) >>> 0, mask: c.mask })), dc: [] },
-        );
-    verification = verifyNetlist(netlist, options.spec?.inputs ?? covers.inputs, targets);
+    // lib/verify: exhaustive on truth tables up to 20 inputs, SAT above
+    verification = options.spec ? verifyNetlist(netlist, options.spec) : verifyAgainstCovers(netlist, covers.inputs, covers.outputs);
     if (!verification.ok) {
-      const m = verification.mismatches[0]!;
-      throw new MapError(`internal check failed: output ${m.output} gives ${m.got} at inputs ${m.assignment} where ${m.expected} is specified; please report this design`);
+      const v = verification;
+      const expected = v.kind === "missing" ? 1 : 0;
+      const at = verdictAssignment(v, (options.spec ?? covers).inputs.length);
+      throw new MapError(`internal check failed: output ${v.output} gives ${1 - expected} at inputs ${at} where ${expected} is specified; please report this design`);
     }
   }
   return { netlist, verification, warnings, realisations, fanIn: Math.max(kOf("and"), kOf("or")), fanOut, outputPinLoad: pinLoad, form, family: fam };

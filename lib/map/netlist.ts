@@ -41,34 +41,6 @@ export interface Netlist {
   complements: ComplementRail[];
 }
 
-/** Evaluates one gate on bit-parallel words (32 minterms per word). */
-export function evalWord(type: GateType, ins: number[]): number {
-  switch (type) {
-    case "AND":
-    case "NAND": {
-      let v = 0xffffffff;
-      for (const x of ins) v &= x;
-      return (type === "NAND" ? ~v : v) >>> 0;
-    }
-    case "OR":
-    case "NOR": {
-      let v = 0;
-      for (const x of ins) v |= x;
-      return (type === "NOR" ? ~v : v) >>> 0;
-    }
-    case "XOR":
-    case "XNOR": {
-      let v = 0;
-      for (const x of ins) v ^= x;
-      return (type === "XNOR" ? ~v : v) >>> 0;
-    }
-    case "NOT":
-      return ~ins[0]! >>> 0;
-    case "BUF":
-      return ins[0]! >>> 0;
-  }
-}
-
 /**
  * Gates sorted so that each comes after the drivers of its inputs (depth-first
  * from each gate in list order, so a list already in order comes back as it
