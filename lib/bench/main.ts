@@ -6,8 +6,9 @@
  * warmed up first and timed as the fastest of a few runs (see bestOf), in
  * three rounds on the cases both solve; both start from the same prime generation.
  * Then the mapping section (./mapping): map, analyse, verify and export times
- * against the gates built. `-- --quick` shortens both; `-- --mapping` runs the
- * mapping section alone.
+ * against the gates built; then the multi-level section (./multilevel): two-level
+ * against factored gates, levels and packages, with its targets. `-- --quick`
+ * shortens each; `-- --mapping` and/or `-- --multilevel` run those sections alone.
  */
 import { popcount } from "../logic";
 import { columnWeight } from "../minimize/cost";
@@ -15,6 +16,7 @@ import { minimize, type MinimizeResult } from "../minimize";
 import { randomCase, structuredCases, type BenchCase } from "./cases";
 import { genericRoute, loadSolver, type GenericResult } from "./generic";
 import { mappingSection } from "./mapping";
+import { multilevelSection } from "./multilevel";
 
 interface Row {
   c: BenchCase;
@@ -57,8 +59,9 @@ async function bestOf(run: () => number | Promise<number>): Promise<number> {
 
 async function main(): Promise<void> {
   const quick = process.argv.includes("--quick");
-  if (process.argv.includes("--mapping")) {
-    mappingSection(quick);
+  if (process.argv.includes("--mapping") || process.argv.includes("--multilevel")) {
+    if (process.argv.includes("--mapping")) mappingSection(quick);
+    if (process.argv.includes("--multilevel")) multilevelSection(quick);
     return;
   }
   await loadSolver();
@@ -145,6 +148,7 @@ async function main(): Promise<void> {
   );
 
   mappingSection(quick);
+  multilevelSection(quick);
 }
 
 main().then(

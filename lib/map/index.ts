@@ -4,3 +4,4 @@ export * from "./trees";
 export * from "./simulate";
 export * from "./verification";
 export * from "./mapper";
+export * from "./network";

@@ -11,6 +11,7 @@ import type { Gate, GateRole, Netlist, NetlistOutput } from "./netlist";
 import { CONST0, CONST1, topoOrder } from "./netlist";
 import { bufferCount, mergeByArrival, planBufferTree, type Group } from "./trees";
 import { verdictAssignment, verifyAgainstCovers, verifyNetlist, type VerifyResult } from "./verification";
+import type { LogicExpr, LogicNetwork } from "./network";
 
 export type TargetForm = "and-or" | "nand" | "nor" | "or-and" | "mixed";
 export const TARGET_FORMS: readonly TargetForm[] = ["and-or", "nand", "nor", "or-and", "mixed"];
@@ -43,6 +44,12 @@ export interface MapOptions {
   spec?: FunctionSpec;
   /** Verify before returning (default true). */
   verify?: boolean;
+  /**
+   * What the gate choice and the pricing of realisations minimize first:
+   * "gates" (default; then packages, then levels) or "levels" (then gates,
+   * then packages).
+   */
+  aim?: "gates" | "levels";
   /**
    * Put inverters into the spare places of NAND, NOR, XOR or XNOR packages
    * already used (the other inputs tied so the gate inverts) when that saves
@@ -82,7 +89,7 @@ export class MapError extends Error {
 
 // ---- internal tree of the logic to build ---------------------------------
 
-type Op = "and" | "or";
+type Op = "and" | "or" | "xor";
 /**
  * The logic to build. A "flat" node is one operation over all its operands
  * (a product, a sum, an output); each of its shapes is a tree of "op" nodes
@@ -92,6 +99,8 @@ type MNode =
   | { kind: "const"; value: boolean }
   | { kind: "lit"; input: number; plain: boolean }
   | { kind: "op"; op: Op; kids: MNode[]; arrival: number; id: number }
+  /** The complement of a node: built by the node's gate choice in the other polarity. */
+  | { kind: "neg"; of: MNode }
   | Flat;
 
 interface Flat {
@@ -149,7 +158,7 @@ export interface Realisation {
 }
 
 /** For each gate type: the op it computes and the polarities: out = op(in) when out/in both true. */
-const IMPL: Record<Op, { type: GateType; outPlain: boolean; inPlain: boolean }[]> = {
+const IMPL: Record<"and" | "or", { type: GateType; outPlain: boolean; inPlain: boolean }[]> = {
   and: [
     { type: "AND", outPlain: true, inPlain: true },
     { type: "NAND", outPlain: false, inPlain: true },
@@ -174,11 +183,54 @@ const FORM_TYPES: Record<TargetForm, GateType[]> = {
 
 const FREE: Choice = { gates: 0, depth: 0 };
 
+/** Forms in which XOR and XNOR gates may be used (the NAND–NAND and NOR–NOR forms keep to their one type). */
+const XOR_FORMS: readonly TargetForm[] = ["and-or", "or-and", "mixed"];
+
+/** The function of two-level covers as a network: an OR of AND terms (SOP) or an AND of OR terms (POS) per output. */
+export function coverNetwork(covers: CoverSet): LogicNetwork {
+  const n = covers.inputs.length;
+  const lits = (c: Cube): LogicExpr[] => {
+    const out: LogicExpr[] = [];
+    for (let i = 0; i < n; i++) {
+      const bit = 1 << (n - 1 - i);
+      if (c.mask & bit) out.push(c.value & bit ? { kind: "input", index: i } : { kind: "not", arg: { kind: "input", index: i } });
+    }
+    return out;
+  };
+  return {
+    inputs: covers.inputs.slice(),
+    outputs: covers.outputs.map((o) => ({
+      name: o.name,
+      expr: o.form === "sop"
+        ? { kind: "or", args: o.cubes.map((c): LogicExpr => ({ kind: "and", args: lits(c) })) }
+        : { kind: "and", args: o.cubes.map((c): LogicExpr => ({ kind: "or", args: lits(c) })) },
+    })),
+  };
+}
+
 /**
  * Maps covers onto a family. Throws MapError when the family cannot build the
  * form (a gate type missing, a fan-out below 2) or when verification fails.
+ * Without `options.spec` the netlist is proven equal to the covers.
  */
 export function mapCovers(covers: CoverSet, family: Family, options: MapOptions = {}): MapResult {
+  return mapLogic(coverNetwork(covers), family, options, (netlist) =>
+    options.spec ? verifyNetlist(netlist, options.spec) : verifyAgainstCovers(netlist, covers.inputs, covers.outputs),
+  );
+}
+
+/**
+ * Maps a multi-level network (lib/factor builds one) onto a family: shared
+ * sub-expressions are built once, nested operations of one kind are merged
+ * into one tree, XOR and XNOR gates are used when the family offers them and
+ * the form allows them (else an XOR becomes x·y' + x'·y). Verified against
+ * `options.spec` when given (and `options.verify` is not false).
+ */
+export function mapNetwork(network: LogicNetwork, family: Family, options: MapOptions = {}): MapResult {
+  return mapLogic(network, family, options, (netlist) => (options.spec ? verifyNetlist(netlist, options.spec) : null));
+}
+
+function mapLogic(network: LogicNetwork, family: Family, options: MapOptions, check: (netlist: Netlist) => VerifyResult | null): MapResult {
   const form = options.form ?? "and-or";
   if (options.fanIn !== undefined && (!Number.isInteger(options.fanIn) || options.fanIn < 2 || options.fanIn > MAX_GATE_WIDTH)) {
     throw new MapError(`fan-in ${options.fanIn} cannot be used: give a whole number from 2 to ${MAX_GATE_WIDTH}`);
@@ -202,6 +254,7 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
   const pinLoad = options.outputPinLoad ?? 1;
   const rails = options.complementedInputs ?? false;
   const spare = options.spareInverters ?? true;
+  const aim = options.aim ?? "gates";
   const warnings: string[] = [];
 
   const offers = offeredGates(fam);
@@ -212,22 +265,24 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
     throw new MapError(`${family.name} offers no ${FORM_TYPES[form].join(" or ")} gates for the ${form} form; choose another form or family`);
   }
   const maxWidth = (t: GateType) => Math.max(0, ...(widths.get(t) ?? []));
-  const kOf = (op: Op) => Math.max(...IMPL[op].filter((i) => allowed.includes(i.type)).map((i) => maxWidth(i.type)));
+  const xorTypes = XOR_FORMS.includes(form) ? (["XOR", "XNOR"] as GateType[]).filter((t) => maxWidth(t) >= 2) : [];
+  const kOf = (op: Op) =>
+    op === "xor" ? Math.max(0, ...xorTypes.map(maxWidth)) : Math.max(...IMPL[op].filter((i) => allowed.includes(i.type)).map((i) => maxWidth(i.type)));
   const fitWidth = (t: GateType, m: number) => (widths.get(t) ?? []).find((w) => w >= m);
-  for (const op of ["and", "or"] as Op[]) {
+  for (const op of ["and", "or"] as const) {
     if (kOf(op) < 2) throw new MapError(`${family.name} offers no gate of 2 or more inputs for the ${form} form; raise the fan-in or choose another family`);
   }
   const notOffered = (widths.get("NOT")?.length ?? 0) > 0;
   const bufOffered = (widths.get("BUF")?.length ?? 0) > 0;
 
   // ---- names ----
-  const n = covers.inputs.length;
-  const inputSet = new Set(covers.inputs);
-  for (const o of covers.outputs) if (inputSet.has(o.name)) throw new MapError(`output ${o.name} has the name of an input; rename one of them`);
-  const usedBase = new Set<string>([...covers.inputs, ...covers.outputs.map((o) => o.name), CONST0, CONST1]);
+  const n = network.inputs.length;
+  const inputSet = new Set(network.inputs);
+  for (const o of network.outputs) if (inputSet.has(o.name)) throw new MapError(`output ${o.name} has the name of an input; rename one of them`);
+  const usedBase = new Set<string>([...network.inputs, ...network.outputs.map((o) => o.name), CONST0, CONST1]);
   const used = usedBase;
   const complements = rails
-    ? covers.inputs.map((input) => {
+    ? network.inputs.map((input) => {
         let net = `${input}_n`;
         while (used.has(net)) net = `${net}_`;
         used.add(net);
@@ -244,15 +299,17 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
   // ---- build the logic: flat operations, each with its tree shapes ----
   const constNode = (v: boolean): MNode => ({ kind: "const", value: v });
   const litArrival = (plain: boolean) => (plain || rails ? 0 : 1);
-  const arrivalOf = (x: MNode): number => (x.kind === "op" || x.kind === "flat" ? x.arrival : x.kind === "lit" ? litArrival(x.plain) : 0);
+  const arrivalOf = (x: MNode): number =>
+    x.kind === "op" || x.kind === "flat" ? x.arrival : x.kind === "lit" ? litArrival(x.plain) : x.kind === "neg" ? arrivalOf(x.of) : 0;
 
   const keyOf = new Map<MNode, string>();
   // Op and flat nodes are numbered, so that the choices of a policy live in an array.
   let nodes = 0;
-  const litKeys = covers.inputs.map((_, i) => [`!x${i}`, `x${i}`]);
+  const litKeys = network.inputs.map((_, i) => [`!x${i}`, `x${i}`]);
   const nodeKey = (x: MNode): string => {
     if (x.kind === "const") return x.value ? "#1" : "#0";
     if (x.kind === "lit") return litKeys[x.input]![x.plain ? 1 : 0]!;
+    if (x.kind === "neg") return `~${nodeKey(x.of)}`;
     let k = keyOf.get(x);
     if (k === undefined) {
       k = `${x.op}(${x.kids.map(nodeKey).sort().join(",")})`;
@@ -272,7 +329,7 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
     }
     return t;
   };
-  const makeOp = (op: Op, kids: MNode[]): MNode => {
+  const makeOp = (op: "and" | "or", kids: MNode[]): MNode => {
     const identity = op === "and";
     const seen = new Set<string>();
     const ks = kids.filter((k) => {
@@ -291,37 +348,119 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
   };
 
   // One node per literal, shared by every term that reads it.
-  const litNodes: MNode[][] = covers.inputs.map((_, input) => [false, true].map((plain): MNode => ({ kind: "lit", input, plain })));
-  const cubeLits = (c: Cube): MNode[] => {
-    const lits: MNode[] = [];
-    for (let i = 0; i < n; i++) {
-      const bit = 1 << (n - 1 - i);
-      if (c.mask & bit) lits.push(litNodes[i]![(c.value & bit) !== 0 ? 1 : 0]!);
-    }
-    return lits;
-  };
+  const litNodes: MNode[][] = network.inputs.map((_, input) => [false, true].map((plain): MNode => ({ kind: "lit", input, plain })));
 
-  const roots = covers.outputs.map((o) => {
-    if (o.form === "sop") return makeOp("or", o.cubes.map((c) => makeOp("and", cubeLits(c))));
-    return makeOp("and", o.cubes.map((c) => makeOp("or", cubeLits(c))));
-  });
+
+  // The complement of a node, one object per node.
+  const negs = new Map<MNode, MNode>();
+  const negate = (m: MNode): MNode => {
+    if (m.kind === "const") return constNode(!m.value);
+    if (m.kind === "lit") return litNodes[m.input]![m.plain ? 0 : 1]!;
+    if (m.kind === "neg") return m.of;
+    let x = negs.get(m);
+    if (!x) {
+      x = { kind: "neg", of: m };
+      negs.set(m, x);
+    }
+    return x;
+  };
+  /** An XOR over the kids: constants and complements move to the output's polarity, pairs of equal kids cancel. */
+  const makeXor = (kids: MNode[]): MNode => {
+    let odd = false;
+    const kept = new Map<string, MNode>();
+    for (let k of kids) {
+      if (k.kind === "const") {
+        odd = odd !== k.value;
+        continue;
+      }
+      if (k.kind === "neg" || (k.kind === "lit" && !k.plain)) {
+        odd = !odd;
+        k = negate(k);
+      }
+      const key = nodeKey(k);
+      if (kept.has(key)) kept.delete(key);
+      else kept.set(key, k);
+    }
+    const ks = [...kept.values()];
+    let m: MNode;
+    if (ks.length === 0) m = constNode(false);
+    else if (ks.length === 1) m = ks[0]!;
+    else {
+      const flat: Flat = { kind: "flat", id: nodes++, op: "xor", kids: ks, arrival: 0, shapes: new Map() };
+      flat.arrival = arrivalOf(shapeOf(flat, kOf("xor")));
+      m = flat;
+    }
+    return odd ? negate(m) : m;
+  };
+  // Parents of each expression (and outputs): a single-use operand of the same kind merges into its parent's tree.
+  const uses = new Map<LogicExpr, number>();
+  const count = (e: LogicExpr) => {
+    const u = (uses.get(e) ?? 0) + 1;
+    uses.set(e, u);
+    if (u > 1) return;
+    if (e.kind === "not") count(e.arg);
+    else if (e.kind === "and" || e.kind === "or" || e.kind === "xor") for (const a of e.args) count(a);
+  };
+  for (const o of network.outputs) count(o.expr);
+  const operands = (kind: "and" | "or" | "xor", e: LogicExpr & { args: LogicExpr[] }, out: LogicExpr[]) => {
+    for (const a of e.args) {
+      if (a.kind === kind && uses.get(a) === 1) operands(kind, a, out);
+      else out.push(a);
+    }
+    return out;
+  };
+  /** x1 ⊕ … ⊕ xk as ANDs and ORs (x·y' + x'·y), pairwise in a balanced tree, for a form or family without XOR gates. */
+  const xorByAndOr = (args: LogicExpr[]): LogicExpr => {
+    if (args.length === 1) return args[0]!;
+    const half = Math.ceil(args.length / 2);
+    const a = xorByAndOr(args.slice(0, half));
+    const b = xorByAndOr(args.slice(half));
+    return {
+      kind: "or",
+      args: [
+        { kind: "and", args: [a, { kind: "not", arg: b }] },
+        { kind: "and", args: [{ kind: "not", arg: a }, b] },
+      ],
+    };
+  };
+  const built = new Map<LogicExpr, MNode>();
+  const toNode = (e: LogicExpr): MNode => {
+    const hit = built.get(e);
+    if (hit) return hit;
+    let m: MNode;
+    switch (e.kind) {
+      case "const": m = constNode(e.value); break;
+      case "input":
+        if (e.index < 0 || e.index >= n) throw new Error(`the network reads input ${e.index} of ${n}`);
+        m = litNodes[e.index]![1]!;
+        break;
+      case "not": m = negate(toNode(e.arg)); break;
+      case "xor": {
+        const args = operands("xor", e, []);
+        m = xorTypes.length ? makeXor(args.map(toNode)) : toNode(xorByAndOr(args));
+        break;
+      }
+      default: m = makeOp(e.kind, operands(e.kind, e, []).map(toNode));
+    }
+    built.set(e, m);
+    return m;
+  };
+  const roots = network.outputs.map((o) => toNode(o.expr));
 
   /** Gate widths a flat operation's trees are tried at: the widest first, then every other width of the form's gates for it. */
   const everyWidth = (op: Op): number[] => {
     const ks = [kOf(op)];
-    for (const impl of IMPL[op]) {
-      if (!allowed.includes(impl.type)) continue;
-      for (const w of widths.get(impl.type) ?? []) if (w >= 2 && !ks.includes(w)) ks.push(w);
-    }
+    const types = op === "xor" ? xorTypes : IMPL[op].filter((i) => allowed.includes(i.type)).map((i) => i.type);
+    for (const t of types) for (const w of widths.get(t) ?? []) if (w >= 2 && !ks.includes(w)) ks.push(w);
     return ks;
   };
-  const implsOf: Record<Op, (typeof IMPL)[Op]> = {
+  const implsOf: Record<"and" | "or", (typeof IMPL)["and"]> = {
     and: IMPL.and.filter((i) => allowed.includes(i.type)),
     or: IMPL.or.filter((i) => allowed.includes(i.type)),
   };
   const widthsFor: Record<Policy["widths"], Record<Op, number[]>> = {
-    widest: { and: [kOf("and")], or: [kOf("or")] },
-    every: { and: everyWidth("and"), or: everyWidth("or") },
+    widest: { and: [kOf("and")], or: [kOf("or")], xor: [kOf("xor")] },
+    every: { and: everyWidth("and"), or: everyWidth("or"), xor: everyWidth("xor") },
   };
   const perPackage = new Map<string, number>();
   for (const o of offers) for (const w of o.widths) perPackage.set(`${o.type}/${w.width}`, w.perPackage);
@@ -333,11 +472,15 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
     const inverterChoice: Choice = { gates: policy.inverterCost, depth: 1 };
     // memo[2·id + polarity]
     const memo: Choice[] = [];
-    const better = (a: Choice, b: Choice) => a.gates < b.gates - 1e-9 || (Math.abs(a.gates - b.gates) < 1e-9 && a.depth < b.depth);
+    const better =
+      aim === "levels"
+        ? (a: Choice, b: Choice) => a.depth < b.depth || (a.depth === b.depth && a.gates < b.gates - 1e-9)
+        : (a: Choice, b: Choice) => a.gates < b.gates - 1e-9 || (Math.abs(a.gates - b.gates) < 1e-9 && a.depth < b.depth);
     const ks = widthsFor[policy.widths];
     const cost = (x: MNode, pol: boolean): Choice => {
       if (x.kind === "const") return FREE;
       if (x.kind === "lit") return x.plain === pol || rails ? FREE : inverterChoice;
+      if (x.kind === "neg") return cost(x.of, !pol);
       const hit = memo[2 * x.id + (pol ? 1 : 0)];
       if (hit) return hit;
       {
@@ -349,6 +492,28 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
               const c = cost(shape, want);
               const idx = want ? 1 : 0;
               if (best[idx] === null || better(c, best[idx]!)) best[idx] = { gates: c.gates, depth: c.depth, shape, width: Math.min(k, x.kids.length) };
+            }
+          }
+        } else if (x.op === "xor") {
+          for (const type of xorTypes) {
+            if (fitWidth(type, x.kids.length) === undefined) continue;
+            for (const kidPol of [true, false]) {
+              let gates = 1;
+              let depth = 0;
+              for (const kid of x.kids) {
+                const c = cost(kid, kidPol);
+                gates += c.gates;
+                if (c.depth > depth) depth = c.depth;
+              }
+              depth += 1;
+              // XOR of complemented operands flips the output once per operand
+              const outPlain = ((type === "XNOR" ? 1 : 0) ^ (kidPol ? 0 : x.kids.length & 1)) === 0;
+              for (const want of [false, true]) {
+                const inv = outPlain !== want;
+                const c: Choice = { gates: gates + (inv ? 1 : 0), depth: depth + (inv ? 1 : 0), type, invertOut: inv, kidPol };
+                const idx = want ? 1 : 0;
+                if (best[idx] === null || better(c, best[idx]!)) best[idx] = c;
+              }
             }
           }
         } else {
@@ -383,8 +548,14 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
   /** The choices met on the way the netlist is emitted, as numbers: equal lists give equal netlists. */
   const choicesMet = (cost: CostFn): number[] => {
     const out: number[] = [];
+    // a node met again (a shared sub-expression) has the same choices: walked once
+    const met: boolean[] = [];
     const walk = (x: MNode, pol: boolean) => {
       if (x.kind === "const" || x.kind === "lit") return;
+      if (x.kind === "neg") return walk(x.of, !pol);
+      const slot = 2 * x.id + (pol ? 1 : 0);
+      if (met[slot]) return;
+      met[slot] = true;
       const c = cost(x, pol);
       if (x.kind === "flat") {
         out.push(c.width!);
@@ -448,12 +619,23 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
       inverted.set(out, net);
       return out;
     };
+    // the net of each node and polarity emitted, so a shared sub-expression is walked once
+    const emitted: string[] = [];
     const emit = (x: MNode, pol: boolean): string => {
       if (x.kind === "const") return x.value === pol ? CONST1 : CONST0;
       if (x.kind === "lit") {
-        const name = covers.inputs[x.input]!;
+        const name = network.inputs[x.input]!;
         return x.plain === pol ? name : invert(name);
       }
+      if (x.kind === "neg") return emit(x.of, !pol);
+      const slot = 2 * x.id + (pol ? 1 : 0);
+      const done = emitted[slot];
+      if (done !== undefined) return done;
+      const net = emitNode(x, pol);
+      emitted[slot] = net;
+      return net;
+    };
+    const emitNode = (x: Extract<MNode, { id: number }>, pol: boolean): string => {
       const c = cost(x, pol);
       if (x.kind === "flat") return emit(c.shape!, pol);
       const type = c.type!;
@@ -470,7 +652,7 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
 
     // ---- name output nets after their outputs ----
     const rename = new Map<string, string>();
-    const outputs: NetlistOutput[] = covers.outputs.map((o, i) => {
+    const outputs: NetlistOutput[] = network.outputs.map((o, i) => {
       const net = outNets[i]!;
       if (driverOf.has(net) && !rename.has(net)) rename.set(net, o.name);
       return { name: o.name, net: rename.get(net) ?? net };
@@ -520,13 +702,13 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
   const finishNetlist = (e: Emitted) => {
     const warnings: string[] = [];
     // ---- fan-out: buffer trees where a load exceeds the fan-out ----
-    let live = insertBuffers(e.live, e.outputs, fanOut, pinLoad, covers.inputs, railNets, e.fresh, bufOffered, warnings);
+    let live = insertBuffers(e.live, e.outputs, fanOut, pinLoad, network.inputs, railNets, e.fresh, bufOffered, warnings);
     if (!bufOffered && live.some((g) => g.role === "buffer")) warnings.push(`${family.name} lists no buffer; BUF gates were used for the fan-out trees`);
 
     // ---- inverters into the spare places of packages already on the board ----
     if (spare) live = fillSparePlaces(live, offers);
 
-    const netlist: Netlist = { inputs: covers.inputs.slice(), outputs: e.outputs, gates: live, complements };
+    const netlist: Netlist = { inputs: network.inputs.slice(), outputs: e.outputs, gates: live, complements };
     netlist.gates = topoOrder(netlist).map((g, i) => ({ ...g, id: `g${i + 1}` }));
     return { netlist, warnings, gates: netlist.gates.length, packages: knownPackages ? packageCount(netlist.gates, perPackage) : null, depth: gateLevels(netlist) };
   };
@@ -538,8 +720,8 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
   // first policy's (the mapper's original one).
   type Figures = { gates: number; packages: number | null; depth: number };
   const ahead = (a: Figures, b: Figures) => {
-    const x = [a.gates, a.packages ?? 0, a.depth];
-    const y = [b.gates, b.packages ?? 0, b.depth];
+    const x = aim === "levels" ? [a.depth, a.gates, a.packages ?? 0] : [a.gates, a.packages ?? 0, a.depth];
+    const y = aim === "levels" ? [b.depth, b.gates, b.packages ?? 0] : [b.gates, b.packages ?? 0, b.depth];
     const k = x.findIndex((v, j) => v !== y[j]);
     return k >= 0 && x[k]! < y[k]!;
   };
@@ -573,11 +755,11 @@ export function mapCovers(covers: CoverSet, family: Family, options: MapOptions 
   let verification: VerifyResult | null = null;
   if (options.verify !== false) {
     // lib/verify: exhaustive on truth tables up to 20 inputs, SAT above
-    verification = options.spec ? verifyNetlist(netlist, options.spec) : verifyAgainstCovers(netlist, covers.inputs, covers.outputs);
-    if (!verification.ok) {
+    verification = check(netlist);
+    if (verification && !verification.ok) {
       const v = verification;
       const expected = v.kind === "missing" ? 1 : 0;
-      const at = verdictAssignment(v, (options.spec ?? covers).inputs.length);
+      const at = verdictAssignment(v, (options.spec ?? network).inputs.length);
       throw new MapError(`internal check failed: output ${v.output} gives ${1 - expected} at inputs ${at} where ${expected} is specified; please report this design`);
     }
   }
