@@ -139,10 +139,10 @@ export function runStages(job: StageJob, onProgress?: (p: Progress) => void): St
   try {
     const twoLevel = mapCovers(covers, family, mapOptions);
     // the factored structure (lib/factor) when the settings keep it or the caller compares (./structures)
-    const factored = settings.structure === "factored" || job.compare !== false;
-    if (factored) onProgress?.({ stage: "factor", cost: covers.cost, lowerBound: covers.lowerBound });
-    else onProgress?.({ stage: "analyse", cost: covers.cost, lowerBound: covers.lowerBound });
-    chosen = chooseStructure(spec, covers, family, settings, mapOptions, twoLevel, analyseMapped, factored);
+    const compare = job.compare !== false;
+    chosen = chooseStructure(spec, covers, family, settings, mapOptions, twoLevel, analyseMapped, compare, (stage) =>
+      onProgress?.({ stage, cost: covers.cost, lowerBound: covers.lowerBound }),
+    );
   } catch (e) {
     if (e instanceof MapError) return { ok: false, error: { code: "mapping", message: e.message } };
     throw e;

@@ -10,7 +10,7 @@ import type { FunctionSpec } from "../logic/index";
 import type { MinimizeResult } from "../minimize/index";
 import type { Family } from "../families/index";
 import type { MapOptions, MapResult } from "../map/index";
-import { mapFactored, type Structure as FactoredForm } from "../factor/index";
+import { mapFactored, type FactorResult, type Structure as FactoredForm } from "../factor/index";
 import type { Analysis } from "../analysis/index";
 import type { ResolvedSettings, Structure } from "./settings";
 
@@ -71,11 +71,17 @@ export function chooseStructure(
   twoLevel: MapResult,
   analyse: (m: MapResult) => Analysis,
   compare = false,
+  onStage?: (stage: "factor" | "analyse") => void,
 ): StructureChoice {
   const keep = settings.structure;
+  let f: FactorResult | null = null;
+  if (keep === "factored" || compare) {
+    onStage?.("factor");
+    f = mapFactored(spec, minimized, family, { ...mapOptions, aim: settings.aim, twoLevel });
+  }
+  onStage?.("analyse");
   const twoLevelAnalysis = analyse(twoLevel);
-  if (keep === "two-level" && !compare) return { mapped: twoLevel, analysis: twoLevelAnalysis, structures: [figures("two-level", true, twoLevel, twoLevelAnalysis)] };
-  const f = mapFactored(spec, minimized, family, { ...mapOptions, aim: settings.aim, twoLevel });
+  if (!f) return { mapped: twoLevel, analysis: twoLevelAnalysis, structures: [figures("two-level", true, twoLevel, twoLevelAnalysis)] };
   const factoredAnalysis = f.mapped === twoLevel ? twoLevelAnalysis : analyse(f.mapped);
   const structures = [
     figures("two-level", keep === "two-level", twoLevel, twoLevelAnalysis),

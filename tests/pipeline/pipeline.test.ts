@@ -88,7 +88,7 @@ describe("compileNow (the pipeline on this thread)", () => {
     expect(designSettingsSchema.safeParse({ form: "nand", fanIn: 4 }).success).toBe(true);
     expect(designSettingsSchema.safeParse({ fanIn: 1 }).success).toBe(false);
     expect(designSettingsSchema.safeParse({ form: "pla" }).success).toBe(false);
-    expect(resolveSettings({ form: "nor" })).toEqual({ form: "nor", cost: "products", complementedInputs: false, outputPinLoad: 1, clockMHz: 10, activity: 0.25, heuristic: false });
+    expect(resolveSettings({ form: "nor" })).toEqual({ form: "nor", cost: "products", complementedInputs: false, outputPinLoad: 1, clockMHz: 10, activity: 0.25, heuristic: false, spareInverters: true, structure: "two-level", aim: "gates" });
     // A stored family id among the settings is not a setting.
     expect(resolveSettings({ familyId: "x" } as never)).not.toHaveProperty("familyId");
   });
@@ -121,6 +121,6 @@ describe("compile (the pipeline on an executor)", () => {
   it("reports progress by stage", async () => {
     const stages: string[] = [];
     await compile({ source: LAMPS, family: family("ttl-std-5v") }, runInThread, { onProgress: (p) => stages.push(p.stage) });
-    expect(stages).toEqual(["minimize", "map", "analyse", "export"]);
+    expect(stages).toEqual(["minimize", "map", "factor", "analyse", "export"]);
   });
 });
