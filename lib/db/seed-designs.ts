@@ -1,6 +1,7 @@
 /**
  * The demo designs of Ferrow Lock & Weir, each with revisions that tell how it
- * grew: an added impossible combination, a family change, a fan-in fix. Every
+ * grew: an added impossible combination, a family change, a fan-in fix, a
+ * factored netlist kept instead of the two-level one. Every
  * figure stored comes from running the real pipeline on that revision.
  */
 import { readFileSync } from "node:fs";
@@ -77,6 +78,7 @@ export const DEMO_DESIGNS: DemoDesign[] = [
       { message: "Segments from the level code", author: "designer", family: "ttl-std-5v", edit: withoutNever },
       { message: "Codes 10 to 15 cannot come from the probe", author: "designer", family: "ttl-std-5v" },
       { message: "Display board runs at 3.3 V", author: "designer", family: "lvcmos-3v3" },
+      { message: "Factored segment logic: six gates fewer on the 3.3 V board, same packages", author: "designer", family: "lvcmos-3v3", settings: { structure: "factored" } },
     ],
   },
   {

@@ -166,7 +166,7 @@ export function runStages(job: StageJob, onProgress?: (p: Progress) => void): St
       analysis,
       verification: mapped.verification,
       warnings,
-      stats: revisionStats(spec, covers, analysis, mapped.verification),
+      stats: revisionStats(spec, covers, analysis, mapped.verification, settings.structure),
       structures,
       exports,
     },
