@@ -10,7 +10,7 @@ const TITLES: Record<Structure, string> = { "two-level": "Two-level", factored: 
 
 /** How the factored structure was reached, in words (lib/factor/README.md). */
 const BUILT_WORDS: Record<NonNullable<StructureFigures["built"]>, string> = {
-  decomposed: "decomposed input by input, exclusive-ors split off",
+  decomposed: "decomposed on its inputs, exclusive-ors and shared sub-functions split off",
   algebraic: "covers factored algebraically, common terms shared",
   "two-level": "factoring found nothing better by the aim; the two-level netlist",
 };

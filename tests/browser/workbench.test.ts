@@ -204,6 +204,7 @@ describe("the designer's workbench in chromium", () => {
     await page.waitForURL(/\/r\/\d+$/);
     await expect.poll(() => page.locator('[data-testid="structures"] th[data-kept="true"]').getAttribute("data-structure"), { timeout: 30_000 }).toBe("factored");
     expect(await page.getByLabel("Keep the two-level structure").isDisabled()).toBe(true);
+    await expect.poll(symbols, { timeout: 30_000 }).toBe(fac.gates);
     await screenshot(page, "structures-revision");
     expect(s.outside).toEqual([]);
   });
