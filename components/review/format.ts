@@ -99,6 +99,9 @@ export const SETTING_LABELS: Record<string, string> = {
   clockMHz: "Clock (MHz)",
   activity: "Activity",
   heuristic: "Heuristic minimizer",
+  spareInverters: "Spare gates as inverters",
+  structure: "Structure kept (two-level or factored)",
+  aim: "Factoring aims at (gates or levels)",
 };
 
 export function fmtStamp(iso: string): string {

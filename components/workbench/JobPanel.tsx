@@ -18,6 +18,7 @@ export interface JobInfo {
 const STAGE_WORDS: Record<string, string> = {
   minimize: "minimizing",
   map: "mapping onto the family and proving the netlist",
+  factor: "building and proving the factored structure",
   analyse: "working out the figures",
   export: "finishing",
 };

@@ -9,6 +9,7 @@ import { useCompile } from "./useCompile";
 import { MinimizedPanel } from "./MinimizedPanel";
 import { GateTable } from "./GateTable";
 import { FiguresPanel } from "./FiguresPanel";
+import { StructuresPanel } from "./StructuresPanel";
 import { Schematic } from "@/components/schematic/Schematic";
 
 const EquationEditor = dynamic(() => import("@/components/editor/EquationEditor"), { ssr: false });
@@ -65,6 +66,9 @@ export function RevisionView({ ws, designId, number }: { ws: string; designId: s
             <>
               <div className="rounded border border-rule bg-sheet p-2">
                 <Schematic netlist={result.netlist} critical={critical} selected={selected} onSelect={setSelected} />
+              </div>
+              <div className="rounded border border-rule bg-sheet p-3">
+                <StructuresPanel structures={result.structures} settings={settings} onChange={() => {}} readOnly />
               </div>
               <div className="rounded border border-rule bg-sheet p-3"><MinimizedPanel covers={result.covers} /></div>
               <div className="rounded border border-rule bg-sheet p-3"><FiguresPanel analysis={result.analysis} /></div>

@@ -31,6 +31,7 @@ export function RevisionsPanel({ ws, designId, revisions }: { ws: string; design
               <th className="px-2 py-1.5">Message</th>
               <th className="px-2 py-1.5">Author</th>
               <th className="px-2 py-1.5">When</th>
+              <th className="px-2 py-1.5">Structure</th>
               <th className="px-2 py-1.5 text-right">Gates</th>
               <th className="px-2 py-1.5 text-right">Depth</th>
               <th className="px-2 py-1.5 text-right">Delay (est.)</th>
@@ -47,6 +48,7 @@ export function RevisionsPanel({ ws, designId, revisions }: { ws: string; design
                 <td className="px-2 py-1">{r.message}</td>
                 <td className="px-2 py-1 text-graphite">{r.author.name}</td>
                 <td className="px-2 py-1 text-graphite" title={r.createdAt}>{fmtWhen(r.createdAt)}</td>
+                <td className="px-2 py-1 text-graphite" data-testid="revision-structure">{r.stats.structure === "factored" ? "factored" : "two-level"}</td>
                 <td className="px-2 py-1 text-right font-mono">{fmtInt(r.stats.gates as number | undefined)}</td>
                 <td className="px-2 py-1 text-right font-mono">{fmtInt(r.stats.depth as number | undefined)}</td>
                 <td className="px-2 py-1 text-right font-mono">{fmtNs(r.stats.delayNs as number | null | undefined)}</td>

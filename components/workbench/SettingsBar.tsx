@@ -84,6 +84,11 @@ export function SettingsBar({ families, familyId, onFamily, settings, onChange, 
           onChange={(e) => set("complementedInputs", e.target.checked || undefined)} />
         Complemented inputs available
       </label>
+      <label className="flex items-center gap-1.5 pb-1" title="Inverters go into unused places of NAND, NOR, XOR or XNOR packages already on the board (other inputs tied) when that saves inverter packages">
+        <input type="checkbox" disabled={readOnly} checked={settings.spareInverters ?? true}
+          onChange={(e) => set("spareInverters", e.target.checked ? undefined : false)} />
+        Spare gates as inverters
+      </label>
       <label className="flex items-center gap-1.5 pb-1">
         <input type="checkbox" disabled={readOnly} checked={settings.heuristic ?? false}
           onChange={(e) => set("heuristic", e.target.checked || undefined)} />

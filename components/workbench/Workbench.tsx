@@ -14,6 +14,7 @@ import { SettingsBar } from "./SettingsBar";
 import { MinimizedPanel } from "./MinimizedPanel";
 import { GateTable } from "./GateTable";
 import { FiguresPanel } from "./FiguresPanel";
+import { StructuresPanel } from "./StructuresPanel";
 import { NotesPanel } from "./NotesPanel";
 import { RevisionsPanel } from "./RevisionsPanel";
 import { SchematicPanel } from "@/components/schematic/SchematicPanel";
@@ -273,6 +274,11 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
               </div>
             )}
           </div>
+          {result && (
+            <div className={`rounded border border-rule bg-sheet p-3 ${stale ? "opacity-60" : ""}`}>
+              <StructuresPanel structures={result.structures} settings={settings} onChange={setSettings} readOnly={!mayEdit} />
+            </div>
+          )}
           <div className={`rounded border border-rule bg-sheet ${stale ? "opacity-60" : ""}`}>
             <div role="tablist" className="flex border-b border-rule text-sm">
               {([

@@ -7,7 +7,7 @@
 import type { Family, GateType } from "../families/types";
 import { familyFanOut, offeredGates } from "../families/derive";
 import { compatibility, VERDICT_WORDS, type Verdict } from "../families/compat";
-import type { Gate, Netlist } from "../map/netlist";
+import type { Netlist } from "../map/netlist";
 import { CONST0, CONST1, topoOrder } from "../map/netlist";
 
 export const CAUTION =
@@ -160,65 +160,107 @@ export function analyse(netlist: Netlist, family: Family, options: AnalysisOptio
   } else transistorsNote = "not counted: the family gives no transistor counts";
 
   // ---- loads ----
-  const load = new Map<string, number>();
-  const add = (net: string, w: number) => {
-    if (net !== CONST0 && net !== CONST1) load.set(net, (load.get(net) ?? 0) + w);
+  // Nets are numbered once (inputs, complemented inputs, then gate outputs in order) and every per-net
+  // figure below lives in a typed array indexed by that number: one map lookup per gate pin in all.
+  const netId = new Map<string, number>();
+  const netName: string[] = [];
+  const driverName: string[] = [];
+  const driverGate: number[] = [];
+  const idOf = (net: string): number => {
+    let id = netId.get(net);
+    if (id === undefined) {
+      id = netName.length;
+      netId.set(net, id);
+      netName.push(net);
+      driverName.push("?");
+      driverGate.push(-1);
+    }
+    return id;
   };
-  for (const g of gates) for (const i of g.inputs) add(i, 1);
-  for (const o of netlist.outputs) add(o.net, pinLoad);
-  const driverName = new Map<string, string>();
-  for (const i of netlist.inputs) driverName.set(i, "input");
-  for (const r of netlist.complements) driverName.set(r.net, "input");
-  for (const g of gates) driverName.set(g.output, g.id);
-  const loads: NetLoadRow[] = [...load.entries()].map(([net, l]) => ({
-    net,
-    load: r3(l),
-    limit: fanOut,
-    status: l > fanOut + 1e-9 ? "over" : Math.abs(l - fanOut) < 1e-9 ? "at-limit" : "ok",
-    driver: driverName.get(net) ?? "?",
-  }));
+  for (const i of netlist.inputs) driverName[idOf(i)] = "input";
+  for (const r of netlist.complements) driverName[idOf(r.net)] = "input";
+  gates.forEach((g, gi) => {
+    const id = idOf(g.output);
+    driverName[id] = g.id;
+    driverGate[id] = gi;
+  });
+  // Gate pins as one flat array: the pins of gate gi are pin[pinAt[gi]] up to pin[pinAt[gi + 1]].
+  const pinAt = new Int32Array(gates.length + 1);
+  gates.forEach((g, gi) => (pinAt[gi + 1] = pinAt[gi]! + g.inputs.length));
+  const pin = new Int32Array(pinAt[gates.length]!);
+  gates.forEach((g, gi) => g.inputs.forEach((net, k) => (pin[pinAt[gi]! + k] = idOf(net))));
+  const outIds = netlist.outputs.map((o) => idOf(o.net));
+  const constId = (net: string) => net === CONST0 || net === CONST1;
+  const isConst = new Uint8Array(netName.length);
+  netName.forEach((nm, id) => (isConst[id] = constId(nm) ? 1 : 0));
+  const load = new Float64Array(netName.length);
+  // Rows come in the order nets are first loaded (gate pins in gate order, then output pins).
+  const seen = new Uint8Array(netName.length);
+  const rowOrder: number[] = [];
+  const add = (id: number, w: number) => {
+    if (isConst[id]) return;
+    if (!seen[id]) {
+      seen[id] = 1;
+      rowOrder.push(id);
+    }
+    load[id] = load[id]! + w;
+  };
+  for (let k = 0; k < pin.length; k++) add(pin[k]!, 1);
+  for (const id of outIds) add(id, pinLoad);
+  const loads: NetLoadRow[] = rowOrder.map((id) => {
+    const l = load[id]!;
+    return {
+      net: netName[id]!,
+      load: r3(l),
+      limit: fanOut,
+      status: l > fanOut + 1e-9 ? "over" : Math.abs(l - fanOut) < 1e-9 ? "at-limit" : "ok",
+      driver: driverName[id]!,
+    };
+  });
   // A loop, not a spread: a netlist may hold more nets than a call may take arguments.
   const maxLoad = loads.reduce((m, l) => (l.load > m ? l.load : m), 0);
   for (const l of loads) if (l.status === "over") warnings.push(`net ${l.net} carries ${l.load} unit loads, over the fan-out of ${fanOut}`);
 
   // ---- depth and critical path ----
   const hasDelay = family.intrinsicNs !== undefined;
-  const gateDelay = (g: Gate) => (family.intrinsicNs ?? 0) + (family.perLoadNs ?? 0) * (load.get(g.output) ?? 0);
-  const level = new Map<string, number>();
-  const arrival = new Map<string, number>();
-  const via = new Map<string, Gate>();
-  for (const g of gates) {
+  const gateDelay = (gi: number) => (family.intrinsicNs ?? 0) + (family.perLoadNs ?? 0) * load[netId.get(gates[gi]!.output)!]!;
+  const level = new Float64Array(netName.length);
+  const arrival = new Float64Array(netName.length);
+  gates.forEach((g, gi) => {
     let lv = 0;
     let at = 0;
-    let from: string | undefined;
-    for (const i of g.inputs) {
-      lv = Math.max(lv, level.get(i) ?? 0);
-      const a = hasDelay ? (arrival.get(i) ?? 0) : (level.get(i) ?? 0);
-      if (from === undefined || a > at) {
+    let first = true;
+    for (let k = pinAt[gi]!; k < pinAt[gi + 1]!; k++) {
+      const id = pin[k]!;
+      if (level[id]! > lv) lv = level[id]!;
+      const a = hasDelay ? arrival[id]! : level[id]!;
+      if (first || a > at) {
         at = a;
-        from = i;
+        first = false;
       }
     }
-    level.set(g.output, lv + 1);
-    arrival.set(g.output, at + (hasDelay ? gateDelay(g) : 1));
-    via.set(g.output, g);
-  }
-  const depth = netlist.outputs.reduce((m, o) => Math.max(m, level.get(o.net) ?? 0), 0);
-  let endNet: string | undefined;
-  for (const o of netlist.outputs) if (endNet === undefined || (arrival.get(o.net) ?? 0) > (arrival.get(endNet) ?? 0)) endNet = o.net;
+    const me = netId.get(g.output)!;
+    level[me] = lv + 1;
+    arrival[me] = at + (hasDelay ? gateDelay(gi) : 1);
+  });
+  const depth = outIds.reduce((m, id) => Math.max(m, level[id]!), 0);
+  let end = -1;
+  for (const id of outIds) if (end < 0 || arrival[id]! > arrival[end]!) end = id;
   const pathGates: string[] = [];
   const pathNets: string[] = [];
-  let net = endNet;
-  while (net !== undefined) {
-    pathNets.unshift(net);
-    const g = via.get(net);
-    if (!g) break;
-    pathGates.unshift(g.id);
-    let best: string | undefined;
-    for (const i of g.inputs) if (best === undefined || (arrival.get(i) ?? 0) > (arrival.get(best) ?? 0)) best = i;
-    net = best;
+  for (let id = end; id >= 0; ) {
+    pathNets.push(netName[id]!);
+    const gi = driverGate[id]!;
+    if (gi < 0) break;
+    pathGates.push(gates[gi]!.id);
+    let best = -1;
+    for (let k = pinAt[gi]!; k < pinAt[gi + 1]!; k++) if (best < 0 || arrival[pin[k]!]! > arrival[best]!) best = pin[k]!;
+    id = best;
   }
-  const delayNs = endNet !== undefined && hasDelay ? r3(arrival.get(endNet) ?? 0) : hasDelay ? 0 : null;
+  pathNets.reverse();
+  pathGates.reverse();
+  const endNet = end >= 0 ? netName[end] : undefined;
+  const delayNs = endNet !== undefined && hasDelay ? r3(arrival[end]!) : hasDelay ? 0 : null;
   const delay: Estimate = {
     value: delayNs,
     unit: "ns",
@@ -260,7 +302,7 @@ export function analyse(netlist: Netlist, family: Family, options: AnalysisOptio
   let dynamicPower: Estimate;
   if (family.inputCapPf !== undefined && v !== undefined) {
     let cTotal = 0;
-    for (const g of gates) cTotal += (load.get(g.output) ?? 0) * family.inputCapPf + (family.wiringPf ?? 0) + (family.powerCapPf ?? 0);
+    for (const g of gates) cTotal += load[netId.get(g.output)!]! * family.inputCapPf + (family.wiringPf ?? 0) + (family.powerCapPf ?? 0);
     // pF · V² · MHz = µW
     const mW = (cTotal * v * v * clockMHz * activity) / 1000;
     dynamicPower = {
@@ -280,7 +322,8 @@ export function analyse(netlist: Netlist, family: Family, options: AnalysisOptio
     let at = "";
     let heaviest = 0;
     for (const net of [...netlist.inputs, ...netlist.complements.map((c) => c.net)]) {
-      const l = load.get(net) ?? 0;
+      const id = netId.get(net);
+      const l = id === undefined ? 0 : load[id]!;
       if (l > heaviest) [heaviest, at] = [l, net];
     }
     boundaries.push(boundaryCheck("inputs", b.inputsDrivenBy, family, r3(heaviest), at ? `input ${at}` : "no input"));

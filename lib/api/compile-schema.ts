@@ -121,6 +121,23 @@ export const RevisionStats = z.object({
   fanOut: z.number().nullable().describe("the fan-out limit maxLoad is held against, unit loads"),
   verified: z.boolean(),
   byOutput: z.array(z.object({ name: z.string(), products: z.number(), literals: z.number(), exact: z.boolean() })),
+  structure: z.enum(["two-level", "factored"]).describe("the structure the figures and the netlist belong to (settings.structure)"),
+});
+
+/** One structure's figures; delay and power are estimates from the family's typical data. */
+const StructureFigures = z.object({
+  structure: z.enum(["two-level", "factored"]),
+  kept: z.boolean().describe("the structure the netlist, analysis and stats of this answer belong to"),
+  built: z.enum(["decomposed", "algebraic", "two-level"]).optional()
+    .describe("for the factored structure: the construction kept (two-level when factoring found nothing better by the aim)"),
+  gates: z.number(),
+  levels: z.number(),
+  packages: z.number().nullable(),
+  transistors: z.number().nullable(),
+  delayNs: z.number().nullable(),
+  staticMw: z.number().nullable(),
+  dynamicMw: z.number().nullable(),
+  verified: z.boolean(),
 });
 
 export const CompileResultBody = z.object({
@@ -130,6 +147,8 @@ export const CompileResultBody = z.object({
   verification: z.object({ ok: z.boolean(), method: z.enum(["exhaustive", "sat"]) }).nullable(),
   warnings: z.array(z.string()),
   stats: RevisionStats,
+  structures: z.array(StructureFigures)
+    .describe("the two-level structure's figures and, beside it, the factored one's; kept marks the one settings.structure chose"),
 });
 
 export const CompileResponse = z.object({
@@ -143,6 +162,7 @@ export const CompileResponse = z.object({
 
 export type CompileResponse = z.infer<typeof CompileResponse>;
 export type CompileResultBody = z.infer<typeof CompileResultBody>;
+export type StructureFigures = z.infer<typeof StructureFigures>;
 
 // The pipeline's result must fit the schema: this line fails the type check when they drift apart.
 type Fits<A extends B, B> = A;

@@ -150,7 +150,7 @@ const Token = z.object({
 const Job = z.object({
   id: z.string(),
   status: z.enum(["queued", "running", "done", "failed", "cancelled"]),
-  stage: z.string().nullable().describe("minimize, map, analyse or export"),
+  stage: z.string().nullable().describe("minimize, map, factor, analyse or export"),
   cost: z.number().nullable().describe("cost of the best cover so far"),
   lowerBound: z.number().nullable().describe("proven lower bound on the cost"),
   primes: z.number().nullable().describe("prime implicants found so far; null until known, and on the heuristic alone"),

@@ -57,7 +57,8 @@ function fromTable(name: string, inputs: string[], outputs: string[], f: (m: num
 
 const bits = (p: string, w: number) => Array.from({ length: w }, (_, i) => `${p}${w - 1 - i}`);
 
-function adder(w: number): BenchCase {
+/** Ripple-free adder of two w-bit numbers and a carry in: outputs s0..s(w-1), cout. */
+export function adder(w: number): BenchCase {
   // Inputs a(w) b(w) cin; outputs s0..s(w-1), cout.
   return fromTable(`adder ${w}-bit`, [...bits("a", w), ...bits("b", w), "cin"], [...Array.from({ length: w }, (_, i) => `s${i}`), "cout"], (m) => {
     const cin = m & 1;
@@ -75,7 +76,8 @@ function multiplier(w: number): BenchCase {
   });
 }
 
-function comparator(w: number): BenchCase {
+/** Magnitude comparator of two w-bit numbers: outputs gt, eq, lt. */
+export function comparator(w: number): BenchCase {
   return fromTable(`comparator ${w}-bit`, [...bits("a", w), ...bits("b", w)], ["gt", "eq", "lt"], (m) => {
     const b = m & ((1 << w) - 1);
     const a = m >>> w;
@@ -83,7 +85,8 @@ function comparator(w: number): BenchCase {
   });
 }
 
-function parity(n: number): BenchCase {
+/** Odd parity of n inputs. */
+export function parity(n: number): BenchCase {
   return fromTable(`parity ${n}`, bits("x", n), ["p"], (m) => {
     let p = 0;
     for (let x = m; x; x &= x - 1) p ^= 1;
@@ -108,7 +111,8 @@ function priority(lines: number): BenchCase {
   });
 }
 
-function mux(selBits: number): BenchCase {
+/** 2^selBits-to-1 multiplexer. */
+export function mux(selBits: number): BenchCase {
   const k = 2 ** selBits;
   return fromTable(`multiplexer ${k}:1`, [...bits("s", selBits), ...bits("d", k)], ["y"], (m) => {
     const data = m & ((1 << k) - 1);

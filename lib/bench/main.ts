@@ -5,6 +5,10 @@
  * one table row per case and a summary against the targets. Both routes are
  * warmed up first and timed as the fastest of a few runs (see bestOf), in
  * three rounds on the cases both solve; both start from the same prime generation.
+ * Then the mapping section (./mapping): map, analyse, verify and export times
+ * against the gates built; then the multi-level section (./multilevel): two-level
+ * against factored gates, levels and packages, with its targets. `-- --quick`
+ * shortens each; `-- --mapping` and/or `-- --multilevel` run those sections alone.
  */
 import { popcount } from "../logic";
 import { columnWeight } from "../minimize/cost";
@@ -12,6 +16,8 @@ import { LimitError, minimize, type MinimizeResult } from "../minimize";
 import { randomCase, structuredCases, wideCases, type BenchCase } from "./cases";
 import { fingerprint, installCountingClock } from "./fingerprint";
 import { genericRoute, loadSolver, type GenericResult } from "./generic";
+import { mappingSection } from "./mapping";
+import { multilevelSection } from "./multilevel";
 
 interface Row {
   c: BenchCase;
@@ -92,6 +98,11 @@ function fingerprints(quick: boolean): void {
 async function main(): Promise<void> {
   const quick = process.argv.includes("--quick");
   if (process.argv.includes("--fingerprint")) return fingerprints(quick);
+  if (process.argv.includes("--mapping") || process.argv.includes("--multilevel")) {
+    if (process.argv.includes("--mapping")) mappingSection(quick);
+    if (process.argv.includes("--multilevel")) multilevelSection(quick);
+    return;
+  }
   await loadSolver();
   const cases = benchCases(quick);
 
@@ -182,6 +193,9 @@ async function main(): Promise<void> {
   console.log(
     `  generic route (≥ 8 inputs, ${compared.length} exact cases): median ratio ${median(ratios).toFixed(1)}x, min ${Math.min(...ratios).toFixed(1)}x; ${compared.filter((x, i) => ratios[i]! >= 5).length}/${compared.length} at least 5x; cost disagreements: ${disagree.join(", ") || "none"}`,
   );
+
+  mappingSection(quick);
+  multilevelSection(quick);
 }
 
 main().then(

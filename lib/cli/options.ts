@@ -1,6 +1,7 @@
 /**
  * The mapping options that `map` and `compare` share: --family ID (required),
- * --form, --fanin N, --fanout N and, where the command prints files, --format.
+ * --form, --fanin N, --fanout N, --no-spare-inverters, --multilevel [--aim gates|levels] and, where the
+ * command prints files, --format.
  * Values may follow the flag or be joined with "=" (--fanin=3).
  */
 import { BUILT_IN_FAMILIES, type Family } from "../families";
@@ -10,7 +11,7 @@ import type { DesignSettings, ExportFormat } from "../pipeline";
 export const FORMATS: ExportFormat[] = ["json", "verilog", "vhdl", "csv"];
 
 /** The options part of a usage line. */
-export const MAP_OPTIONS_USAGE = "--family ID [--form and-or|nand|nor|or-and|mixed] [--fanin N] [--fanout N]";
+export const MAP_OPTIONS_USAGE = "--family ID [--form and-or|nand|nor|or-and|mixed] [--fanin N] [--fanout N] [--no-spare-inverters] [--multilevel [--aim gates|levels]]";
 
 export interface MapArgs {
   /** The positional arguments (file names, "-" for standard input), in order. */
@@ -56,6 +57,14 @@ export function parseMapArgs(args: string[], opts: { fileNames: string[]; format
       const n = whole("--fanout");
       if (typeof n === "string") return n;
       settings.fanOut = n;
+    } else if (flag === "--multilevel") {
+      settings.structure = "factored";
+    } else if (flag === "--aim") {
+      const v = value();
+      if (v !== "gates" && v !== "levels") return `--aim takes gates or levels, not ${v ?? "nothing"}`;
+      settings.aim = v;
+    } else if (flag === "--no-spare-inverters") {
+      settings.spareInverters = false;
     } else if (flag === "--format" && opts.format) {
       const v = value();
       if (!FORMATS.includes(v as ExportFormat)) return `--format takes ${FORMATS.join(", ")}, not ${v ?? "nothing"}`;
@@ -74,6 +83,7 @@ export function parseMapArgs(args: string[], opts: { fileNames: string[]; format
     const missing = opts.fileNames.slice(files.length).join(" and ");
     return `${missing} ${opts.fileNames.length - files.length === 1 ? "is" : "are"} missing (use - to read standard input)`;
   }
+  if (settings.aim !== undefined && settings.structure !== "factored") return "--aim applies to --multilevel; add --multilevel";
   const ids = BUILT_IN_FAMILIES.map((f) => f.id).join(", ");
   if (family === undefined) return `--family is missing; the families are: ${ids}`;
   const fam = BUILT_IN_FAMILIES.find((f) => f.id === family);

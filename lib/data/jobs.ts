@@ -21,7 +21,7 @@ export type JobStatus = "queued" | "running" | "done" | "failed" | "cancelled";
 export interface JobView {
   id: string;
   status: JobStatus;
-  /** The stage under way ("minimize", "map", "analyse", "export"), once a worker has it. */
+  /** The stage under way ("minimize", "map", "factor", "analyse", "export"), once a worker has it. */
   stage: string | null;
   /** Cost of the best cover found so far, and its proven lower bound (the gap closes as the run goes on). */
   cost: number | null;

@@ -210,7 +210,8 @@ export async function exportRevision(p: { actor: Actor | null; slug: string; des
 
 function renderSaved(saved: SavedNetlist, format: ExportFormat, unitName: string, rev: RevisionDetail): string {
   const family = rev.familySnapshot as unknown as Family;
-  const header = [`Fanbound netlist, family ${family.name} (${family.id}), saved with revision ${rev.number}`];
+  const factored = rev.settings.structure === "factored" ? ", factored" : "";
+  const header = [`Fanbound netlist, family ${family.name} (${family.id})${factored}, saved with revision ${rev.number}`];
   switch (format) {
     case "verilog":
       return toVerilog(saved.model, { name: unitName, header });

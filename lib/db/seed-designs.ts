@@ -1,6 +1,7 @@
 /**
  * The demo designs of Ferrow Lock & Weir, each with revisions that tell how it
- * grew: an added impossible combination, a family change, a fan-in fix. Every
+ * grew: an added impossible combination, a family change, a fan-in fix, a
+ * factored netlist kept instead of the two-level one. Every
  * figure stored comes from running the real pipeline on that revision.
  */
 import { readFileSync } from "node:fs";
@@ -55,6 +56,7 @@ export const DEMO_DESIGNS: DemoDesign[] = [
       { message: "The chamber cannot be level with both pounds: add it as impossible", author: "designer", family: "ttl-std-5v" },
       { message: "New controller board uses high-speed CMOS", author: "designer", family: "cmos-hc-5v" },
       { message: "Fit the spare two-input NANDs on the board: NAND–NAND, fan-in 2", author: "designer", family: "cmos-hc-5v", settings: { form: "nand", fanIn: 2 } },
+      { message: "Four-input NANDs after all; the inverters take the spare NAND places, one package fewer", author: "designer", family: "cmos-hc-5v", settings: { form: "nand", fanIn: 4 } },
     ],
   },
   {
@@ -65,6 +67,7 @@ export const DEMO_DESIGNS: DemoDesign[] = [
       { message: "Decode the six states to the panel lamps", author: "designer", family: "ttl-ls-5v", edit: withoutNever },
       { message: "Codes 6 and 7 are never sent: use them as don't-cares", author: "designer", family: "ttl-ls-5v" },
       { message: "Lamp drivers load each output like four inputs", author: "owner", family: "ttl-ls-5v", settings: { outputPinLoad: 4 } },
+      { message: "Factored decode: the lamps share sub-expressions, five gates and one package fewer", author: "designer", family: "ttl-ls-5v", settings: { outputPinLoad: 4, structure: "factored" } },
     ],
   },
   {
@@ -75,6 +78,7 @@ export const DEMO_DESIGNS: DemoDesign[] = [
       { message: "Segments from the level code", author: "designer", family: "ttl-std-5v", edit: withoutNever },
       { message: "Codes 10 to 15 cannot come from the probe", author: "designer", family: "ttl-std-5v" },
       { message: "Display board runs at 3.3 V", author: "designer", family: "lvcmos-3v3" },
+      { message: "Factored segment logic: six gates fewer on the 3.3 V board, same packages", author: "designer", family: "lvcmos-3v3", settings: { structure: "factored" } },
     ],
   },
   {

@@ -41,52 +41,43 @@ export interface Netlist {
   complements: ComplementRail[];
 }
 
-/** Evaluates one gate on bit-parallel words (32 minterms per word). */
-export function evalWord(type: GateType, ins: number[]): number {
-  switch (type) {
-    case "AND":
-    case "NAND": {
-      let v = 0xffffffff;
-      for (const x of ins) v &= x;
-      return (type === "NAND" ? ~v : v) >>> 0;
-    }
-    case "OR":
-    case "NOR": {
-      let v = 0;
-      for (const x of ins) v |= x;
-      return (type === "NOR" ? ~v : v) >>> 0;
-    }
-    case "XOR":
-    case "XNOR": {
-      let v = 0;
-      for (const x of ins) v ^= x;
-      return (type === "XNOR" ? ~v : v) >>> 0;
-    }
-    case "NOT":
-      return ~ins[0]! >>> 0;
-    case "BUF":
-      return ins[0]! >>> 0;
-  }
-}
-
-/** Gates sorted so that each comes after the drivers of its inputs; throws on a loop. */
+/**
+ * Gates sorted so that each comes after the drivers of its inputs (depth-first
+ * from each gate in list order, so a list already in order comes back as it
+ * is); throws on a loop. Iterative, so a deep netlist cannot overflow the stack.
+ */
 export function topoOrder(n: Netlist): Gate[] {
-  const driver = new Map<string, Gate>();
-  for (const g of n.gates) driver.set(g.output, g);
-  const state = new Map<string, number>();
+  const index = new Map<string, number>();
+  n.gates.forEach((g, i) => index.set(g.output, i));
+  // 0 unvisited, 1 on the stack, 2 done
+  const state = new Uint8Array(n.gates.length);
   const out: Gate[] = [];
-  const visit = (g: Gate) => {
-    const s = state.get(g.id);
-    if (s === 2) return;
-    if (s === 1) throw new Error(`netlist has a loop through gate ${g.id}`);
-    state.set(g.id, 1);
-    for (const i of g.inputs) {
-      const d = driver.get(i);
-      if (d) visit(d);
+  const stack: number[] = [];
+  const next: number[] = [];
+  for (let root = 0; root < n.gates.length; root++) {
+    if (state[root]) continue;
+    state[root] = 1;
+    stack.push(root);
+    next.push(0);
+    while (stack.length) {
+      const top = stack.length - 1;
+      const g = n.gates[stack[top]!]!;
+      const k = next[top]!;
+      if (k < g.inputs.length) {
+        next[top] = k + 1;
+        const d = index.get(g.inputs[k]!);
+        if (d === undefined || state[d] === 2) continue;
+        if (state[d] === 1) throw new Error(`netlist has a loop through gate ${n.gates[d]!.id}`);
+        state[d] = 1;
+        stack.push(d);
+        next.push(0);
+      } else {
+        state[stack[top]!] = 2;
+        out.push(g);
+        stack.pop();
+        next.pop();
+      }
     }
-    state.set(g.id, 2);
-    out.push(g);
-  };
-  for (const g of n.gates) visit(g);
+  }
   return out;
 }

@@ -32,21 +32,73 @@ export type Group<T> = { leaf: T; arrival: number } | { kids: Group<T>[]; arriva
 export function mergeByArrival<T>(items: { item: T; arrival: number }[], k: number): Group<T> {
   if (items.length === 0) throw new Error("mergeByArrival needs at least one signal");
   if (k < 2) throw new Error(`a gate tree needs gates of at least 2 inputs; the widest is ${k}`);
-  // Stable order: by arrival, then by original position, so results are deterministic.
-  let queue: { g: Group<T>; seq: number }[] = items.map((x, i) => ({ g: { leaf: x.item, arrival: x.arrival }, seq: i }));
+  // A binary heap ordered by arrival, then by entry order (original position, then merge order), so the
+  // earliest signals come out first and results are deterministic; n log n for the whole tree.
+  const heap = new MergeHeap<Group<T>>();
+  items.forEach((x, i) => heap.push({ leaf: x.item, arrival: x.arrival }, x.arrival, i));
   let seq = items.length;
-  const sortQ = () => queue.sort((a, b) => a.g.arrival - b.g.arrival || a.seq - b.seq);
-  sortQ();
-  let take = queue.length <= k ? queue.length : 2 + ((queue.length - 2) % (k - 1));
-  while (queue.length > 1) {
-    const batch = queue.slice(0, take);
-    queue = queue.slice(take);
-    const arrival = Math.max(...batch.map((b) => b.g.arrival)) + 1;
-    queue.push({ g: { kids: batch.map((b) => b.g), arrival }, seq: seq++ });
-    sortQ();
-    take = Math.min(k, queue.length);
+  let take = heap.size <= k ? heap.size : 2 + ((heap.size - 2) % (k - 1));
+  while (heap.size > 1) {
+    const kids: Group<T>[] = [];
+    let latest = -Infinity;
+    for (let j = 0; j < take; j++) {
+      const g = heap.pop();
+      kids.push(g);
+      if (g.arrival > latest) latest = g.arrival;
+    }
+    const arrival = latest + 1;
+    heap.push({ kids, arrival }, arrival, seq++);
+    take = Math.min(k, heap.size);
   }
-  return queue[0]!.g;
+  return heap.pop();
+}
+
+/** Min-heap of values keyed by (arrival, seq). */
+class MergeHeap<V> {
+  private vals: V[] = [];
+  private arr: number[] = [];
+  private seq: number[] = [];
+  get size(): number {
+    return this.vals.length;
+  }
+  private less(i: number, j: number): boolean {
+    return this.arr[i]! < this.arr[j]! || (this.arr[i] === this.arr[j] && this.seq[i]! < this.seq[j]!);
+  }
+  private swap(i: number, j: number): void {
+    [this.vals[i], this.vals[j]] = [this.vals[j]!, this.vals[i]!];
+    [this.arr[i], this.arr[j]] = [this.arr[j]!, this.arr[i]!];
+    [this.seq[i], this.seq[j]] = [this.seq[j]!, this.seq[i]!];
+  }
+  push(v: V, arrival: number, seq: number): void {
+    this.vals.push(v);
+    this.arr.push(arrival);
+    this.seq.push(seq);
+    for (let i = this.vals.length - 1; i > 0; ) {
+      const p = (i - 1) >> 1;
+      if (!this.less(i, p)) break;
+      this.swap(i, p);
+      i = p;
+    }
+  }
+  pop(): V {
+    const top = this.vals[0]!;
+    const last = this.vals.length - 1;
+    this.swap(0, last);
+    this.vals.pop();
+    this.arr.pop();
+    this.seq.pop();
+    for (let i = 0; ; ) {
+      const l = 2 * i + 1;
+      const r = l + 1;
+      let m = i;
+      if (l < last && this.less(l, m)) m = l;
+      if (r < last && this.less(r, m)) m = r;
+      if (m === i) break;
+      this.swap(i, m);
+      i = m;
+    }
+    return top;
+  }
 }
 
 export interface BufferNode {
@@ -105,20 +157,48 @@ export function planBufferTree(
     if (buffers.length < b) {
       throw new Error(`fan-out ${fanOut} leaves no room for buffers after ${pinnedWeight} unit loads of output pins`);
     }
+    // Nodes shallowest first (breadth-first placement already gives that order); each load takes the first
+    // node with room, found through a max-tree over the remaining capacities in O(log nodes).
     const nodes = cap.map((_, i) => i).sort((x, y) => depth[x]! - depth[y]! || x - y);
+    const room = new FirstFit(nodes.map((x) => cap[x]!));
     const assignment: number[] = loads.map((l) => (l.pinned ? -1 : -2));
     let ok = true;
     for (const l of order) {
-      const at = nodes.find((n) => cap[n]! + 1e-9 >= l.weight);
-      if (at === undefined) {
+      const slot = room.first(l.weight - 1e-9);
+      if (slot < 0) {
         ok = false;
         break;
       }
-      cap[at]! -= l.weight;
-      assignment[l.i] = at - 1;
+      room.take(slot, l.weight);
+      assignment[l.i] = nodes[slot]! - 1;
     }
     if (!ok) continue;
-    const levels = Math.max(0, ...assignment.map((a) => (a < 0 ? 0 : buffers[a]!.depth)));
+    let levels = 0;
+    for (const a of assignment) if (a >= 0 && buffers[a]!.depth > levels) levels = buffers[a]!.depth;
     return { buffers, assignment, levels };
+  }
+}
+
+/** Capacities with "first index holding at least w" and "use w of index i", both O(log n) (a max segment tree). */
+class FirstFit {
+  private size = 1;
+  private t: Float64Array;
+  constructor(caps: number[]) {
+    while (this.size < caps.length) this.size *= 2;
+    this.t = new Float64Array(2 * this.size).fill(-Infinity);
+    caps.forEach((c, i) => (this.t[this.size + i] = c));
+    for (let i = this.size - 1; i >= 1; i--) this.t[i] = Math.max(this.t[2 * i]!, this.t[2 * i + 1]!);
+  }
+  /** First index whose capacity is at least w, or −1. */
+  first(w: number): number {
+    if (this.t[1]! < w) return -1;
+    let i = 1;
+    while (i < this.size) i = this.t[2 * i]! >= w ? 2 * i : 2 * i + 1;
+    return i - this.size;
+  }
+  take(index: number, w: number): void {
+    let i = this.size + index;
+    this.t[i] = this.t[i]! - w;
+    for (i >>= 1; i >= 1; i >>= 1) this.t[i] = Math.max(this.t[2 * i]!, this.t[2 * i + 1]!);
   }
 }

@@ -1,7 +1,7 @@
 /**
  * The whole pipeline, one path for every caller: source → parse and
  * elaborate (here, at once: diagnostics come back without waiting for
- * anything) → the stages (minimize → map → analyse → verify → export),
+ * anything) → the stages (minimize → map → factor → analyse → verify → export),
  * run by an executor the caller chooses: in this thread (the CLI, the seed,
  * the tests), on a pool of warm worker threads (the web server), or as a job
  * on a worker process (long runs). Errors come back as values; only bugs throw.
@@ -33,6 +33,8 @@ export interface CompileInput {
    * outputsDrive) besides the built-ins, e.g. the workspace's own; default none.
    */
   families?: readonly Family[];
+  /** Build the structure the settings do not keep as well, for its figures (StageJob.compare); default true. */
+  compare?: boolean;
 }
 
 export interface Compiled {
@@ -59,6 +61,7 @@ export function prepare(input: CompileInput): { diagnostics: Diagnostic[]; job: 
       ...(input.unitName !== undefined ? { unitName: input.unitName } : {}),
       ...(input.minimizeMs !== undefined ? { minimizeMs: input.minimizeMs } : {}),
       ...boundaryOf(input.settings, input.families),
+      ...(input.compare !== undefined ? { compare: input.compare } : {}),
     },
   };
 }

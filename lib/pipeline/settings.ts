@@ -7,6 +7,10 @@ import { z } from "zod";
 import { TARGET_FORMS, type TargetForm } from "../map/mapper";
 
 export type CostKind = "products" | "gate-inputs" | "fan-in";
+/** Which structure a revision keeps: the two-level covers mapped as they are, or the factored multi-level network (lib/factor). */
+export type Structure = "two-level" | "factored";
+/** What the factored structure minimizes first: gates (then packages, then levels) or levels (then gates, then packages). */
+export type Aim = "gates" | "levels";
 
 /**
  * What a design asks of the pipeline besides its family. The family travels
@@ -36,6 +40,19 @@ export interface DesignSettings {
   inputsDrivenBy?: string;
   /** Family (id) whose inputs the design's outputs drive; checked like inputsDrivenBy. Default: not checked. */
   outputsDrive?: string;
+  /**
+   * Inverters may take the spare places of NAND, NOR, XOR or XNOR packages
+   * already used (other inputs tied) when that saves inverter packages; default true.
+   */
+  spareInverters?: boolean;
+  /**
+   * Structure the revision keeps: "two-level" (default) maps the minimized
+   * covers as they are; "factored" maps the multi-level network lib/factor
+   * builds from them. The pipeline reports both side by side.
+   */
+  structure?: Structure;
+  /** For the factored structure: fewest "gates" (default) or fewest "levels". */
+  aim?: Aim;
 }
 
 export const DEFAULT_SETTINGS = {
@@ -46,6 +63,9 @@ export const DEFAULT_SETTINGS = {
   clockMHz: 10,
   activity: 0.25,
   heuristic: false,
+  spareInverters: true,
+  structure: "two-level" as Structure,
+  aim: "gates" as Aim,
 };
 
 const FAMILY_ID = /^[a-z0-9][a-z0-9-]{0,62}$/;
@@ -65,7 +85,7 @@ export function resolveSettings(s: DesignSettings = {}): ResolvedSettings {
   return out;
 }
 
-const SETTING_KEYS = ["form", "cost", "fanIn", "fanOut", "complementedInputs", "outputPinLoad", "clockMHz", "activity", "heuristic", "inputsDrivenBy", "outputsDrive"] as const satisfies ReadonlyArray<keyof DesignSettings>;
+const SETTING_KEYS = ["form", "cost", "fanIn", "fanOut", "complementedInputs", "outputPinLoad", "clockMHz", "activity", "heuristic", "inputsDrivenBy", "outputsDrive", "spareInverters", "structure", "aim"] as const satisfies ReadonlyArray<keyof DesignSettings>;
 
 /** The settings as the API and storage take them (no family: that travels apart as familyId). */
 export const designSettingsSchema = z.object({
@@ -80,4 +100,7 @@ export const designSettingsSchema = z.object({
   heuristic: z.boolean().optional(),
   inputsDrivenBy: z.string().regex(FAMILY_ID, "give a family's key, e.g. ttl-ls-5v").optional(),
   outputsDrive: z.string().regex(FAMILY_ID, "give a family's key, e.g. ttl-ls-5v").optional(),
+  spareInverters: z.boolean().optional(),
+  structure: z.enum(["two-level", "factored"]).optional(),
+  aim: z.enum(["gates", "levels"]).optional(),
 });

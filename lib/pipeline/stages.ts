@@ -1,6 +1,7 @@
 /**
  * The pipeline's stages after parsing — minimize → map (with the proof that
- * the netlist equals the specification) → analyse → export — as one pure
+ * the netlist equals the specification) → factor (the multi-level structure,
+ * proven too) → analyse → export — as one pure
  * function on plain data, and what an executor of them looks like. This is
  * all a compile worker thread loads: no parser, no layout engine.
  */
@@ -15,6 +16,9 @@ import { toVerilog } from "../export/verilog";
 import { toVhdl } from "../export/vhdl";
 import type { ResolvedSettings } from "./settings";
 import { revisionStats, type RevisionStats } from "./stats";
+import { chooseStructure, type StructureChoice, type StructureFigures } from "./structures";
+
+export type { StructureFigures } from "./structures";
 
 export type ExportFormat = "verilog" | "vhdl" | "csv" | "json";
 
@@ -28,6 +32,12 @@ export interface StageJob {
   minimizeMs?: number;
   /** The families at the design's edges (see DesignSettings.inputsDrivenBy), resolved; warnings for names not found. */
   boundary?: { inputsDrivenBy?: Family; outputsDrive?: Family; warnings?: string[] };
+  /**
+   * Build the structure the settings do not keep as well, for its figures in
+   * `structures` (the factored one beside a kept two-level one); default true.
+   * The CLI's map sets it false when it prints one netlist only.
+   */
+  compare?: boolean;
 }
 
 /** Everything the stages produce for one design. */
@@ -42,6 +52,11 @@ export interface CompileResult {
   warnings: string[];
   /** The small flat summary a revision stores. */
   stats: RevisionStats;
+  /**
+   * Figures of the two-level structure and, when it was built, the factored one, side by side;
+   * `kept` marks the one the netlist, analysis, stats and exports above belong to (settings.structure).
+   */
+  structures: StructureFigures[];
   exports: Partial<Record<ExportFormat, string>>;
 }
 
@@ -59,8 +74,8 @@ export type StageOutcome = { ok: true; result: CompileResult } | { ok: false; er
 
 /** Where a run stands, for a progress bar. */
 export interface Progress {
-  /** "map" includes the proof that the netlist equals the specification. */
-  stage: "minimize" | "map" | "analyse" | "export";
+  /** "map" and "factor" include the proof that the netlist equals the specification; "factor" builds the multi-level structure. */
+  stage: "minimize" | "map" | "factor" | "analyse" | "export";
   /** Multi-output prime implicants found, once known (the minimizer's exact route). */
   primes?: number;
   /** Cost of the best cover so far and its proven lower bound, once known. */
@@ -93,7 +108,7 @@ function widest(f: Family): number {
   return w || 4;
 }
 
-/** The stages on this thread: minimize → map → analyse → verify → export. Pure and synchronous. */
+/** The stages on this thread: minimize → map and verify → factor and verify (./structures) → analyse → export. Pure and synchronous. */
 export function runStages(job: StageJob, onProgress?: (p: Progress) => void): StageOutcome {
   const { spec, family, settings } = job;
   let covers: MinimizeResult;
@@ -111,32 +126,40 @@ export function runStages(job: StageJob, onProgress?: (p: Progress) => void): St
   // The heuristic alone lists no primes (-1).
   const figures = { ...(covers.primes >= 0 ? { primes: covers.primes } : {}), cost: covers.cost, lowerBound: covers.lowerBound };
   onProgress?.({ stage: "map", ...figures });
-  let mapped: MapResult;
-  try {
-    mapped = mapCovers(covers, family, {
-      form: settings.form,
-      ...(settings.fanIn !== undefined ? { fanIn: settings.fanIn } : {}),
-      ...(settings.fanOut !== undefined ? { fanOut: settings.fanOut } : {}),
-      complementedInputs: settings.complementedInputs,
-      outputPinLoad: settings.outputPinLoad,
-      spec,
+  const mapOptions = {
+    form: settings.form,
+    ...(settings.fanIn !== undefined ? { fanIn: settings.fanIn } : {}),
+    ...(settings.fanOut !== undefined ? { fanOut: settings.fanOut } : {}),
+    complementedInputs: settings.complementedInputs,
+    outputPinLoad: settings.outputPinLoad,
+    spareInverters: settings.spareInverters,
+    spec,
+  };
+  const analyseMapped = (m: MapResult) =>
+    analyse(m.netlist, m.family, {
+      fanOut: m.fanOut,
+      outputPinLoad: m.outputPinLoad,
+      clockMHz: settings.clockMHz,
+      activity: settings.activity,
+      ...(job.boundary ? { boundary: job.boundary } : {}),
     });
+  let chosen: StructureChoice;
+  try {
+    const twoLevel = mapCovers(covers, family, mapOptions);
+    // the factored structure (lib/factor) when the settings keep it or the caller compares (./structures)
+    const compare = job.compare !== false;
+    chosen = chooseStructure(spec, covers, family, settings, mapOptions, twoLevel, analyseMapped, compare, (stage) =>
+      onProgress?.({ stage, ...figures }),
+    );
   } catch (e) {
     if (e instanceof MapError) return { ok: false, error: { code: "mapping", message: e.message } };
     throw e;
   }
-  onProgress?.({ stage: "analyse", ...figures });
-  const analysis = analyse(mapped.netlist, mapped.family, {
-    fanOut: mapped.fanOut,
-    outputPinLoad: mapped.outputPinLoad,
-    clockMHz: settings.clockMHz,
-    activity: settings.activity,
-    ...(job.boundary ? { boundary: job.boundary } : {}),
-  });
+  const { mapped, analysis, structures, built } = chosen;
   const warnings = [...mapped.warnings, ...(job.boundary?.warnings ?? []), ...analysis.warnings];
   const document = toJsonDocument(mapped.netlist, analysis, warnings);
   onProgress?.({ stage: "export", ...figures });
-  const header = [`Fanbound netlist, family ${family.name} (${family.id}), form ${mapped.form}`];
+  const header = [`Fanbound netlist, family ${family.name} (${family.id}), form ${mapped.form}${built ? `, factored (${built})` : ""}`];
   const exports: Partial<Record<ExportFormat, string>> = {};
   for (const f of job.exports) {
     const hdl = { name: job.unitName, header };
@@ -151,7 +174,8 @@ export function runStages(job: StageJob, onProgress?: (p: Progress) => void): St
       analysis,
       verification: mapped.verification,
       warnings,
-      stats: revisionStats(spec, covers, analysis, mapped.verification),
+      stats: revisionStats(spec, covers, analysis, mapped.verification, settings.structure),
+      structures,
       exports,
     },
   };

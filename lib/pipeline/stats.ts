@@ -7,6 +7,7 @@ import type { FunctionSpec } from "../logic/index";
 import type { MinimizeResult } from "../minimize/index";
 import type { Analysis } from "../analysis/index";
 import type { VerifyResult } from "../map/index";
+import type { Structure } from "./settings";
 
 export interface RevisionStats {
   inputs: number;
@@ -36,10 +37,12 @@ export interface RevisionStats {
   verified: boolean;
   /** Per output: its cover's terms and literals, and whether that cover is a proven minimum. */
   byOutput: { name: string; products: number; literals: number; exact: boolean }[];
+  /** The structure the figures (and the netlist) belong to: the two-level covers mapped as they are, or the factored network. */
+  structure: Structure;
 }
 
 /** The stats of one run. */
-export function revisionStats(spec: FunctionSpec, m: MinimizeResult, a: Analysis, verification: VerifyResult | null): RevisionStats {
+export function revisionStats(spec: FunctionSpec, m: MinimizeResult, a: Analysis, verification: VerifyResult | null, structure: Structure = "two-level"): RevisionStats {
   return {
     inputs: spec.inputs.length,
     outputs: spec.outputs.length,
@@ -61,6 +64,7 @@ export function revisionStats(spec: FunctionSpec, m: MinimizeResult, a: Analysis
     fanOut: a.loads[0]?.limit ?? null,
     verified: verification?.ok ?? false,
     byOutput: m.outputs.map((o) => ({ name: o.name, products: o.products, literals: o.literals, exact: o.exact })),
+    structure,
   };
 }
 

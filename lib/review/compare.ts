@@ -117,7 +117,7 @@ function outputRows(a: Figures, b: Figures): OutputRow[] | null {
   });
 }
 
-const SETTING_ORDER = ["form", "cost", "fanIn", "fanOut", "complementedInputs", "outputPinLoad", "clockMHz", "activity", "heuristic"];
+const SETTING_ORDER = ["form", "cost", "fanIn", "fanOut", "complementedInputs", "outputPinLoad", "clockMHz", "activity", "heuristic", "spareInverters", "structure", "aim"];
 
 /** Settings whose value differs between the sides, in a fixed order (unknown keys after, by name). */
 export function settingChanges(a: Record<string, unknown>, b: Record<string, unknown>): SettingChange[] {

@@ -106,5 +106,6 @@ export function resultBody(r: CompileResult) {
     verification: r.verification,
     warnings: r.warnings,
     stats: r.stats,
+    structures: r.structures,
   };
 }

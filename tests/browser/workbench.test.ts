@@ -1,6 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { BASE_URL, openBrowser, screenshot, signIn, typeInEditor, type Session } from "../support/browser";
 import { DEMO_PASSWORD } from "../../lib/scripts/demo.mjs";
+import { readFileSync } from "node:fs";
+import { compileNow } from "../../lib/pipeline/index";
+import { BUILT_IN_FAMILIES } from "../../lib/families/index";
 
 /** Product terms of an SOP expression as sets of literals, so term and literal order do not matter. */
 function terms(expr: string): string[] {
@@ -110,6 +113,99 @@ describe("the designer's workbench in chromium", () => {
     await first.click();
     await expect.poll(() => page.locator(`#gate-row-${id}`).getAttribute("class")).toContain("bg-accent");
     await screenshot(page, "schematic");
+    expect(s.outside).toEqual([]);
+  });
+
+  it("puts inverters into spare NAND places when the setting is on, and into inverter packages when it is off", async () => {
+    const { page } = s;
+    // The demo's last revision of the chamber interlock: NAND–NAND with gates of up to four inputs, on high-speed CMOS.
+    const source = readFileSync("lib/lang/examples/chamber-interlock.fnb", "utf8");
+    const family = BUILT_IN_FAMILIES.find((f) => f.id === "cmos-hc-5v")!;
+    const run = (spareInverters: boolean) => compileNow({ source, family, settings: { form: "nand", fanIn: 4, spareInverters } }).result!.analysis;
+    const on = run(true);
+    const off = run(false);
+    // The same gates either way; with the setting on, fewer NOT gates and one package fewer (a hex inverter
+    // package holds six, a quad two-input NAND four: common practice, no source).
+    expect(on.gates).toBe(off.gates);
+    expect(on.byType.NOT ?? 0).toBeLessThan(off.byType.NOT ?? 0);
+    expect(on.packages).toBe(off.packages! - 1);
+
+    await page.goto(`${BASE_URL}/w/ferrow-controls`);
+    await page.getByRole("link", { name: "Chamber interlock" }).click();
+    await page.getByRole("tab", { name: "Figures" }).click();
+    const figure = (label: string) => page.locator('[data-testid="figures"] dt', { hasText: label }).locator("xpath=following-sibling::dd");
+    const shown = async () => [Number(await figure("Gates").innerText()), Number(await figure("Packages").innerText())];
+    const spare = page.getByLabel("Spare gates as inverters");
+    // on by default; a draft kept by an earlier run may have it off
+    if (!(await spare.isChecked())) await spare.check();
+    await expect.poll(shown, { timeout: 30_000 }).toEqual([on.gates, on.packages]);
+    await spare.uncheck();
+    await expect.poll(shown, { timeout: 30_000 }).toEqual([off.gates, off.packages]);
+    await screenshot(page, "spare-inverters-off");
+    await spare.check();
+    await expect.poll(shown, { timeout: 30_000 }).toEqual([on.gates, on.packages]);
+    await screenshot(page, "spare-inverters-on");
+    expect(s.outside).toEqual([]);
+  });
+
+  it("shows the two-level and the factored structure side by side, and the revision keeps the designer's choice", async () => {
+    const { page } = s;
+    // The demo's last revision of the status lamp decode keeps the factored structure (standard low-power TTL, pin load 4).
+    const source = readFileSync("lib/lang/examples/status-lamps.fnb", "utf8");
+    const family = BUILT_IN_FAMILIES.find((f) => f.id === "ttl-ls-5v")!;
+    const both = compileNow({ source, family, settings: { outputPinLoad: 4 } }).result!.structures;
+    const [two, fac] = [both.find((x) => x.structure === "two-level")!, both.find((x) => x.structure === "factored")!];
+    expect(fac.gates).toBeLessThan(two.gates);
+
+    await page.goto(`${BASE_URL}/w/ferrow-controls`);
+    await page.getByRole("link", { name: "Status lamp decode" }).click();
+    const panel = page.locator('[data-testid="structures"]');
+    const cell = (structure: string, figure: string) => panel.locator(`td[data-structure="${structure}"][data-figure="${figure}"]`);
+    const kept = () => panel.locator('th[data-kept="true"]').getAttribute("data-structure");
+    const symbols = () => page.locator('[data-testid="schematic"] g[data-gate]').count();
+    const keepFactored = page.getByLabel("Keep the factored structure");
+    const keepTwoLevel = page.getByLabel("Keep the two-level structure");
+    // a draft left by an earlier run may keep the other structure
+    await keepFactored.waitFor({ timeout: 30_000 });
+    if (!(await keepFactored.isChecked())) await keepFactored.check();
+    await expect.poll(kept, { timeout: 30_000 }).toBe("factored");
+    await expect.poll(async () => [await cell("two-level", "Gates").innerText(), await cell("factored", "Gates").innerText()], { timeout: 30_000 })
+      .toEqual([String(two.gates), String(fac.gates)]);
+    expect(await cell("two-level", "Levels").innerText()).toBe(String(two.levels));
+    expect(await cell("factored", "Packages").innerText()).toBe(String(fac.packages));
+    // the schematic draws the kept netlist
+    await expect.poll(symbols, { timeout: 30_000 }).toBe(fac.gates);
+    await screenshot(page, "structures-factored");
+
+    await keepTwoLevel.check();
+    await expect.poll(kept, { timeout: 30_000 }).toBe("two-level");
+    await expect.poll(symbols, { timeout: 30_000 }).toBe(two.gates);
+    await screenshot(page, "structures-two-level");
+
+    // the aim travels to the server with the settings
+    const asked = page.waitForRequest((r) => r.url().endsWith("/api/v1/compile") && /"aim":"levels"/.test(r.postData() ?? ""), { timeout: 30_000 });
+    await panel.getByLabel("Factor for").selectOption("levels");
+    await asked;
+    await panel.getByLabel("Factor for").selectOption("gates");
+
+    await keepFactored.check();
+    await expect.poll(symbols, { timeout: 30_000 }).toBe(fac.gates);
+    await expect.poll(() => page.getByTestId("compile-status").innerText(), { timeout: 30_000 }).toMatch(/verified/);
+    await page.getByRole("button", { name: "Save revision" }).click();
+    await page.fill("#rev-message", "Keep the factored decode");
+    await page.getByRole("button", { name: "Save", exact: true }).click();
+    const row = page.locator('[data-testid="revision-list"] tr', { hasText: "Keep the factored decode" }).first();
+    await expect.poll(() => row.locator('[data-testid="revision-structure"]').innerText(), { timeout: 20_000 }).toBe("factored");
+    expect(await row.locator("td").nth(5).innerText()).toBe(String(fac.gates));
+    await screenshot(page, "structures-saved");
+
+    // the revision's own page shows the same side by side, read only, with the factored structure kept
+    await row.getByRole("link").first().click();
+    await page.waitForURL(/\/r\/\d+$/);
+    await expect.poll(() => page.locator('[data-testid="structures"] th[data-kept="true"]').getAttribute("data-structure"), { timeout: 30_000 }).toBe("factored");
+    expect(await page.getByLabel("Keep the two-level structure").isDisabled()).toBe(true);
+    await expect.poll(symbols, { timeout: 30_000 }).toBe(fac.gates);
+    await screenshot(page, "structures-revision");
     expect(s.outside).toEqual([]);
   });
 

@@ -403,6 +403,35 @@ describe("designs and revisions", () => {
     for (const g of saved.document.gates) expect(v.text).toMatch(new RegExp(`\\b${g.type.toLowerCase()}\\s+${g.id}\\(`));
   });
 
+  it("the compile answer carries the two-level and the factored structure; a revision keeps the one its settings choose", async () => {
+    // Parity of four inputs: its two-level cover is all eight odd minterms (no two adjacent), while three
+    // two-input XOR gates build it (a textbook parity tree; the family offers XOR2).
+    const PARITY = "// Ferrow Lock & Weir: odd count of open sluices\ninputs s1, s2, s3, s4\noutputs odd\nodd = s1 ^ s2 ^ s3 ^ s4\n";
+    const c = await call(compile.POST, "POST", "/compile", { token: owner.token, body: { source: PARITY, familyKey: "cmos-hc-5v" } });
+    expect(c.status).toBe(200);
+    const structures = c.json.result.structures as Array<{ structure: string; kept: boolean; gates: number; levels: number; verified: boolean }>;
+    expect(structures.map((x) => [x.structure, x.kept])).toEqual([["two-level", true], ["factored", false]]);
+    expect(structures.every((x) => x.verified)).toBe(true);
+    expect(structures[1]).toMatchObject({ gates: 3, levels: 2 });
+    expect(c.json.result.stats).toMatchObject({ structure: "two-level", gates: structures[0]!.gates });
+
+    const r = await call(revisions.POST, "POST", "/r", {
+      token: owner.token, params: { ws: ws.slug, designId }, body: { message: "factored parity", source: PARITY, familyId, settings: { structure: "factored" } },
+    });
+    expect(r.status).toBe(201);
+    expect(r.json.revision.settings).toMatchObject({ structure: "factored" });
+    expect(r.json.revision.stats).toMatchObject({ structure: "factored", gates: 3, depth: 2, verified: true });
+    const number = String(r.json.revision.number);
+    const v = await call(exporter.GET, "GET", "/x", { token: owner.token, params: { ws: ws.slug, designId, number }, query: { format: "verilog" } });
+    // IEEE 1364 gate primitives: the saved netlist is the three XOR gates
+    expect(v.text.match(/\bxor\s+\w+\(/g)?.length).toBe(3);
+    expect(v.text).toMatch(/factored/);
+    const bad = await call(revisions.POST, "POST", "/r", {
+      token: owner.token, params: { ws: ws.slug, designId }, body: { message: "x", source: PARITY, familyId, settings: { structure: "three-level" } },
+    });
+    expect(bad.status).toBe(400);
+  });
+
   it("concurrent saves get distinct consecutive numbers", async () => {
     const p = { ws: ws.slug, designId };
     const before = (await db().models.Revision.max("number", { where: { designId } })) as number | null;

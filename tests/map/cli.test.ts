@@ -53,6 +53,32 @@ describe("map command", () => {
       expect(t.out.join("")).toContain(mark);
     }
   });
+  it("--multilevel prints the factored netlist in the same JSON format, equal to the specification", async () => {
+    for (const aim of [[], ["--aim", "levels"]]) {
+      const t = io();
+      expect(await mapRun(["design.fnb", "--family", "cmos-hc-5v", "--multilevel", ...aim], t.io)).toBe(0);
+      const doc = JSON.parse(t.out.join(""));
+      expect(Object.keys(doc).sort()).toEqual(["caution", "gates", "inputs", "outputs", "stats", "warnings"]);
+      expect(doc.stats.gates).toBe(doc.gates.length);
+      // the netlist equals the compiled specification on every care minterm (reference evaluation here)
+      const spec = compileSource(INTERLOCK).spec!;
+      const net: Netlist = { inputs: doc.inputs, outputs: doc.outputs, gates: doc.gates.map((g: object) => ({ ...g, role: "logic" })), complements: [] };
+      const inCube = (c: { value: number; mask: number }, m: number) => ((m ^ c.value) & c.mask) === 0;
+      for (let m = 0; m < 2 ** spec.inputs.length; m++) {
+        const v = evalNetlist(net, spec.inputs, m);
+        for (const o of spec.outputs) {
+          if (o.dc.some((c) => inCube(c, m))) continue;
+          expect(v.get(doc.outputs.find((x: { name: string }) => x.name === o.name).net)).toBe(o.on.some((c) => inCube(c, m)));
+        }
+      }
+    }
+    const bad = io();
+    expect(await mapRun(["d", "--family", "cmos-hc-5v", "--multilevel", "--aim", "speed"], bad.io)).toBe(2);
+    expect(bad.err.join("")).toMatch(/--aim takes gates or levels/);
+    const alone = io();
+    expect(await mapRun(["d", "--family", "cmos-hc-5v", "--aim", "levels"], alone.io)).toBe(2);
+    expect(alone.err.join("")).toMatch(/add --multilevel/);
+  });
   it("an unknown family is a clear error listing the ids, exit 2", async () => {
     const t = io();
     expect(await mapRun(["d", "--family", "valve-logic"], t.io)).toBe(2);

@@ -1,5 +1,5 @@
 // Independent reference evaluation written for the tests: one minterm at a
-// time, straight from the gate definitions, sharing no code with lib/map/verify.
+// time, straight from the gate definitions, sharing no code with lib/verify or lib/map/simulate.
 import type { Netlist } from "../../lib/map/index";
 import type { Cube } from "../../lib/logic/index";
 

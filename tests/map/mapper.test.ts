@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { mapCovers, MapError, verifyNetlist, TARGET_FORMS, type CoverSet, type Netlist, type TargetForm } from "../../lib/map/index";
+import { mapCovers, MapError, verifyAgainstCovers, verifyNetlist, TARGET_FORMS, type CoverSet, type Netlist, type TargetForm } from "../../lib/map/index";
 import { builtInFamily, type Family } from "../../lib/families/index";
 import { cubeFromString, type Cube } from "../../lib/logic/index";
 import { evalCover, evalNetlist, levels, netLoads } from "./helpers";
@@ -212,15 +212,19 @@ describe("every mapping equals its cover", () => {
 
 describe("verification", () => {
   it("finds a wrong gate exhaustively", () => {
-    // brute force here: the reported minterm is re-evaluated with tests/map/helpers, which shares no code with lib/map/verify
+    // brute force here: the reported minterm is re-evaluated with tests/map/helpers, which shares no code with lib/verify
     const covers: CoverSet = { inputs: letters(3), outputs: [sop("f", "11-", "--1")] };
     const r = mapCovers(covers, user(2));
+    expect(r.verification).toEqual({ ok: true, method: "exhaustive" });
     const broken: Netlist = { ...r.netlist, gates: r.netlist.gates.map((g) => (g.type === "OR" ? { ...g, type: "AND" as const } : g)) };
-    const v = verifyNetlist(broken, covers.inputs, [{ name: "f", on: covers.outputs[0]!.cubes, dc: [] }]);
+    const v = verifyNetlist(broken, { inputs: covers.inputs, outputs: [{ name: "f", on: covers.outputs[0]!.cubes, dc: [] }] });
     expect(v.ok).toBe(false);
-    const m = v.mismatches[0]!;
-    // the reported minterm really differs: reference evaluation here
-    expect(evalNetlist(broken, covers.inputs, m.minterm).get("f")).not.toBe(evalCover("sop", covers.outputs[0]!.cubes, m.minterm));
+    if (v.ok) return;
+    expect(v.method).toBe("exhaustive");
+    // the reported minterm really differs, in the direction reported: reference evaluation here
+    const got = evalNetlist(broken, covers.inputs, v.minterm).get("f");
+    expect(got).not.toBe(evalCover("sop", covers.outputs[0]!.cubes, v.minterm));
+    expect(got).toBe(v.kind === "extra");
   });
   it("proves and refutes above 20 inputs with SAT", () => {
     // the refutation's counterexample is re-checked by brute force here (one minterm through tests/map/helpers);
@@ -235,10 +239,11 @@ describe("verification", () => {
     // drop the last product's gate input: the netlist now misses minterms of s0 · s21
     const last = r.netlist.gates.find((g) => g.inputs.includes("s21"))!;
     const broken: Netlist = { ...r.netlist, gates: r.netlist.gates.map((g) => (g === last ? { ...g, inputs: g.inputs.map((x) => (x === "s21" ? "s1" : x)) } : g)) };
-    const v = verifyNetlist(broken, inputs, [{ name: "weir_open", on: cubes, dc: [] }]);
+    const v = verifyNetlist(broken, { inputs, outputs: [{ name: "weir_open", on: cubes, dc: [] }] });
     expect(v.ok).toBe(false);
-    const m = v.mismatches[0]!.minterm;
-    expect(evalNetlist(broken, inputs, m).get(broken.outputs[0]!.net)).not.toBe(evalCover("sop", cubes, m));
+    if (v.ok) return;
+    expect(v.method).toBe("sat");
+    expect(evalNetlist(broken, inputs, v.minterm).get(broken.outputs[0]!.net)).not.toBe(evalCover("sop", cubes, v.minterm));
   });
   it("accepts any value on don't-cares", () => {
     // textbook definition of a don't-care (from memory): either output value satisfies the specification there;
@@ -250,39 +255,36 @@ describe("verification", () => {
   });
 });
 
-describe("cross-check between two of our verifiers", () => {
-  it("lib/map/verify and lib/verify agree on mapped and on broken netlists", async () => {
-    // not an outside source: lib/verify is project code too, so agreement only shows the two implementations are
-    // consistent. The outside checks are the brute-force truth tables these tests compute (checkAgainstCovers,
-    // tests/map/helpers) and the Icarus Verilog / GHDL simulations in tests/export/hdl.test.ts. Here the netlist
-    // is simulated by the test's own brute-force evaluator, and a gate is mutated so both verdicts occur.
-    const { verifyImplementation } = await import("../../lib/verify/index");
+describe("the netlist verdict against brute force", () => {
+  it("lib/verify, given the netlist through lib/map's adapter, agrees with a minterm-by-minterm evaluation", () => {
+    // The outside check is the brute-force truth table computed here (tests/map/helpers, which shares no code with
+    // lib/verify or lib/map/simulate); a gate is mutated so both verdicts occur. SOP and POS covers are both checked,
+    // with and without a specification (a POS cover alone is checked by its complement against its OFF products).
     const verdicts = new Set<boolean>();
     const cube = (n: number) => fc.array(fc.constantFrom("0", "1", "-"), { minLength: n, maxLength: n }).map((a) => a.join(""));
     const arb = fc.integer({ min: 2, max: 6 }).chain((n) =>
-      fc.record({ n: fc.constant(n), cubes: fc.array(cube(n), { minLength: 1, maxLength: 6 }), form: fc.constantFrom(...TARGET_FORMS), flip: fc.nat(), to: fc.constantFrom("AND", "OR", "NAND", "NOR", "XOR") }),
+      fc.record({ n: fc.constant(n), cubes: fc.array(cube(n), { minLength: 1, maxLength: 6 }), pos: fc.boolean(), form: fc.constantFrom(...TARGET_FORMS), flip: fc.nat(), to: fc.constantFrom("AND", "OR", "NAND", "NOR", "XOR") }),
     );
     fc.assert(
-      fc.property(arb, ({ n, cubes, form, flip, to }) => {
+      fc.property(arb, ({ n, cubes, pos, form, flip, to }) => {
         const inputs = letters(n);
-        const spec = { inputs, outputs: [{ name: "y", on: cubes.map(cubeFromString), dc: [] }] };
-        const r = mapCovers({ inputs, outputs: [{ name: "y", form: "sop", cubes: spec.outputs[0]!.on }] }, user(3, 4), { form });
+        const cover = { name: "y", form: pos ? ("pos" as const) : ("sop" as const), cubes: cubes.map(cubeFromString) };
+        const r = mapCovers({ inputs, outputs: [cover] }, user(3, 4), { form });
+        expect(r.verification?.ok).toBe(true);
         const gates = r.netlist.gates.map((g, i) => (r.netlist.gates.length && i === flip % r.netlist.gates.length && g.inputs.length > 1 ? { ...g, type: to as Netlist["gates"][number]["type"] } : g));
         const broken: Netlist = { ...r.netlist, gates };
-        const mine = verifyNetlist(broken, inputs, [{ name: "y", on: spec.outputs[0]!.on, dc: [] }]);
-        const theirs = verifyImplementation(spec, {
-          simulate: () => {
-            const words = Math.max(1, 2 ** n / 32);
-            const t = new Uint32Array(words);
-            for (let m = 0; m < 2 ** n; m++) if (evalNetlist(broken, inputs, m).get(broken.outputs[0]!.net)) t[m >>> 5]! |= 1 << (m & 31);
-            return [t];
-          },
-        });
-        expect(mine.ok).toBe(theirs.ok);
-        // brute force here, the check that does not rest on project code: every minterm through tests/map/helpers
+        // brute force here: every minterm through tests/map/helpers
         let same = true;
-        for (let m = 0; m < 2 ** n && same; m++) same = evalNetlist(broken, inputs, m).get(broken.outputs[0]!.net) === evalCover("sop", spec.outputs[0]!.on, m);
+        const on: Cube[] = [];
+        for (let m = 0; m < 2 ** n; m++) {
+          const want = evalCover(cover.form, cover.cubes, m);
+          if (want) on.push(cubeFromString(m.toString(2).padStart(n, "0")));
+          if (evalNetlist(broken, inputs, m).get(broken.outputs[0]!.net) !== want) same = false;
+        }
+        const mine = verifyAgainstCovers(broken, inputs, [cover]);
         expect(mine.ok).toBe(same);
+        expect(verifyNetlist(broken, { inputs, outputs: [{ name: "y", on, dc: [] }] }).ok).toBe(same);
+        if (!mine.ok) expect(evalNetlist(broken, inputs, mine.minterm).get(broken.outputs[0]!.net)).not.toBe(evalCover(cover.form, cover.cubes, mine.minterm));
         verdicts.add(same);
       }),
       { numRuns: 150, seed: 1729 },

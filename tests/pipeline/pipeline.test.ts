@@ -7,6 +7,49 @@ const LAMPS = readFileSync("lib/lang/examples/status-lamps.fnb", "utf8");
 const PRIORITY = readFileSync("lib/lang/examples/fault-priority.fnb", "utf8");
 const family = (id: string) => BUILT_IN_FAMILIES.find((f) => f.id === id)!;
 
+describe("two-level and factored structures", () => {
+  const INTERLOCK = readFileSync("lib/lang/examples/chamber-interlock.fnb", "utf8");
+  const hc = family("cmos-hc-5v");
+  it("keeps the factored structure when the settings say so, with both structures' figures side by side", () => {
+    const r = compileNow({ source: INTERLOCK, family: hc, settings: { structure: "factored" }, exports: ["verilog"] });
+    expect(r.error).toBeNull();
+    const res = r.result!;
+    expect(res.verification?.ok).toBe(true);
+    expect(res.structures.map((s) => [s.structure, s.kept])).toEqual([["two-level", false], ["factored", true]]);
+    const [two, fac] = res.structures;
+    // the kept structure is the one returned, and it is never worse than two-level by the aim (gates by default)
+    expect(fac!.gates).toBe(res.analysis.gates);
+    expect(fac!.levels).toBe(res.analysis.depth);
+    expect(res.stats.gates).toBe(fac!.gates);
+    expect(fac!.gates).toBeLessThanOrEqual(two!.gates);
+    for (const s of res.structures) {
+      expect(s.verified).toBe(true);
+      expect(typeof s.delayNs).toBe("number");
+      expect(typeof s.staticMw).toBe("number");
+    }
+    expect(res.exports.verilog).toMatch(/factored/);
+  });
+  it("compares without keeping the factored structure, and builds only the kept one when asked not to compare", () => {
+    const r = compileNow({ source: INTERLOCK, family: hc }).result!;
+    expect(r.structures.map((s) => [s.structure, s.kept])).toEqual([["two-level", true], ["factored", false]]);
+    expect(r.structures[0]!.gates).toBe(r.analysis.gates);
+    const alone = compileNow({ source: INTERLOCK, family: hc, compare: false }).result!;
+    expect(alone.structures.map((s) => s.structure)).toEqual(["two-level"]);
+    expect(alone.analysis.gates).toBe(r.analysis.gates);
+  });
+  it("aims at the fewest levels when asked", () => {
+    const r = compileNow({ source: INTERLOCK, family: hc, settings: { structure: "factored", aim: "levels" } }).result!;
+    const [two, fac] = r.structures;
+    expect(fac!.levels).toBeLessThanOrEqual(two!.levels);
+  });
+  it("the settings schema takes the structure and the aim, and refuses others", () => {
+    expect(designSettingsSchema.safeParse({ structure: "factored", aim: "levels" }).success).toBe(true);
+    expect(designSettingsSchema.safeParse({ structure: "three-level" }).success).toBe(false);
+    expect(designSettingsSchema.safeParse({ aim: "speed" }).success).toBe(false);
+    expect(resolveSettings({})).toMatchObject({ structure: "two-level", aim: "gates" });
+  });
+});
+
 describe("compileNow (the pipeline on this thread)", () => {
   it("runs every stage and returns verified results", () => {
     const r = compileNow({ source: PRIORITY, family: family("cmos-hc-5v"), settings: { form: "nand", fanIn: 4 }, exports: ["verilog", "vhdl", "csv", "json"] });
@@ -45,7 +88,7 @@ describe("compileNow (the pipeline on this thread)", () => {
     expect(designSettingsSchema.safeParse({ form: "nand", fanIn: 4 }).success).toBe(true);
     expect(designSettingsSchema.safeParse({ fanIn: 1 }).success).toBe(false);
     expect(designSettingsSchema.safeParse({ form: "pla" }).success).toBe(false);
-    expect(resolveSettings({ form: "nor" })).toEqual({ form: "nor", cost: "products", complementedInputs: false, outputPinLoad: 1, clockMHz: 10, activity: 0.25, heuristic: false });
+    expect(resolveSettings({ form: "nor" })).toEqual({ form: "nor", cost: "products", complementedInputs: false, outputPinLoad: 1, clockMHz: 10, activity: 0.25, heuristic: false, spareInverters: true, structure: "two-level", aim: "gates" });
     // A stored family id among the settings is not a setting.
     expect(resolveSettings({ familyId: "x" } as never)).not.toHaveProperty("familyId");
   });
@@ -79,7 +122,7 @@ describe("compile (the pipeline on an executor)", () => {
     const seen: Progress[] = [];
     const r = await compile({ source: LAMPS, family: family("ttl-std-5v") }, runInThread, { onProgress: (p) => seen.push(p) });
     const stages = seen.map((p) => p.stage).filter((s, i, all) => i === 0 || all[i - 1] !== s);
-    expect(stages).toEqual(["minimize", "map", "analyse", "export"]);
+    expect(stages).toEqual(["minimize", "map", "factor", "analyse", "export"]);
     const covers = r.result!.covers;
     // Within the minimize stage: the primes once listed, then the cover found and its bound.
     const minimizing = seen.filter((p) => p.stage === "minimize");

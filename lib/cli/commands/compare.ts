@@ -1,5 +1,5 @@
 /**
- * `npm run -s cli -- compare OLD NEW --family ID [--form ...] [--fanin N] [--fanout N]` maps both
+ * `npm run -s cli -- compare OLD NEW --family ID [--form ...] [--fanin N] [--fanout N] [--multilevel ...]` maps both
  * designs with the same options (those of `map`) and prints
  * {"from": stats, "to": stats, "delta": {gates, depth, packages, transistors, delayNs, staticMw, dynamicMw},
  *  "outputs": [{"name", "from": {products, literals} | null, "to": {...} | null}]}
@@ -20,7 +20,7 @@ const USAGE = `usage: npm run -s cli -- compare OLD NEW ${MAP_OPTIONS_USAGE}`;
 type Outcome = { ok: true; result: CompileResult } | { ok: false; code: number };
 
 function mapOne(io: CliIO, file: string, source: string, family: Family, settings: MapArgs["settings"]): Outcome {
-  const r = compileNow({ source, family, settings });
+  const r = compileNow({ source, family, settings, compare: false });
   if (!r.spec) {
     io.out(JSON.stringify({ ok: false, file, diagnostics: r.diagnostics }, null, 2));
     return { ok: false, code: 1 };

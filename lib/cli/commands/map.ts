@@ -1,10 +1,15 @@
 /**
  * `npm run -s cli -- map FILE --family ID [--form and-or|nand|nor|or-and|mixed] [--fanin N] [--fanout N]
- *  [--format json|verilog|vhdl|csv]` maps the minimized design onto a family and prints the JSON
+ *  [--no-spare-inverters] [--multilevel [--aim gates|levels]] [--format json|verilog|vhdl|csv]` maps the minimized design onto a family and prints the JSON
  * netlist {"inputs", "outputs", "gates", "stats", "warnings"} or the chosen export.
  * --fanin and --fanout override the family's limits: --fanin N caps the gate widths on offer at N
  * (a family that lists no gates offers every width from 2 to N), --fanout N replaces the derived
  * fan-out in unit loads. Output pins count 1 unit load each; complemented inputs are not assumed.
+ * Inverters take spare places of NAND/NOR/XOR/XNOR packages already used when that saves inverter
+ * packages, unless --no-spare-inverters is given.
+ * --multilevel maps the factored multi-level network (lib/factor) instead of the two-level covers —
+ * the same JSON format — keeping the fewest gates, or with --aim levels the fewest levels; the
+ * two-level structure is kept when nothing factored is better by that aim.
  * Language errors print the `check` JSON and exit 1; a mapping or limit error prints
  * {"error": {"code", "message"}} and exits 1; an unknown family or bad option exits 2.
  */
@@ -22,7 +27,7 @@ export async function run(args: string[], io: CliIO): Promise<number> {
   }
   const file = parsed.files[0]!;
   const source = io.readSource(file);
-  const r = compileNow({ source, family: parsed.family, settings: parsed.settings, exports: [parsed.format], unitName: unitFromFile(file) });
+  const r = compileNow({ source, family: parsed.family, settings: parsed.settings, exports: [parsed.format], unitName: unitFromFile(file), compare: false });
   if (!r.spec) {
     io.out(JSON.stringify({ ok: false, diagnostics: r.diagnostics }, null, 2));
     return 1;
