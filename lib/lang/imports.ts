@@ -127,3 +127,36 @@ function blockFromSource(use: UseStatement, source: string, revision: number, li
     library: { library: use.library, revision },
   };
 }
+
+/**
+ * The checks a block's source must pass to be published to a library: it
+ * compiles as a design of its own, uses no library blocks itself, and its
+ * outputs are fully specified (no dc(...); impossible input combinations are
+ * never lines). Diagnostics are located in the block's own source.
+ */
+export function checkBlockSource(source: string, limits: Required<LanguageLimits>): { diagnostics: Diagnostic[]; inputs: string[]; outputs: string[] } {
+  const d: Diagnostic[] = [];
+  const parsed = parseSource(source, limits);
+  d.push(...parsed.diagnostics);
+  const inputs: string[] = [];
+  const outputs: string[] = [];
+  if (!hasErrors(d)) {
+    const uses = parsed.program.statements.flatMap((s) => (s.kind === "use" ? [s.name.text] : []));
+    const checked = checkProgram(parsed.program, d, { blocks: new Map(), failed: new Set(uses) });
+    inputs.push(...checked.design.inputs.map((n) => n.text));
+    outputs.push(...checked.design.outputs.map((n) => n.text));
+    for (const s of parsed.program.statements) {
+      if (s.kind === "use") {
+        d.push(error(`a library block cannot use other library blocks; copy block '${s.name.text}' into this source as a block … end`, s.range));
+      }
+      if (s.kind === "assign") {
+        const v = s.value;
+        const dc = v.kind === "expr" ? v.dc : v.clauses.find((c) => c.kind === "dc");
+        if (dc) {
+          d.push(error(`a library block's outputs must be fully specified, so it cannot have dc(...); write impossible input combinations as never lines instead`, dc.range));
+        }
+      }
+    }
+  }
+  return { diagnostics: d, inputs, outputs };
+}

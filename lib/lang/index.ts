@@ -11,7 +11,7 @@ import { checkNeverCoverage, elaborate } from "./elaborate";
 import { formatProgram } from "./format";
 import { withDefaults, type LanguageLimits } from "./limits";
 import { parseSource } from "./parse";
-import { importBlocks } from "./imports";
+import { checkBlockSource, importBlocks } from "./imports";
 import type { LibraryResolver, UsedBlock } from "./library";
 
 export type { Diagnostic } from "./diagnostics";
@@ -23,7 +23,7 @@ export { KEYWORDS } from "./tokens";
 export { formatExpr } from "./format";
 export { symbolTable, type SymbolInfo } from "./symbols";
 export { highlightToHtml } from "./highlight";
-export { findUses, resolverFrom, useKey, type LibraryAnswer, type LibraryRequest, type LibraryResolver, type UseLine, type UsedBlock } from "./library";
+export { findUses, resolverFrom, requestKey, type LibraryAnswer, type LibraryRequest, type LibraryResolver, type UseLine, type UsedBlock } from "./library";
 
 /** Options of {@link compileSource}: the size limits, and where library blocks come from. */
 export interface CompileOptions extends LanguageLimits {
@@ -92,6 +92,37 @@ function compileUnguarded(source: string, options?: CompileOptions): CompiledSou
   const neverRanges = parsed.program.statements.filter((s) => s.kind === "never").map((s) => s.range);
   checkNeverCoverage(checked, limits, diagnostics, neverRanges);
   return done(hasErrors(diagnostics) ? null : spec, imports.used);
+}
+
+/**
+ * Checks a source that is to be published as a library block: it must compile
+ * as a design of its own, use no library blocks itself, and give no dc(...)
+ * on its outputs (impossible combinations are never lines). Returns the
+ * errors (located in the block's source) and its ports: inputs and outputs in
+ * declared order, the parameters and results of a call.
+ */
+export function checkLibraryBlock(source: string, options?: LanguageLimits): { diagnostics: Diagnostic[]; inputs: string[]; outputs: string[] } {
+  const limits = withDefaults(options);
+  try {
+    const own = checkBlockSource(source, limits);
+    // A source that passes the block checks must also work out (limits, overlaps) as a design.
+    const compiled = hasErrors(own.diagnostics) ? null : compileSource(source, limits);
+    const diagnostics = [...own.diagnostics, ...(compiled?.diagnostics ?? []).filter((x) => x.severity === "error")];
+    return { diagnostics: sortDiagnostics(dedupe(diagnostics)), inputs: own.inputs, outputs: own.outputs };
+  } catch (e) {
+    if (!(e instanceof RangeError)) throw e;
+    return { diagnostics: [tooDeep()], inputs: [], outputs: [] };
+  }
+}
+
+function dedupe(ds: Diagnostic[]): Diagnostic[] {
+  const seen = new Set<string>();
+  return ds.filter((x) => {
+    const k = JSON.stringify(x);
+    if (seen.has(k)) return false;
+    seen.add(k);
+    return true;
+  });
 }
 
 /**

@@ -92,15 +92,15 @@ export function findUses(source: string): UseLine[] {
 }
 
 /** The key a resolver's answers are kept under: library, block and revision as written. */
-export function useKey(r: LibraryRequest): string {
+export function requestKey(r: LibraryRequest): string {
   return JSON.stringify([r.library, r.block, r.revision]);
 }
 
 /**
- * A resolver that answers from a list made beforehand (keyed by {@link useKey}),
+ * A resolver that answers from a list made beforehand (keyed by {@link requestKey}),
  * and otherwise with `fallback`'s message. The server and the CLI load what
  * the use lines name, then hand this to compileSource.
  */
 export function resolverFrom(answers: ReadonlyMap<string, LibraryAnswer>, fallback: (r: LibraryRequest) => string): LibraryResolver {
-  return (r) => answers.get(useKey(r)) ?? { ok: false, message: fallback(r) };
+  return (r) => answers.get(requestKey(r)) ?? { ok: false, message: fallback(r) };
 }

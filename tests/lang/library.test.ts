@@ -4,7 +4,7 @@
 // with the design's wiring by direct evaluation in this file — never the
 // pipeline's answer for the design itself.
 import { describe, expect, it } from "vitest";
-import { compileSource, findUses, type LibraryAnswer, type LibraryRequest, type LibraryResolver } from "../../lib/lang/index";
+import { checkLibraryBlock, compileSource, findUses, type LibraryAnswer, type LibraryRequest, type LibraryResolver } from "../../lib/lang/index";
 import { tableFromCubes, tableMinterms, type Cube } from "../../lib/logic/index";
 import { compileNow } from "../../lib/pipeline/index";
 import { BUILT_IN_FAMILIES } from "../../lib/families/index";
@@ -323,5 +323,23 @@ describe("findUses", () => {
       },
     ]);
     expect(findUses("inputs a\noutputs f\nf = a\n")).toEqual([]);
+  });
+});
+
+describe("checkLibraryBlock", () => {
+  it("gives the ports of a publishable block", () => {
+    expect(checkLibraryBlock(CORE)).toEqual({ diagnostics: [], inputs: ["other_shut", "level", "key", "estop"], outputs: ["permit", "key_alarm"] });
+  });
+  it("refuses use lines and dc(...), located in the block's own source", () => {
+    const r = checkLibraryBlock('inputs a, b\noutputs f, g\nuse x from "l" at 1\nf = x(a) dc(0)\ng = on(1) dc(2)\n');
+    expect(r.diagnostics.map((d) => [d.line, d.column, d.message.slice(0, 40)])).toEqual([
+      [3, 1, "a library block cannot use other library"],
+      [4, 10, "a library block's outputs must be fully "],
+      [5, 11, "a library block's outputs must be fully "],
+    ]);
+  });
+  it("refuses a source that does not compile", () => {
+    const errors = checkLibraryBlock("inputs a\noutputs f\n").diagnostics.filter((d) => d.severity === "error");
+    expect(errors[0]!.message).toContain("output 'f' is never assigned");
   });
 });
