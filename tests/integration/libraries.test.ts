@@ -7,6 +7,9 @@
  * Expected functions come from the blocks' own truth tables composed in this
  * file, not from the pipeline's answer for the design.
  */
+import { spawn } from "node:child_process";
+import { createServer } from "node:http";
+import type { AddressInfo } from "node:net";
 import { beforeAll, beforeEach, describe, expect, it } from "vitest";
 import { Sequelize } from "sequelize";
 import pg from "pg";
@@ -324,5 +327,53 @@ describe("an approved review before a publish counts", () => {
     const ok = await call(compile.POST, "POST", "/compile", { token: designer.token, body: { source: design(4), workspace: ws.slug, familyId } });
     expect(ok.json.diagnostics).toEqual([]);
     await call(workspace.PATCH, "PATCH", "/w", { token: owner.token, params: wsp(), body: { settings: { requireReviewToPublish: false } } });
+  });
+});
+
+describe("the CLI against the server's API (FANBOUND_URL, FANBOUND_TOKEN)", () => {
+  it("resolves use lines through the resolve route, as the workspace's compiles would", async () => {
+    // The real route handler behind a plain HTTP listener on loopback, so the CLI speaks HTTP to it as to the app.
+    const server = createServer((req, res) => {
+      const chunks: Buffer[] = [];
+      req.on("data", (c: Buffer) => chunks.push(c));
+      req.on("end", () => {
+        const url = new URL(req.url ?? "/", "http://127.0.0.1");
+        const m = /^\/api\/v1\/workspaces\/([^/]+)\/libraries\/resolve$/.exec(url.pathname);
+        if (!m || req.method !== "POST") {
+          res.writeHead(404).end();
+          return;
+        }
+        const headers = new Headers();
+        for (const [k, v] of Object.entries(req.headers)) if (typeof v === "string") headers.set(k, v);
+        void resolve.POST(new Request(url, { method: "POST", headers, body: Buffer.concat(chunks) }), { params: Promise.resolve({ ws: decodeURIComponent(m[1]!) }) })
+          .then(async (r) => {
+            res.writeHead(r.status, { "content-type": "application/json" }).end(await r.text());
+          });
+      });
+    });
+    await new Promise<void>((ok) => server.listen(0, "127.0.0.1", ok));
+    const port = (server.address() as AddressInfo).port;
+    try {
+      const run = (source: string, env: Record<string, string>) =>
+        new Promise<{ code: number | null; out: string }>((ok) => {
+          const child = spawn(process.execPath, ["lib/cli/run.mjs", "table", "-"], { env: { ...process.env, FANBOUND_URL: `http://127.0.0.1:${port}`, FANBOUND_TOKEN: designer.token, ...env } });
+          let out = "";
+          child.stdout.on("data", (c: Buffer) => (out += c.toString()));
+          child.on("close", (code) => ok({ code, out }));
+          child.stdin.end(source);
+        });
+      const pinned = await run(design(2), { FANBOUND_WORKSPACE: ws.slug });
+      expect(pinned.code).toBe(0);
+      expect(JSON.parse(pinned.out).outputs[0].on).toEqual(expectedOpen(VOTE_2));
+      // Without FANBOUND_WORKSPACE, a "slug/key" line names the workspace itself.
+      const bySlug = await run(design(1, `${ws.slug}/${lib.key}`), { FANBOUND_WORKSPACE: "" });
+      expect(JSON.parse(bySlug.out).outputs[0].on).toEqual(expectedOpen(VOTE_1));
+      // A caller the server does not know is told what the server said.
+      const unknown = await run(design(1, `${ws.slug}/${lib.key}`), { FANBOUND_WORKSPACE: "", FANBOUND_TOKEN: "not-a-token" });
+      expect(unknown.code).toBe(1);
+      expect(JSON.parse(unknown.out).diagnostics[0].message).toMatch(/could not answer for workspace .*: Sign in, or send a personal API token/);
+    } finally {
+      server.close();
+    }
   });
 });
