@@ -26,7 +26,8 @@ beforeAll(async () => {
   const out = mkdtempSync(path.join(tmpdir(), "fanbound-bundle-"));
   await esbuild.build(buildOptions({ entry: "tests/cli/fixtures/bundle-entry.ts" }, out));
   bundled = (await import(pathToFileURL(path.join(out, "entry.mjs")).href)) as Bundled;
-});
+  // The build takes a few seconds, and longer on a busy machine than the default 10 s a hook gets.
+}, 60_000);
 
 const cases = readdirSync("tests/lang/cases").filter((f) => f.endsWith(".fnb")).sort();
 const examples = readdirSync("lib/lang/examples").filter((f) => f.endsWith(".fnb")).sort();
