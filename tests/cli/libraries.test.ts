@@ -1,5 +1,5 @@
 // The command line with --library NAME=DIR: use lines answered from local
-// folders (DIR/BLOCK/N.fnb), in check, table, minimize and map. The expected
+// folders (DIR/BLOCK/N.fnb), in check, table, minimize, map and compare. The expected
 // function is the blocks' own truth tables composed in this file.
 import { spawnSync } from "node:child_process";
 import { mkdirSync, mkdtempSync, writeFileSync } from "node:fs";
@@ -41,6 +41,7 @@ beforeAll(() => {
   writeFileSync(path.join(lib, "vote2of3", "1.fnb"), VOTE_1);
   writeFileSync(path.join(lib, "vote2of3", "2.fnb"), VOTE_2);
   writeFileSync(path.join(dir, "gate.fnb"), DESIGN(1));
+  writeFileSync(path.join(dir, "gate-2.fnb"), DESIGN(2));
 });
 
 describe("cli --library NAME=DIR", () => {
@@ -103,6 +104,27 @@ describe("cli --library NAME=DIR", () => {
       if (v.get(doc.outputs[0]!.net)) on.push(m);
     }
     expect(on).toEqual(expected(VOTE_1));
+  });
+
+  it("compare maps each file with its own revision of the block: the same figures as map of each, and NEW − OLD", () => {
+    const lib_ = ["--library", `lock-blocks=${lib}`];
+    const stats = (file: string) => {
+      const r = cli(["map", path.join(dir, file), "--family", "cmos-hc-5v", ...lib_]);
+      expect(r.code).toBe(0);
+      return (JSON.parse(r.out) as { stats: { gates: number; depth: number } }).stats;
+    };
+    const r = cli(["compare", path.join(dir, "gate.fnb"), path.join(dir, "gate-2.fnb"), "--family", "cmos-hc-5v", ...lib_]);
+    expect(r.code).toBe(0);
+    const report = JSON.parse(r.out) as { from: { gates: number }; to: { gates: number }; delta: { gates: number } };
+    const [one, two] = [stats("gate.fnb"), stats("gate-2.fnb")];
+    expect(report.from).toEqual(one);
+    expect(report.to).toEqual(two);
+    expect(report.delta.gates).toBe(two.gates - one.gates);
+    // Revision 2's stricter vote (all three) is one product of five literals where revision 1 needs three: fewer gates.
+    expect(two.gates).toBeLessThan(one.gates);
+    const without = cli(["compare", path.join(dir, "gate.fnb"), path.join(dir, "gate-2.fnb"), "--family", "cmos-hc-5v"]);
+    expect(without.code).toBe(1);
+    expect(JSON.parse(without.out).diagnostics[0].message).toContain("give --library lock-blocks=DIR");
   });
 
   it("refuses a --library that is not NAME=DIR of a folder", () => {
