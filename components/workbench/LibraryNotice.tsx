@@ -2,17 +2,21 @@
 /**
  * "A newer revision of BLOCK is available": for each library block the draft
  * uses at an older revision, the design's figures now and with the newer
- * revision (the draft compiled once more with the `at` number moved, under the
- * design's own family and settings), the block's own stored figures beside
- * them, and a button that changes the `at` number in the draft. Changing the
- * text is all the button does; the draft is kept as any edit is.
+ * revision as the compare view sets them side by side (the draft compiled once
+ * more with the `at` number moved, under the design's own family and
+ * settings), the block's own stored figures beside them, and a button that
+ * changes the `at` number in the draft. Changing the text is all the button
+ * does; the draft is kept as any edit is.
  */
 import Link from "next/link";
 import useSWR from "swr";
 import { api, ApiError } from "@/lib/client/fetcher";
-import { figureDeltas } from "@/lib/libraries";
+import { compareFigures, figuresOf, type Comparison } from "@/lib/review";
 import type { CompileResponse, WorkbenchSettings } from "./types";
 import { FigureDeltas } from "@/components/libraries/FigureDeltas";
+import { DIRECTION_WORDS, FIGURE_LABELS, directionClass, fmtDelta, fmtFigure, powerUnit } from "@/components/review/format";
+
+type Result = NonNullable<CompileResponse["result"]>;
 
 type Use = CompileResponse["libraries"][number];
 
@@ -45,8 +49,8 @@ export interface LibraryNoticeProps {
   source: string;
   familyId: string | undefined;
   settings: WorkbenchSettings;
-  /** The design's figures from the compile of the draft as it stands; null while that compile runs or when it has errors. */
-  stats: NonNullable<CompileResponse["result"]>["stats"] | null;
+  /** The compile of the draft as it stands; null while that compile runs or when it has errors. */
+  current: Result | null;
   mayEdit: boolean;
   onSource: (next: string) => void;
 }
@@ -61,22 +65,63 @@ export function LibraryNotice(p: LibraryNoticeProps) {
   );
 }
 
-function BehindBlock({ use: u, ws, source, familyId, settings, stats, mayEdit, onSource }: LibraryNoticeProps & { use: Use }) {
+/** The compare view's figure rows for two compiles of one design under the same family and settings. */
+function compareResults(before: Result, after: Result, settings: WorkbenchSettings): Comparison {
+  const side = (r: Result) => figuresOf({ stats: { ...r.stats }, netlist: r.netlist, family: { id: "", name: "" }, settings: { ...settings } });
+  return compareFigures(side(before), side(after));
+}
+
+function MoveFigures({ comparison: c, fromLabel, toLabel, testId }: { comparison: Comparison; fromLabel: string; toLabel: string; testId: string }) {
+  return (
+    <table className="text-xs tabular" data-testid={testId}>
+      <thead className="text-left uppercase tracking-wide text-graphite">
+        <tr>
+          <th className="pr-4 font-semibold">Figure</th>
+          <th className="pr-4 text-right font-semibold normal-case">{fromLabel}</th>
+          <th className="pr-4 text-right font-semibold normal-case">{toLabel}</th>
+          <th className="text-right font-semibold">Change</th>
+        </tr>
+      </thead>
+      <tbody className="font-mono">
+        {c.figures.map((r) => {
+          const unit = r.key === "staticMw" || r.key === "dynamicMw" ? powerUnit(r.from, r.to) : undefined;
+          return (
+            <tr key={r.key} data-figure={r.key} data-direction={r.direction}>
+              <td className="pr-4 font-sans">{FIGURE_LABELS[r.key].label}{FIGURE_LABELS[r.key].estimate ? " (est.)" : ""}</td>
+              <td className="pr-4 text-right">{fmtFigure(r.key, r.from, unit)}</td>
+              <td className="pr-4 text-right">{fmtFigure(r.key, r.to, unit)}</td>
+              <td className={`text-right ${directionClass(r.direction)}`} title={DIRECTION_WORDS[r.direction]}>{fmtDelta(r.key, r.delta, unit)}</td>
+            </tr>
+          );
+        })}
+        <tr data-figure="load" data-direction={c.load.direction}>
+          <td className="pr-4 font-sans">Heaviest load / fan-out limit (est.)</td>
+          {[c.load.from, c.load.to].map((x, i) => (
+            <td key={i} className={`pr-4 text-right ${x.over ? "text-vermilion" : ""}`}>{x.load} / {x.limit ?? "—"}{x.over ? " over" : ""}</td>
+          ))}
+          <td className={`text-right ${directionClass(c.load.direction)}`} title={DIRECTION_WORDS[c.load.direction]}>{fmtDelta("load", c.load.delta)}</td>
+        </tr>
+      </tbody>
+    </table>
+  );
+}
+
+function BehindBlock({ use: u, ws, source, familyId, settings, current, mayEdit, onSource }: LibraryNoticeProps & { use: Use }) {
   const newer = u.newer!;
-  const current = textAt(source, u.revisionRange) === String(u.revision);
-  const moved = current ? replaceRange(source, u.revisionRange, String(newer.number)) : null;
+  const lineAsCompiled = textAt(source, u.revisionRange) === String(u.revision);
+  const moved = lineAsCompiled ? replaceRange(source, u.revisionRange, String(newer.number)) : null;
   // The draft compiled with the newer revision, once the draft itself has compiled (the server keeps both results).
-  const key = moved !== null && stats && familyId ? JSON.stringify([moved, familyId, settings]) : null;
+  const key = moved !== null && current && familyId ? JSON.stringify([moved, familyId, settings]) : null;
   // Each answer carries the figures it is compared with, so the last pair stays on view (dimmed) while the next is worked out.
-  const { data, error, isValidating } = useSWR<{ before: NonNullable<LibraryNoticeProps["stats"]>; moved: CompileResponse }, Error>(
+  const { data, error, isValidating } = useSWR<{ before: Result; moved: CompileResponse }, Error>(
     key ? ["library-move", ws, key] : null,
-    async () => ({ before: stats!, moved: await api<CompileResponse>("/api/v1/compile", { method: "POST", json: { source: moved, workspace: ws, familyId, settings } }) }),
+    async () => ({ before: current!, moved: await api<CompileResponse>("/api/v1/compile", { method: "POST", json: { source: moved, workspace: ws, familyId, settings } }) }),
     { revalidateOnFocus: false, revalidateOnReconnect: false, revalidateIfStale: false, shouldRetryOnError: false, keepPreviousData: true },
   );
   const move = () => {
     if (moved !== null) onSource(moved);
   };
-  const after = data?.moved.result?.stats ?? null;
+  const after = data?.moved.result ?? null;
   const firstError = data?.moved.diagnostics.find((d) => d.severity === "error");
   const stale = key === null || isValidating;
 
@@ -100,7 +145,7 @@ function BehindBlock({ use: u, ws, source, familyId, settings, stats, mayEdit, o
       {newer.portChange && <p className="mt-1 text-xs text-amber" role="note">Its ports differ: {newer.portChange}.</p>}
       <div className="mt-2 flex flex-wrap items-start gap-x-10 gap-y-2">
         <div>
-          <p className="mb-1 text-xs font-semibold text-ink">This design, under its own family and settings</p>
+          <p className="mb-1 text-xs font-semibold text-ink">This design, under its own family and settings (the compare view&apos;s figures)</p>
           {error && !isValidating ? (
             <p className="max-w-md text-xs text-vermilion">
               The figures with r{newer.number} could not be worked out: {error instanceof ApiError ? error.message : String(error)}
@@ -108,7 +153,7 @@ function BehindBlock({ use: u, ws, source, familyId, settings, stats, mayEdit, o
           ) : data ? (
             <div className={stale ? "opacity-50" : ""} aria-busy={stale}>
               {after ? (
-                <FigureDeltas deltas={figureDeltas({ ...data.before }, { ...after })} fromLabel={`with r${u.revision}`} toLabel={`with r${newer.number}`}
+                <MoveFigures comparison={compareResults(data.before, after, settings)} fromLabel={`with r${u.revision}`} toLabel={`with r${newer.number}`}
                   testId={`deltas-${u.block}`} />
               ) : firstError ? (
                 <p className="max-w-md text-xs text-vermilion" data-testid={`move-errors-${u.block}`}>

@@ -242,7 +242,7 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
 
       {source !== null && shown && shown.libraries.length > 0 && (
         <LibraryNotice ws={ws} uses={shown.libraries} source={source} familyId={familyId} settings={settings}
-          stats={compile.dataKey === textKey && result ? result.stats : null} mayEdit={mayEdit} onSource={setSource} />
+          current={compile.dataKey === textKey ? result : null} mayEdit={mayEdit} onSource={setSource} />
       )}
 
       <div className="grid gap-4 xl:grid-cols-[minmax(0,5fr)_minmax(0,6fr)]">
