@@ -200,7 +200,12 @@ export async function seedDemoLibraries(
       const rev = await Revision.create({
         designId: design.id, number: i + 1, source: step.source, familyId: familyByKey.get(step.family)!.id,
         familySnapshot: { ...family(step.family) }, settings: { ...settings }, stats: { ...result.stats },
-        netlist: { model: result.model, document: result.document } as unknown as Record<string, unknown>,
+        // As saved revisions keep it: the netlist, its document and the critical path (for the compare view).
+        netlist: {
+          model: result.model,
+          document: result.document,
+          critical: { nets: result.analysis.criticalPath.nets, gates: result.analysis.criticalPath.gates },
+        } as unknown as Record<string, unknown>,
         authorId: users[step.author]!.id, message: step.message,
         createdAt: new Date(Date.now() - ((DEMO_LIBRARY_DESIGNS.length - di) * 4 + (demo.steps.length - i)) * day),
       });
