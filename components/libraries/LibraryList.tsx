@@ -121,7 +121,8 @@ function ReviewSetting({ ws, settings, onChanged }: { ws: string; settings: Reco
         A new block revision counts only once a review approves it
       </label>
       <p className="ml-6 text-xs text-graphite">
-        Until then it is listed as awaiting review, and designs cannot use it. (Owners only.)
+        Until then it is listed as awaiting review, and designs cannot use it; a reviewer or an owner, never its author, approves it on the
+        library&apos;s page. (Owners set this.)
       </p>
       {error && <p role="alert" className="text-xs text-vermilion">{error}</p>}
     </div>

@@ -33,6 +33,7 @@ export function LibraryPage({ ws, libraryId }: { ws: string; libraryId: string }
   const [shown, setShown] = useState<{ block: string; number: number } | null>(null);
   const lib = data?.library;
   const mayShare = !!lib && !lib.sharedIn && !!wsData && can(wsData.workspace.role, "library.share");
+  const mayApprove = !!lib && !lib.sharedIn && !!wsData && can(wsData.workspace.role, "review.approve");
 
   if (error) return <p role="alert" className="text-vermilion">{error.message}</p>;
   if (!lib) return <p className="text-graphite">Loading…</p>;
@@ -67,7 +68,10 @@ export function LibraryPage({ ws, libraryId }: { ws: string; libraryId: string }
         </p>
       )}
       {lib.requireReview && (
-        <p className="mb-3 text-sm text-graphite">New revisions of this library count once a review approves them; until then they are listed as awaiting review.</p>
+        <p className="mb-3 text-sm text-graphite">
+          New revisions of this library count once approved; until then they are listed as awaiting review and designs cannot use them. A
+          reviewer or an owner approves one here, never its author.
+        </p>
       )}
 
       {publishing && (
@@ -119,6 +123,9 @@ export function LibraryPage({ ws, libraryId }: { ws: string; libraryId: string }
                         <td className="px-3 py-2">
                           <span className={`rounded px-1.5 py-0.5 text-xs ${r.state === "published" ? "bg-accent/15 text-accent" : "bg-amber/15 text-amber"}`}>{r.state}</span>
                           {s.verified === true && <div className="mt-0.5 text-xs text-graphite" title="the netlist was proved equal to the block's function">verified</div>}
+                          {r.state === "awaiting review" && mayApprove && (
+                            <Approve url={`${url}/blocks/${encodeURIComponent(b.name)}/revisions/${r.number}/approval`} onDone={() => void mutate()} />
+                          )}
                         </td>
                         <td className="px-3 py-2">
                           {r.message}
@@ -194,6 +201,46 @@ function DeltaLine({ r }: { r: LibraryRevisionItem }) {
       ))}
       <span className="text-graphite"> against the revision before</span>
     </div>
+  );
+}
+
+/** Approves a revision awaiting review, with an optional note of what was checked (the server refuses its author). */
+function Approve({ url, onDone }: { url: string; onDone: () => void }) {
+  const [open, setOpen] = useState(false);
+  const [note, setNote] = useState("");
+  const [error, setError] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+  async function submit(e: React.FormEvent) {
+    e.preventDefault();
+    setError(null);
+    setBusy(true);
+    try {
+      await api(url, { method: "POST", json: note.trim() ? { note: note.trim() } : {} });
+      setOpen(false);
+      onDone();
+    } catch (err) {
+      setError(err instanceof ApiError ? err.message : String(err));
+    } finally {
+      setBusy(false);
+    }
+  }
+  if (!open) {
+    return (
+      <button type="button" onClick={() => setOpen(true)} className="mt-1 block rounded border border-rule px-1.5 py-0.5 text-xs hover:border-ink">
+        Approve…
+      </button>
+    );
+  }
+  return (
+    <form onSubmit={(e) => void submit(e)} className="mt-1 flex w-56 flex-col gap-1" aria-label="Approve this revision">
+      <input value={note} onChange={(e) => setNote(e.target.value)} placeholder="what you checked (optional)" aria-label="Approval note"
+        className="rounded border border-rule bg-paper px-1.5 py-0.5 text-xs" />
+      <div className="flex gap-1">
+        <button type="submit" disabled={busy} className="rounded bg-accent px-2 py-0.5 text-xs font-semibold text-paper disabled:opacity-50">Approve</button>
+        <button type="button" onClick={() => setOpen(false)} className="rounded border border-rule px-2 py-0.5 text-xs">Cancel</button>
+      </div>
+      {error && <p role="alert" className="text-xs text-vermilion">{error}</p>}
+    </form>
   );
 }
 

@@ -725,6 +725,15 @@ export const routes = {
     }),
     errors: WS,
   }),
+  approveLibraryRevision: defineRoute({
+    method: "POST", path: "/workspaces/{ws}/libraries/{libraryId}/blocks/{block}/revisions/{number}/approval", tag: "libraries", auth: "user",
+    summary: "Approve a block revision published while the workspace asks for an approved review first (reviewer, owner of the library's workspace; never its author); from then on designs may use it and it is the block's latest. 409 when it needed no review or is approved already",
+    params: LibraryParams.extend({ block: BlockName, number: z.coerce.number().int().positive() }),
+    body: z.object({ note: z.string().trim().max(2000).optional().describe("what was checked") }).strict(),
+    response: z.object({ revision: LibraryRevision.extend({ block: z.string(), library: z.string() }) }),
+    status: 201, errors: [...WS, 409, 413, 415, 429],
+    limits: ["review"],
+  }),
   shareLibrary: defineRoute({
     method: "POST", path: "/workspaces/{ws}/libraries/{libraryId}/shares", tag: "libraries", auth: "user",
     summary: "Share a library read-only with another workspace, named by its slug (owner); its members may use it and never publish to it",

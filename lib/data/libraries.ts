@@ -413,6 +413,31 @@ export async function resolveUses(p: { actor: Actor | null; slug: string; uses: 
   });
 }
 
+/**
+ * Approves a block revision published awaiting review (a reviewer or an owner
+ * of the library's own workspace, never its author), with an optional note:
+ * from then on it counts — use lines may name it and it is the block's latest.
+ * 409 when it needed no review or is approved already.
+ */
+export async function approveLibraryRevision(p: {
+  actor: Actor | null;
+  slug: string;
+  libraryId: string;
+  block: string;
+  number: number;
+  note?: string;
+}): Promise<LibraryRevisionView & { block: string; library: string }> {
+  const access = await requireAccess(p.actor, p.slug, "review.approve");
+  const l = await ownLibrary(access, p.libraryId, "approving its revisions");
+  const { models } = db();
+  const block = await models.LibraryBlock.findOne({ where: { libraryId: l.id, name: p.block } });
+  const rev = block ? await models.LibraryRevision.findOne({ where: { blockId: block.id, number: p.number } }) : null;
+  if (!rev) throw notFound("library revision");
+  await recordLibraryApproval({ libraryRevisionId: rev.id, reviewId: null, approvedBy: p.actor!.userId, note: p.note ?? "" });
+  const [row] = (await revisionsOf([l.id])).filter((r) => r.id === rev.id);
+  return { ...revisionView(row!), block: p.block, library: l.key };
+}
+
 // ---- REVIEW SEAM ------------------------------------------------------------------------------------------------
 // Reviews of design revisions are being built on another branch. When they land, the lead connects them here:
 //
@@ -420,7 +445,10 @@ export async function resolveUses(p: { actor: Actor | null; slug: string; uses: 
 //     does nothing: the library page shows the revision as awaiting review. Connect it to the review flow's "ask"
 //     (a review of a library revision: its source, and a comparison of its figures with the revision before).
 //  2. recordLibraryApproval: the review flow calls it when such a review is approved. It writes the approval row
-//     (immutable); from then on the revision counts: use lines may name it and it is the block's latest.
+//     (immutable); from then on the revision counts: use lines may name it and it is the block's latest. Until the
+//     flow reviews library revisions, a reviewer or an owner approves one on the library page
+//     (approveLibraryRevision, POST …/revisions/{number}/approval), under the flow's rule that an author never
+//     approves their own work; its approval row has no review_id.
 //
 // Nothing else needs to change: states come from library_approvals (COUNTS_SQL in library-resolve.ts).
 

@@ -24,6 +24,7 @@ import * as libRevision from "@/app/api/v1/workspaces/[ws]/libraries/[libraryId]
 import * as shares from "@/app/api/v1/workspaces/[ws]/libraries/[libraryId]/shares/route";
 import * as share from "@/app/api/v1/workspaces/[ws]/libraries/[libraryId]/shares/[workspace]/route";
 import * as resolve from "@/app/api/v1/workspaces/[ws]/libraries/resolve/route";
+import * as approval from "@/app/api/v1/workspaces/[ws]/libraries/[libraryId]/blocks/[block]/revisions/[number]/approval/route";
 import * as compile from "@/app/api/v1/compile/route";
 import * as workspace from "@/app/api/v1/workspaces/[ws]/route";
 import * as designs from "@/app/api/v1/workspaces/[ws]/designs/route";
@@ -327,6 +328,31 @@ describe("an approved review before a publish counts", () => {
     const ok = await call(compile.POST, "POST", "/compile", { token: designer.token, body: { source: design(4), workspace: ws.slug, familyId } });
     expect(ok.json.diagnostics).toEqual([]);
     await call(workspace.PATCH, "PATCH", "/w", { token: owner.token, params: wsp(), body: { settings: { requireReviewToPublish: false } } });
+  });
+
+  it("approving through the route: those who may approve, never the author, once", async () => {
+    await call(workspace.PATCH, "PATCH", "/w", { token: owner.token, params: wsp(), body: { settings: { requireReviewToPublish: true } } });
+    const byDesigner = await publishVote(VOTE_2, "All three again");
+    expect(byDesigner.json.revision.state).toBe("awaiting review");
+    const n = byDesigner.json.revision.number as number;
+    const approve = (who: TestUser, number: number, note?: string) =>
+      call(approval.POST, "POST", "/a", { token: who.token, params: { ...lp(), block: "vote2of3", number: String(number) }, body: note ? { note } : {} });
+    expect((await approve(viewer, n)).status).toBe(403);
+    expect((await approve(designer, n)).status).toBe(403);
+    const ok = await approve(owner, n, "read against the sensor wiring");
+    expect(ok.status).toBe(201);
+    expect(ok.json.revision).toMatchObject({ number: n, state: "published" });
+    expect((await approve(owner, n)).status).toBe(409);
+    const latest = await call(library.GET, "GET", "/l", { token: viewer.token, params: lp() });
+    expect(latest.json.library.blocks[0].latest).toBe(n);
+    // The owner's own revision waits for someone else.
+    const byOwner = await publishVote(VOTE_1, "Two of three again", owner);
+    const own = await approve(owner, byOwner.json.revision.number as number);
+    expect(own.status).toBe(403);
+    expect(own.json.error.message).toMatch(/you published/);
+    // A revision that needed no review is refused.
+    await call(workspace.PATCH, "PATCH", "/w", { token: owner.token, params: wsp(), body: { settings: { requireReviewToPublish: false } } });
+    expect((await approve(owner, 1)).status).toBe(409);
   });
 });
 

@@ -55,6 +55,7 @@ import * as libRevision from "@/app/api/v1/workspaces/[ws]/libraries/[libraryId]
 import * as libShares from "@/app/api/v1/workspaces/[ws]/libraries/[libraryId]/shares/route";
 import * as libShare from "@/app/api/v1/workspaces/[ws]/libraries/[libraryId]/shares/[workspace]/route";
 import * as libResolve from "@/app/api/v1/workspaces/[ws]/libraries/resolve/route";
+import * as libApproval from "@/app/api/v1/workspaces/[ws]/libraries/[libraryId]/blocks/[block]/revisions/[number]/approval/route";
 import { SOURCE, addMember, builtinFamily, call, makeInvitation, makeUser, makeWorkspace, resetLimits, tag, type TestUser } from "./helpers";
 
 const ACTORS = ["anonymous", "other", "viewer", "reviewer", "designer", "owner"] as const;
@@ -127,6 +128,17 @@ beforeAll(async () => {
   hiddenId = (await Library.create({ workspaceId: thirdWs.id, key: `mill-${tag()}`, name: "Mill blocks", createdBy: third.id })).id;
   shareTarget = await makeWorkspace("target", await makeUser("target"));
 });
+
+/** A revision of block "vote" in a library, published by the designer awaiting review; its number. */
+async function awaitingRevision(lib: string): Promise<number> {
+  const { LibraryBlock, LibraryRevision } = db().models;
+  const block = await LibraryBlock.findOne({ where: { libraryId: lib, name: "vote" } });
+  const first = await LibraryRevision.findOne({ where: { blockId: block!.id, number: 1 } });
+  const last = (await LibraryRevision.max("number", { where: { blockId: block!.id } })) as number;
+  const { id: _id, createdAt: _c, number: _n, ...rest } = first!.get({ plain: true });
+  await LibraryRevision.create({ ...rest, number: last + 1, authorId: users.designer.id, needsReview: true, message: "awaiting review" });
+  return last + 1;
+}
 
 /** A new revision saved by the designer (so the reviewer and the owner may review it). */
 async function designerRevision(message: string) {
@@ -462,6 +474,23 @@ const rows: Row[] = [
     name: "POST publish to a library of a workspace that shares nothing with this one",
     run: (_w, t) => call(publish.POST, "POST", "/p", { token: t, params: { ...wsp(), libraryId: hiddenId, block: "vote" }, body: { source: BLOCK, familyId, message: "x" } }),
     expect: [401, 404, 403, 403, 404, 404],
+  },
+  {
+    // A revision the designer published while the workspace asked for reviews: those who may approve do, the author never.
+    name: "POST libraries/{id}/blocks/{block}/revisions/{n}/approval",
+    run: async (_w, t) => {
+      const n = await awaitingRevision(libraryId);
+      return call(libApproval.POST, "POST", "/a", { token: t, params: { ...wsp(), libraryId, block: "vote", number: String(n) }, body: { note: "matrix" } });
+    },
+    expect: [401, 404, 403, 201, 403, 201],
+  },
+  {
+    name: "POST approval in a library shared in (read-only)",
+    run: async (_w, t) => {
+      const n = await awaitingRevision(sharedInId);
+      return call(libApproval.POST, "POST", "/a", { token: t, params: { ...wsp(), libraryId: sharedInId, block: "vote", number: String(n) }, body: {} });
+    },
+    expect: [401, 404, 403, 403, 403, 403],
   },
   { name: "GET /openapi.json", run: (_w, t) => call(openapi.GET, "GET", "/openapi.json", { token: t }), expect: [200, 200, 200, 200, 200, 200] },
 ];
