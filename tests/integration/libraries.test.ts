@@ -32,6 +32,7 @@ import * as revisions from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revi
 import * as revision from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/[number]/route";
 import * as table from "@/app/api/v1/workspaces/[ws]/designs/[designId]/revisions/[number]/table/route";
 import * as jobs from "@/app/api/v1/workspaces/[ws]/jobs/route";
+import * as familyRoute from "@/app/api/v1/workspaces/[ws]/families/[familyId]/route";
 import { addMember, builtinFamily, call, makeUser, makeWorkspace, resetLimits, tag, type TestUser } from "./helpers";
 
 // Two-of-three vote of three level sensors (revision 1), and a stricter revision 2 (all three agree).
@@ -302,6 +303,21 @@ describe("access", () => {
     const t = await call(table.GET, "GET", "/t", { token: partner.token, params: { ...pd, number: "1" }, query: { format: "json", limit: "32" } });
     expect(t.status).toBe(200);
     expect(t.json.rows.filter((r: { cells: string[] }) => r.cells.at(-1) === "1").map((r: { minterm: number }) => r.minterm)).toEqual(expectedOpen(VOTE_1));
+  });
+});
+
+describe("the family a block revision was published under", () => {
+  it("cannot be deleted while a library revision keeps its figures under it (409: archive it instead)", async () => {
+    const hc = await builtinFamily();
+    const own = await db().models.LogicFamilyRecord.create({ workspaceId: ws.id, key: `board-${tag()}`, name: `Board family ${tag()}`, builtin: false, data: { ...hc.data } });
+    const lib2 = await call(libraries.POST, "POST", "/l", { token: designer.token, params: wsp(), body: { key: `fam-${tag()}`, name: "Family check" } });
+    const published = await call(publish.POST, "POST", "/p", {
+      token: designer.token, params: { ...wsp(), libraryId: lib2.json.library.id, block: "vote" }, body: { source: VOTE_1, familyId: own.id, settings: {}, message: "under the board family" },
+    });
+    expect(published.status).toBe(201);
+    const del = await call(familyRoute.DELETE, "DELETE", "/f", { token: owner.token, params: { ...wsp(), familyId: own.id } });
+    expect(del.status).toBe(409);
+    expect(del.json.error.message).toMatch(/library block revisions use this family; archive it instead/);
   });
 });
 
