@@ -7,7 +7,7 @@ import { createTypeScriptImportResolver } from "eslint-import-resolver-typescrip
 // The pipeline stages are pure: data in, data out. These folders may not reach
 // the web framework, the database or the process environment.
 const pureCore = ["lib/logic/**", "lib/lang/**", "lib/import/**", "lib/minimize/**", "lib/verify/**", "lib/families/**",
-  "lib/factor/**", "lib/map/**", "lib/analysis/**", "lib/export/**", "lib/pipeline/**", "lib/review/**"];
+  "lib/factor/**", "lib/map/**", "lib/analysis/**", "lib/export/**", "lib/pipeline/**", "lib/review/**", "lib/libraries/**"];
 
 export default tseslint.config(
   { ignores: ["node_modules/**", ".next/**", ".next-*/**", ".data/**", ".build/**", ".build.*/**", "test-results/**", "next-env.d.ts"] },

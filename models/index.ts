@@ -141,7 +141,86 @@ export class ReviewDecision extends Model<InferAttributes<ReviewDecision>, Infer
   declare createdAt: CreationOptional<Date>;
 }
 
+/** A named shelf of blocks in a workspace; use lines write its key (or "slug/key" from a workspace it is shared with). */
+export class Library extends Model<InferAttributes<Library>, InferCreationAttributes<Library>> {
+  declare id: CreationOptional<string>;
+  declare workspaceId: ForeignKey<Workspace["id"]>;
+  declare key: string;
+  declare name: string;
+  declare description: CreationOptional<string>;
+  declare createdBy: ForeignKey<User["id"]>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export class LibraryBlock extends Model<InferAttributes<LibraryBlock>, InferCreationAttributes<LibraryBlock>> {
+  declare id: CreationOptional<string>;
+  declare libraryId: ForeignKey<Library["id"]>;
+  declare name: string;
+  declare createdAt: CreationOptional<Date>;
+}
+
+/** One published revision of a block: immutable (model hooks, table rights and triggers). */
+export class LibraryRevision extends Model<InferAttributes<LibraryRevision>, InferCreationAttributes<LibraryRevision>> {
+  declare id: CreationOptional<string>;
+  declare blockId: ForeignKey<LibraryBlock["id"]>;
+  declare number: number;
+  declare source: string;
+  declare message: string;
+  declare inputs: string[];
+  declare outputs: string[];
+  declare familyId: ForeignKey<LogicFamilyRecord["id"]>;
+  declare familySnapshot: Record<string, unknown>;
+  declare settings: Record<string, unknown>;
+  declare stats: Record<string, unknown>;
+  declare verification: Record<string, unknown> | null;
+  declare authorId: ForeignKey<User["id"]>;
+  /** Published while the workspace asked for an approved review first; it counts once a LibraryApproval exists. */
+  declare needsReview: CreationOptional<boolean>;
+  declare createdAt: CreationOptional<Date>;
+}
+
+/** The approval that lets a revision published under review count (immutable). */
+export class LibraryApproval extends Model<InferAttributes<LibraryApproval>, InferCreationAttributes<LibraryApproval>> {
+  declare id: CreationOptional<string>;
+  declare libraryRevisionId: ForeignKey<LibraryRevision["id"]>;
+  declare reviewId: string | null;
+  declare approvedBy: ForeignKey<User["id"]>;
+  declare note: CreationOptional<string>;
+  declare createdAt: CreationOptional<Date>;
+}
+
+/** Read-only use of a library by another workspace. */
+export class LibraryShare extends Model<InferAttributes<LibraryShare>, InferCreationAttributes<LibraryShare>> {
+  declare id: CreationOptional<string>;
+  declare libraryId: ForeignKey<Library["id"]>;
+  declare workspaceId: ForeignKey<Workspace["id"]>;
+  declare createdBy: ForeignKey<User["id"]>;
+  declare createdAt: CreationOptional<Date>;
+}
+
+/** A library revision a saved design revision used (immutable, like the revision). */
+export class RevisionLibrary extends Model<InferAttributes<RevisionLibrary>, InferCreationAttributes<RevisionLibrary>> {
+  declare id: CreationOptional<string>;
+  declare revisionId: ForeignKey<Revision["id"]>;
+  declare libraryRevisionId: ForeignKey<LibraryRevision["id"]>;
+  declare library: string;
+  declare block: string;
+  declare createdAt: CreationOptional<Date>;
+}
+
 const uuid = { type: DataTypes.UUID, primaryKey: true, defaultValue: DataTypes.UUIDV4 };
+
+/** Model hooks that refuse changes to a record table; the database triggers are the authority, these say it first. */
+function recordHooks(what: string) {
+  const change = () => {
+    throw new Error(`${what} are immutable: add a new one instead`);
+  };
+  const remove = () => {
+    throw new Error(`${what} are immutable: they cannot be deleted`);
+  };
+  return { beforeUpdate: change, beforeBulkUpdate: change, beforeDestroy: remove, beforeBulkDestroy: remove };
+}
 const json = (allowNull = false) => ({ type: DataTypes.JSONB, allowNull });
 
 /** Binds every model to the connection and declares the associations. */
@@ -389,9 +468,80 @@ export function initModels(sequelize: Sequelize) {
   Activity.belongsTo(Workspace, { foreignKey: "workspaceId", as: "workspace" });
   Activity.belongsTo(User, { foreignKey: "actorId", as: "actor" });
 
+  Library.init(
+    {
+      id: uuid,
+      key: { type: DataTypes.STRING(64), allowNull: false },
+      name: { type: DataTypes.STRING(120), allowNull: false },
+      description: { type: DataTypes.TEXT, allowNull: false, defaultValue: "" },
+      createdAt: DataTypes.DATE,
+      updatedAt: DataTypes.DATE,
+    },
+    { ...base, tableName: "libraries" },
+  );
+  LibraryBlock.init(
+    { id: uuid, name: { type: DataTypes.STRING(64), allowNull: false }, createdAt: DataTypes.DATE },
+    { ...base, tableName: "library_blocks", updatedAt: false },
+  );
+  LibraryRevision.init(
+    {
+      id: uuid,
+      number: { type: DataTypes.INTEGER, allowNull: false },
+      source: { type: DataTypes.TEXT, allowNull: false },
+      message: { type: DataTypes.TEXT, allowNull: false },
+      inputs: json(),
+      outputs: json(),
+      familySnapshot: json(),
+      settings: json(),
+      stats: json(),
+      verification: json(true),
+      needsReview: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+      createdAt: DataTypes.DATE,
+    },
+    { ...base, tableName: "library_revisions", updatedAt: false, hooks: recordHooks("library revisions") },
+  );
+  LibraryApproval.init(
+    {
+      id: uuid,
+      reviewId: { type: DataTypes.UUID, allowNull: true },
+      note: { type: DataTypes.TEXT, allowNull: false, defaultValue: "" },
+      createdAt: DataTypes.DATE,
+    },
+    { ...base, tableName: "library_approvals", updatedAt: false, hooks: recordHooks("library approvals") },
+  );
+  LibraryShare.init(
+    { id: uuid, createdAt: DataTypes.DATE },
+    { ...base, tableName: "library_shares", updatedAt: false },
+  );
+  RevisionLibrary.init(
+    {
+      id: uuid,
+      library: { type: DataTypes.STRING(200), allowNull: false },
+      block: { type: DataTypes.STRING(64), allowNull: false },
+      createdAt: DataTypes.DATE,
+    },
+    { ...base, tableName: "revision_libraries", updatedAt: false, hooks: recordHooks("the library revisions a revision used") },
+  );
+  Library.belongsTo(Workspace, { foreignKey: "workspaceId", as: "workspace" });
+  Library.belongsTo(User, { foreignKey: "createdBy", as: "creator" });
+  Library.hasMany(LibraryBlock, { foreignKey: "libraryId", as: "blocks" });
+  LibraryBlock.belongsTo(Library, { foreignKey: "libraryId", as: "library" });
+  LibraryBlock.hasMany(LibraryRevision, { foreignKey: "blockId", as: "revisions" });
+  LibraryRevision.belongsTo(LibraryBlock, { foreignKey: "blockId", as: "block" });
+  LibraryRevision.belongsTo(User, { foreignKey: "authorId", as: "author" });
+  LibraryRevision.belongsTo(LogicFamilyRecord, { foreignKey: "familyId", as: "family" });
+  LibraryApproval.belongsTo(LibraryRevision, { foreignKey: "libraryRevisionId", as: "libraryRevision" });
+  LibraryApproval.belongsTo(User, { foreignKey: "approvedBy", as: "approver" });
+  LibraryShare.belongsTo(Library, { foreignKey: "libraryId", as: "library" });
+  LibraryShare.belongsTo(Workspace, { foreignKey: "workspaceId", as: "workspace" });
+  LibraryShare.belongsTo(User, { foreignKey: "createdBy", as: "creator" });
+  RevisionLibrary.belongsTo(Revision, { foreignKey: "revisionId", as: "revision" });
+  RevisionLibrary.belongsTo(LibraryRevision, { foreignKey: "libraryRevisionId", as: "libraryRevision" });
+
   return {
     User, Workspace, Membership, LogicFamilyRecord, Design, Revision, EmailToken, Invitation, ApiToken,
     Review, ReviewReviewer, ReviewComment, ReviewDecision, Activity,
+    Library, LibraryBlock, LibraryRevision, LibraryApproval, LibraryShare, RevisionLibrary,
   };
 }
 

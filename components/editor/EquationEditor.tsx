@@ -10,7 +10,7 @@ import Editor, { loader } from "@monaco-editor/react";
 import type * as Monaco from "monaco-editor";
 import { useEffect, useMemo, useRef, useState } from "react";
 import type { Diagnostic } from "../../lib/lang/index";
-import { FANBOUND_LANGUAGE_ID, NIGHT_THEME, PAPER_THEME, registerFanboundLanguage, setDiagnosticsMarkers } from "./fanbound-language";
+import { FANBOUND_LANGUAGE_ID, NIGHT_THEME, PAPER_THEME, registerFanboundLanguage, setDiagnosticsMarkers, setLibraryCatalog, type LibraryCatalog } from "./fanbound-language";
 
 export interface EquationEditorProps {
   value: string;
@@ -25,6 +25,8 @@ export interface EquationEditorProps {
   theme?: typeof PAPER_THEME | typeof NIGHT_THEME;
   /** Accessible label of the editing area. Default "Equations". */
   ariaLabel?: string;
+  /** The libraries the workspace may use: completion of use lines and hover over library blocks. Default none. */
+  libraries?: LibraryCatalog;
   /** Called once the editor exists, for callers that move the cursor or reveal a line (e.g. from a diagnostic list). */
   onMount?: (editor: Monaco.editor.IStandaloneCodeEditor, monaco: MonacoApi) => void;
 }
@@ -69,6 +71,7 @@ export default function EquationEditor({
   height = "24rem",
   theme,
   ariaLabel = "Equations",
+  libraries,
   onMount,
 }: EquationEditorProps) {
   const [monaco, setMonaco] = useState<MonacoApi | null>(null);
@@ -140,6 +143,13 @@ export default function EquationEditor({
     if (monaco && model) setDiagnosticsMarkers(monaco, model, diagnostics);
   }, [monaco, diagnostics]);
 
+  const librariesRef = useRef(libraries);
+  librariesRef.current = libraries;
+  useEffect(() => {
+    const model = editorRef.current?.getModel();
+    if (model) setLibraryCatalog(model, libraries);
+  }, [monaco, libraries]);
+
   if (failed) {
     return (
       <div className="border border-vermilion p-3 font-mono text-sm text-vermilion" style={{ height }}>
@@ -171,6 +181,7 @@ export default function EquationEditor({
           onMount?.(editor, monaco);
           const model = editor.getModel();
           if (model) setDiagnosticsMarkers(monaco, model, diagnostics);
+          if (model) setLibraryCatalog(model, librariesRef.current);
         }}
         loading={<span className="font-mono text-sm text-graphite">Loading the editor…</span>}
         options={options}

@@ -68,7 +68,7 @@ const keywordHelp: Record<string, string> = {
   never: "never a * b: input combinations that cannot occur; they become don't-cares of every output.",
   block: "block name(x, y) -> (s, c) ... end: a reusable block with one or more results.",
   end: "Ends a block.",
-  use: 'use name from "library" at 3: bring a block from a shared library (not available yet).',
+  use: 'use name from "library" at 3: bring in revision 3 of a library block; call it like a block of the design.',
   from: "Names the library in a use line.",
   at: "Names the library revision in a use line.",
 };
@@ -82,7 +82,146 @@ function blockAt(program: Program, line: number): string | null {
 
 function visibleSymbols(program: Program, line: number): SymbolInfo[] {
   const inside = blockAt(program, line);
-  return symbolTable(program).filter((s) => s.block === inside || s.role === "block");
+  return symbolTable(program).filter((s) => s.block === inside || s.role === "block" || s.role === "library");
+}
+
+/**
+ * What the editor knows of the libraries a workspace may use, for completing
+ * use lines and explaining library blocks on hover. Handed in by the page
+ * (EquationEditor's `libraries` prop), per editor model.
+ */
+export interface LibraryCatalog {
+  libraries: Array<{
+    /** As use lines write it. */
+    ref: string;
+    name: string;
+    blocks: Array<{
+      name: string;
+      /** The newest revision that may be used; null when none may yet. */
+      latest: number | null;
+      revisions: Array<{
+        number: number;
+        state: "published" | "awaiting review";
+        message: string;
+        inputs: string[];
+        outputs: string[];
+        family: string;
+        stats: { gates?: number; depth?: number; packages?: number | null; delayNs?: number | null };
+      }>;
+    }>;
+  }>;
+}
+
+const catalogs = new WeakMap<object, LibraryCatalog>();
+
+/** Gives the language the library catalog for one editor model. */
+export function setLibraryCatalog(model: Monaco.editor.ITextModel, catalog: LibraryCatalog | undefined): void {
+  if (catalog) catalogs.set(model, catalog);
+  else catalogs.delete(model);
+}
+
+type CatalogRevision = LibraryCatalog["libraries"][number]["blocks"][number]["revisions"][number];
+
+function portsText(r: CatalogRevision): string {
+  return `(${r.inputs.join(", ")}) → (${r.outputs.join(", ")})`;
+}
+
+function figuresText(r: CatalogRevision): string {
+  const s = r.stats;
+  const parts = [
+    s.gates !== undefined ? `${s.gates} gates` : null,
+    s.depth !== undefined ? `depth ${s.depth}` : null,
+    typeof s.packages === "number" ? `${s.packages} packages` : null,
+    s.delayNs != null ? `delay ${s.delayNs.toFixed(1)} ns (est.)` : null,
+  ].filter(Boolean);
+  return `${parts.join(", ")} — ${r.family}`;
+}
+
+/** Markdown that explains a library block revision: ports, figures, state. */
+export function libraryBlockHover(catalog: LibraryCatalog | undefined, library: string, block: string, revision: number | null): string[] {
+  const lib = catalog?.libraries.find((l) => l.ref === library);
+  const b = lib?.blocks.find((x) => x.name === block);
+  const head = `**library block** \`${block}\` from "${library}"${revision !== null ? ` at ${revision}` : ""}`;
+  if (!lib || !b) return [head, "Not among the libraries this workspace may use."];
+  const r = b.revisions.find((x) => x.number === revision);
+  if (!r) return [head, `No revision ${revision ?? "given"}; its revisions are ${b.revisions.map((x) => x.number).join(", ")} (latest that may be used: ${b.latest ?? "none yet"}).`];
+  const out = [
+    `${head} — ${lib.name}`,
+    `Ports: \`${portsText(r)}\` (its inputs are the parameters of a call, its outputs the results)`,
+    `r${r.number}: ${r.message}${r.state === "awaiting review" ? " — awaiting review, not usable yet" : ""}`,
+    `Figures when published: ${figuresText(r)}. Estimates; check the parts' data sheets.`,
+  ];
+  if (b.latest !== null && b.latest > r.number) out.push(`A newer revision is available: r${b.latest}.`);
+  return out;
+}
+
+/** Completion items for a use line, from the text before the cursor; null when the cursor is not in one. */
+function completionsOnUseLine(monaco: MonacoApi, catalog: LibraryCatalog | undefined, before: string, after: string, line: number, column: number): Monaco.languages.CompletionItem[] | null {
+  const { languages } = monaco;
+  const libs = catalog?.libraries ?? [];
+  const at = /^\s*use\s+([A-Za-z_][A-Za-z0-9_]*)\s+from\s+"([^"]*)"\s+at\s+(\d*)$/.exec(before);
+  if (at) {
+    const b = libs.find((l) => l.ref === at[2])?.blocks.find((x) => x.name === at[1]);
+    const range = new monaco.Range(line, column - at[3]!.length, line, column);
+    return (b?.revisions ?? []).slice().reverse().map((r, i) => ({
+      label: String(r.number),
+      kind: languages.CompletionItemKind.Value,
+      detail: `${r.number === b!.latest ? "latest · " : ""}${r.state} · ${portsText(r)}`,
+      documentation: `${r.message}\n\n${figuresText(r)}`,
+      insertText: String(r.number),
+      range,
+      sortText: String(i).padStart(4, "0"),
+    }));
+  }
+  const afterLib = /^\s*use\s+([A-Za-z_][A-Za-z0-9_]*)\s+from\s+"([^"]*)"\s*$/.exec(before);
+  if (afterLib) {
+    const b = libs.find((l) => l.ref === afterLib[2])?.blocks.find((x) => x.name === afterLib[1]);
+    if (!b || b.latest === null) return [];
+    return [{
+      label: `at ${b.latest}`,
+      kind: languages.CompletionItemKind.Keyword,
+      detail: "the latest revision",
+      insertText: `${before.endsWith(" ") ? "" : " "}at ${b.latest}`,
+      range: new monaco.Range(line, column, line, column),
+    }];
+  }
+  const lib = /^\s*use\s+([A-Za-z_][A-Za-z0-9_]*)\s+from\s+"([^"]*)$/.exec(before);
+  if (lib) {
+    const typed = lib[2]!;
+    const range = new monaco.Range(line, column - typed.length, line, column);
+    const closes = after.startsWith('"');
+    return libs
+      .slice()
+      .sort((a, b) => Number(!a.blocks.some((x) => x.name === lib[1])) - Number(!b.blocks.some((x) => x.name === lib[1])))
+      .map((l, i) => ({
+        label: l.ref,
+        kind: languages.CompletionItemKind.Module,
+        detail: l.name,
+        documentation: `Blocks: ${l.blocks.map((x) => x.name).join(", ") || "none yet"}`,
+        insertText: closes ? l.ref : `${l.ref}"`,
+        range,
+        sortText: String(i).padStart(4, "0"),
+      }));
+  }
+  const name = /^\s*use\s+([A-Za-z_][A-Za-z0-9_]*)?$/.exec(before);
+  if (name) {
+    const typed = name[1] ?? "";
+    const range = new monaco.Range(line, column - typed.length, line, column);
+    return libs.flatMap((l) =>
+      l.blocks.filter((b) => b.latest !== null).map((b) => {
+        const r = b.revisions.find((x) => x.number === b.latest)!;
+        return {
+          label: b.name,
+          kind: languages.CompletionItemKind.Function,
+          detail: `from "${l.ref}" at ${b.latest} · ${portsText(r)}`,
+          documentation: `${l.name}: ${r.message}\n\n${figuresText(r)}`,
+          insertText: `${b.name} from "${l.ref}" at ${b.latest}`,
+          range,
+        };
+      }),
+    );
+  }
+  return null;
 }
 
 const roleLabel: Record<SymbolInfo["role"], string> = {
@@ -92,6 +231,7 @@ const roleLabel: Record<SymbolInfo["role"], string> = {
   block: "block",
   parameter: "block parameter",
   result: "block result",
+  library: "library block",
 };
 
 /**
@@ -109,8 +249,16 @@ export function registerFanboundLanguage(monaco: MonacoApi): void {
   registerNavigation(monaco);
 
   languages.registerCompletionItemProvider(FANBOUND_LANGUAGE_ID, {
-    triggerCharacters: ["(", ","],
-    provideCompletionItems(model, position) {
+    triggerCharacters: ["(", ",", '"', " "],
+    provideCompletionItems(model, position, context) {
+      const lineText = model.getLineContent(position.lineNumber);
+      const upToCursor = lineText.slice(0, position.column - 1);
+      if (!upToCursor.includes("//")) {
+        const use = completionsOnUseLine(monaco, catalogs.get(model), upToCursor, lineText.slice(position.column - 1), position.lineNumber, position.column);
+        if (use) return { suggestions: use };
+      }
+      // A space or a quote opens the list only on use lines.
+      if (context.triggerCharacter === " " || context.triggerCharacter === '"') return { suggestions: [] };
       const word = model.getWordUntilPosition(position);
       const range = new monaco.Range(position.lineNumber, word.startColumn, position.lineNumber, word.endColumn);
       const before = model.getLineContent(position.lineNumber).slice(0, word.startColumn - 1);
@@ -141,7 +289,7 @@ export function registerFanboundLanguage(monaco: MonacoApi): void {
       for (const s of visibleSymbols(program, position.lineNumber)) {
         if (seen.has(s.name)) continue;
         seen.add(s.name);
-        const isBlock = s.role === "block";
+        const isBlock = s.role === "block" || s.role === "library";
         suggestions.push({
           label: s.name,
           kind: isBlock
@@ -170,6 +318,10 @@ export function registerFanboundLanguage(monaco: MonacoApi): void {
       const all = symbolTable(program);
       const sym = visibleSymbols(program, position.lineNumber).find((s) => s.name === word.word);
       if (!sym) return null;
+      if (sym.role === "library") {
+        const use = program.statements.find((x): x is Extract<Program["statements"][number], { kind: "use" }> => x.kind === "use" && x.name.text === sym.name);
+        if (use) return { range, contents: libraryBlockHover(catalogs.get(model), use.library, use.name.text, use.revision).map((value) => ({ value })) };
+      }
       const at = sym.defined ?? sym.declared;
       const lines: string[] = [];
       for (let l = at.line; l <= Math.min(at.endLine, at.line + 5); l++) lines.push(model.getLineContent(l).trim());

@@ -6,18 +6,23 @@
  * module the server uses.
  */
 import { useDeferredValue, useMemo, useState } from "react";
-import { compileSource } from "@/lib/lang";
+import { compileSource, type LibraryResolver } from "@/lib/lang";
 import { TABLE_CSV_MAX_INPUTS, TableReader, truthTableCsv } from "@/lib/import/table";
 
 /** Rows on one page. */
 export const TABLE_PAGE_ROWS = 256;
 
-export function TruthTableView({ source, name }: { source: string; name?: string }) {
+/**
+ * `resolve` answers the source's use lines (the server's answers, fetched by
+ * the workbench): undefined when there are none, null while they load.
+ */
+export function TruthTableView({ source, name, resolve }: { source: string; name?: string; resolve?: LibraryResolver | null }) {
   const deferred = useDeferredValue(source);
-  const compiled = useMemo(() => compileSource(deferred), [deferred]);
+  const compiled = useMemo(() => compileSource(deferred, resolve ? { resolve } : undefined), [deferred, resolve]);
   const reader = useMemo(() => (compiled.spec ? new TableReader(compiled.spec) : null), [compiled]);
   const [page, setPage] = useState(0);
 
+  if (resolve === null) return <p className="text-sm text-graphite">Looking up the library blocks…</p>;
   if (!reader || !compiled.spec) {
     const errors = compiled.diagnostics.filter((d) => d.severity === "error").length;
     return <p className="text-sm text-graphite">Fix the {errors} error{errors === 1 ? "" : "s"} in the equations to see the truth table.</p>;

@@ -20,6 +20,8 @@ import { RevisionsPanel } from "./RevisionsPanel";
 import { SchematicPanel } from "@/components/schematic/SchematicPanel";
 import { JobPanel } from "./JobPanel";
 import { TruthTableView } from "./TruthTableView";
+import { LibraryNotice } from "./LibraryNotice";
+import { useLibraryCatalog, useLibraryResolver } from "./useLibraries";
 
 const EquationEditor = dynamic(() => import("@/components/editor/EquationEditor"), {
   ssr: false,
@@ -107,6 +109,8 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
   });
 
   const compile = useCompile(ws, source, familyId, settings);
+  const catalog = useLibraryCatalog(ws);
+  const resolveLibraries = useLibraryResolver(ws, tab === "table" ? source : null);
   // A compile run to the end as a job: its result stands for the text it was started from.
   const [job, setJob] = useState<{ id: string; key: string; result: CompileResponse["result"] } | null>(null);
   const [jobError, setJobError] = useState<string | null>(null);
@@ -237,6 +241,11 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
         )}
       </div>
 
+      {source !== null && shown && shown.libraries.length > 0 && (
+        <LibraryNotice ws={ws} uses={shown.libraries} source={source} familyId={familyId} settings={settings}
+          current={compile.dataKey === textKey ? result : null} mayEdit={mayEdit} onSource={setSource} />
+      )}
+
       <div className="grid gap-4 xl:grid-cols-[minmax(0,5fr)_minmax(0,6fr)]">
         <section className="flex min-h-[32rem] flex-col rounded border border-rule bg-sheet" aria-label="Equations">
           <div className="flex items-center border-b border-rule px-3 py-1.5 text-xs uppercase tracking-wide text-graphite">
@@ -251,7 +260,7 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
           <div className="min-h-[28rem] flex-1" data-testid="editor">
             {source !== null && (
               <EquationEditor value={source} onChange={(v: string) => setSource(v)} readOnly={!mayEdit}
-                diagnostics={diagnostics} height="100%" />
+                diagnostics={diagnostics} height="100%" libraries={catalog} />
             )}
           </div>
         </section>
@@ -296,7 +305,7 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
             </div>
             <div className={`p-3 ${tab === "gates" && result ? "" : "max-h-[30rem] overflow-auto"}`}>
               {tab === "table" ? (
-                <TruthTableView source={source ?? ""} name={design?.name} />
+                <TruthTableView source={source ?? ""} name={design?.name} resolve={resolveLibraries} />
               ) : tab === "notes" ? (
                 <NotesPanel diagnostics={diagnostics} warnings={result?.warnings ?? []} analysis={result?.analysis ?? null}
                   stop={phase.kind === "limit" || phase.kind === "failed" || phase.kind === "stopped" ? noResultText(phase) : null} />

@@ -24,6 +24,7 @@ export function WorkspaceNav({ ws }: { ws: string }) {
       {link(`/w/${ws}/families`, "Families")}
       {link(`/w/${ws}/families/matrix`, "Compatibility")}
       {link(`/w/${ws}/reviews`, waiting ? `Reviews (${waiting})` : "Reviews")}
+      {link(`/w/${ws}/libraries`, "Libraries")}
       {data && can(data.workspace.role, "member.manage") && link(`/w/${ws}/members`, "Members")}
     </div>
   );

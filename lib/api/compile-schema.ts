@@ -5,7 +5,7 @@
  * change there that the schema does not follow fails the type check below.
  */
 import { z } from "zod";
-import type { resultBody } from "../runtime/compile";
+import type { libraryUseBody, resultBody } from "../runtime/compile";
 
 const GateType = z.enum(["AND", "OR", "NAND", "NOR", "XOR", "XNOR", "NOT", "BUF"]);
 const Cube = z.object({ value: z.number(), mask: z.number() });
@@ -151,8 +151,42 @@ export const CompileResultBody = z.object({
     .describe("the two-level structure's figures and, beside it, the factored one's; kept marks the one settings.structure chose"),
 });
 
+const Range = z.object({ line: z.number(), column: z.number(), endLine: z.number(), endColumn: z.number() });
+const FigureDelta = z.object({
+  figure: z.enum(["gates", "depth", "packages", "delayNs", "powerMw"]),
+  label: z.string(),
+  unit: z.string(),
+  from: z.number().nullable(),
+  to: z.number().nullable(),
+  delta: z.number().nullable().describe("to − from; lower is better for each figure"),
+});
+
+/** A library block revision a compile used, and the newer revision it could move to. */
+export const LibraryUse = z.object({
+  library: z.string().describe("as the use line writes it"),
+  libraryName: z.string(),
+  libraryId: z.string(),
+  block: z.string(),
+  revision: z.number(),
+  inputs: z.array(z.string()),
+  outputs: z.array(z.string()),
+  range: Range.describe("the use line"),
+  revisionRange: Range.describe("the revision number on the use line"),
+  stats: z.record(z.string(), z.unknown()).describe("the figures stored with this block revision"),
+  newer: z.object({
+    number: z.number(),
+    message: z.string(),
+    inputs: z.array(z.string()),
+    outputs: z.array(z.string()),
+    deltas: z.array(FigureDelta).describe("moving to the newer revision, from the figures stored with both (estimates for delay and power)"),
+    portChange: z.string().nullable().describe("what changes for the calls, when the ports differ"),
+  }).nullable().describe("the newest revision that may be used, when newer than this one"),
+});
+
 export const CompileResponse = z.object({
   diagnostics: z.array(Diagnostic),
+  /** Library blocks the use lines brought in. */
+  libraries: z.array(LibraryUse),
   /** null when the source has errors (see diagnostics). */
   result: CompileResultBody.nullable(),
   family: z.object({ id: z.string(), key: z.string(), name: z.string() }),
@@ -163,7 +197,9 @@ export const CompileResponse = z.object({
 export type CompileResponse = z.infer<typeof CompileResponse>;
 export type CompileResultBody = z.infer<typeof CompileResultBody>;
 export type StructureFigures = z.infer<typeof StructureFigures>;
+export type LibraryUseBody = z.infer<typeof LibraryUse>;
 
 // The pipeline's result must fit the schema: this line fails the type check when they drift apart.
 type Fits<A extends B, B> = A;
 export type _ResultFitsSchema = Fits<ReturnType<typeof resultBody>, z.input<typeof CompileResultBody>>;
+export type _LibraryUseFitsSchema = Fits<ReturnType<typeof libraryUseBody>, z.input<typeof LibraryUse>>;

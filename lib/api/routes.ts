@@ -137,7 +137,50 @@ const RevisionSummary = z.object({
   stats: Json,
   family: FamilyRef,
 });
-const RevisionDetail = RevisionSummary.extend({ source: z.string(), settings: Json, familySnapshot: Json });
+const PinnedBlock = z.object({ library: z.string(), block: z.string(), revision: z.number() });
+const RevisionDetail = RevisionSummary.extend({
+  source: z.string(),
+  settings: Json,
+  familySnapshot: Json,
+  libraries: z.array(PinnedBlock).describe("the library block revisions this revision used, pinned with it"),
+});
+
+const LibraryKey = z.string().regex(/^[a-z0-9][a-z0-9-]{0,63}$/, "1–64 lower-case letters, digits or dashes, starting with a letter or digit");
+const BlockName = z.string().min(1).max(64).describe("a name of the language: letters, digits and _, not starting with a digit");
+const LibraryParams = WsParams.extend({ libraryId: Id });
+const FigureDelta = z.object({ figure: z.string(), label: z.string(), unit: z.string(), from: z.number().nullable(), to: z.number().nullable(), delta: z.number().nullable() });
+const LibraryRevision = z.object({
+  id: z.string(),
+  number: z.number(),
+  message: z.string(),
+  state: z.enum(["published", "awaiting review"]).describe("awaiting review: published while the workspace asks for an approved review first; it may be used once approved"),
+  author: Ref,
+  createdAt: z.string(),
+  inputs: z.array(z.string()).describe("the block's inputs in order: the parameters of a call"),
+  outputs: z.array(z.string()).describe("the block's outputs in order: the results of a call"),
+  family: FamilyRef,
+  stats: Json.describe("figures computed when it was published, under its family; delay and power are estimates"),
+  usedBy: z.array(z.object({ design: Ref, revisions: z.array(z.number()) })).optional().describe("designs of your workspace whose saved revisions use it"),
+  deltas: z.array(FigureDelta).nullable().optional().describe("against the revision before it"),
+});
+const LibraryBlock = z.object({ name: z.string(), latest: z.number().nullable(), revisions: z.array(LibraryRevision) });
+const Library = z.object({
+  id: z.string(),
+  key: z.string(),
+  name: z.string(),
+  description: z.string(),
+  ref: z.string().describe('how use lines in this workspace write it: "key", or "slug/key" for a library shared with it'),
+  owner: z.object({ slug: z.string(), name: z.string() }),
+  sharedIn: z.boolean().describe("it belongs to another workspace and is shared with this one read-only"),
+  mayPublish: z.boolean(),
+  requireReview: z.boolean(),
+  createdAt: z.string(),
+  blocks: z.array(LibraryBlock),
+});
+const LibraryDetail = Library.extend({
+  shares: z.array(z.object({ workspace: z.object({ slug: z.string(), name: z.string() }), createdAt: z.string(), by: Ref })).nullable(),
+});
+const UseRequest = z.object({ library: z.string().max(200), block: z.string().max(64), revision: z.number().int().positive().nullable() });
 const Token = z.object({
   id: z.string(),
   name: z.string(),
@@ -643,6 +686,80 @@ export const routes = {
     errors: [...R, 400, 404, 413, 415, 422],
     limits: ["compile"],
   }),
+  // ---- libraries -------------------------------------------------------------------
+  listLibraries: defineRoute({
+    method: "GET", path: "/workspaces/{ws}/libraries", tag: "libraries", auth: "user",
+    summary: "The libraries this workspace may use (its own, then those shared with it), with their blocks and revisions",
+    params: WsParams, response: z.object({ items: z.array(Library) }), errors: WS,
+  }),
+  createLibrary: defineRoute({
+    method: "POST", path: "/workspaces/{ws}/libraries", tag: "libraries", auth: "user", summary: "Create a library (designer, owner)",
+    params: WsParams,
+    body: z.object({ key: LibraryKey, name: Name, description: z.string().max(4000).optional() }).strict(),
+    response: z.object({ library: LibraryDetail }), status: 201, errors: [...WS, 409, 413, 415],
+  }),
+  getLibrary: defineRoute({
+    method: "GET", path: "/workspaces/{ws}/libraries/{libraryId}", tag: "libraries", auth: "user",
+    summary: "One library: its blocks, every revision with its figures and state, where each is used in this workspace, and its shares",
+    params: LibraryParams, response: z.object({ library: LibraryDetail }), errors: WS,
+  }),
+  publishBlock: defineRoute({
+    method: "POST", path: "/workspaces/{ws}/libraries/{libraryId}/blocks/{block}/revisions", tag: "libraries", auth: "user",
+    summary: "Publish a block's source as its next revision (designer, owner of the library's workspace); the server compiles it under the family given and keeps its figures and verification; 422 with the diagnostics when it does not compile as a block",
+    params: LibraryParams.extend({ block: BlockName }),
+    body: z.object({
+      source: Source.describe("a design of its own: inputs, outputs, equations, never lines; no use lines and no dc(...)"),
+      familyId: Id,
+      settings: CompileSettings.default({}),
+      message: z.string().trim().min(1).max(2000),
+    }).strict(),
+    response: z.object({ revision: LibraryRevision.extend({ block: z.string(), library: z.string() }) }),
+    status: 201, errors: [...WS, 413, 415, 422, 429],
+    limits: ["compile"],
+  }),
+  getLibraryRevision: defineRoute({
+    method: "GET", path: "/workspaces/{ws}/libraries/{libraryId}/blocks/{block}/revisions/{number}", tag: "libraries", auth: "user",
+    summary: "One block revision with its source",
+    params: LibraryParams.extend({ block: BlockName, number: z.coerce.number().int().positive() }),
+    response: z.object({
+      revision: LibraryRevision.extend({ block: z.string(), library: z.string(), source: z.string(), settings: Json, verification: Json.nullable() }),
+    }),
+    errors: WS,
+  }),
+  approveLibraryRevision: defineRoute({
+    method: "POST", path: "/workspaces/{ws}/libraries/{libraryId}/blocks/{block}/revisions/{number}/approval", tag: "libraries", auth: "user",
+    summary: "Approve a block revision published while the workspace asks for an approved review first (reviewer, owner of the library's workspace; never its author); from then on designs may use it and it is the block's latest. 409 when it needed no review or is approved already",
+    params: LibraryParams.extend({ block: BlockName, number: z.coerce.number().int().positive() }),
+    body: z.object({ note: z.string().trim().max(2000).optional().describe("what was checked") }).strict(),
+    response: z.object({ revision: LibraryRevision.extend({ block: z.string(), library: z.string() }) }),
+    status: 201, errors: [...WS, 409, 413, 415, 429],
+    limits: ["review"],
+  }),
+  shareLibrary: defineRoute({
+    method: "POST", path: "/workspaces/{ws}/libraries/{libraryId}/shares", tag: "libraries", auth: "user",
+    summary: "Share a library read-only with another workspace, named by its slug (owner); its members may use it and never publish to it",
+    params: LibraryParams, body: z.object({ workspace: Slug }).strict(),
+    response: z.object({ library: LibraryDetail }), status: 201, errors: [...WS, 409, 413, 415],
+  }),
+  unshareLibrary: defineRoute({
+    method: "DELETE", path: "/workspaces/{ws}/libraries/{libraryId}/shares/{workspace}", tag: "libraries", auth: "user",
+    summary: "End a share (owner); the other workspace's saved revisions keep what they pinned",
+    params: LibraryParams.extend({ workspace: Slug }), response: z.object({ library: LibraryDetail }), errors: WS,
+  }),
+  resolveUses: defineRoute({
+    method: "POST", path: "/workspaces/{ws}/libraries/resolve", tag: "libraries", auth: "user",
+    summary: "Answer use lines as this workspace's compiles would: each block revision's source and ports, or why it cannot be used (for clients that compile on their own, such as the CLI)",
+    params: WsParams, body: z.object({ uses: z.array(UseRequest).max(200) }).strict(),
+    response: z.object({
+      items: z.array(z.union([
+        UseRequest.extend({ ok: z.literal(true), source: z.string(), number: z.number(), latest: z.number(), inputs: z.array(z.string()), outputs: z.array(z.string()), stats: Json }),
+        UseRequest.extend({ ok: z.literal(false), message: z.string() }),
+      ])),
+    }),
+    errors: [...WS, 413, 415, 429],
+    limits: ["compile"],
+  }),
+
   // ---- compile jobs (long runs) ------------------------------------------------------
   createJob: defineRoute({
     method: "POST", path: "/workspaces/{ws}/jobs", tag: "jobs", auth: "user",

@@ -23,6 +23,10 @@ export const ACTIONS = [
   "review.comment",
   "review.approve",
   "compile.run",
+  "library.read",
+  "library.edit",
+  "library.publish",
+  "library.share",
 ] as const;
 export type Action = (typeof ACTIONS)[number];
 
@@ -33,6 +37,7 @@ const READ = {
   "design.read": true,
   "revision.read": true,
   "compile.run": true,
+  "library.read": true,
 } as const;
 
 export const PERMISSIONS: Record<Role, Record<Action, boolean>> = {
@@ -48,6 +53,9 @@ export const PERMISSIONS: Record<Role, Record<Action, boolean>> = {
     "review.manage": true,
     "review.comment": true,
     "review.approve": true,
+    "library.edit": true,
+    "library.publish": true,
+    "library.share": true,
   },
   designer: {
     ...READ,
@@ -61,6 +69,9 @@ export const PERMISSIONS: Record<Role, Record<Action, boolean>> = {
     "review.manage": false,
     "review.comment": true,
     "review.approve": false,
+    "library.edit": true,
+    "library.publish": true,
+    "library.share": false,
   },
   reviewer: {
     ...READ,
@@ -74,6 +85,9 @@ export const PERMISSIONS: Record<Role, Record<Action, boolean>> = {
     "review.manage": false,
     "review.comment": true,
     "review.approve": true,
+    "library.edit": false,
+    "library.publish": false,
+    "library.share": false,
   },
   viewer: {
     ...READ,
@@ -87,6 +101,9 @@ export const PERMISSIONS: Record<Role, Record<Action, boolean>> = {
     "review.manage": false,
     "review.comment": false,
     "review.approve": false,
+    "library.edit": false,
+    "library.publish": false,
+    "library.share": false,
   },
 };
 

@@ -108,3 +108,50 @@ export interface Page<T> {
 // Reviews and comparisons: the API's shapes, named once where the server builds them (type-only, erased in the bundle).
 export type { ReviewSummary, ReviewDetail, ReviewInbox, ReviewerView, CommentView, DecisionView, ReviewState } from "../data/reviews";
 export type { RevisionSide, RevisionComparison, DraftSide, DraftComparison } from "../data/compare";
+
+/** One figure's change between two library block revisions (from their stored figures). */
+export interface FigureDeltaItem {
+  figure: string;
+  label: string;
+  unit: string;
+  from: number | null;
+  to: number | null;
+  delta: number | null;
+}
+
+export interface LibraryRevisionItem {
+  id: string;
+  number: number;
+  message: string;
+  state: "published" | "awaiting review";
+  author: Person;
+  createdAt: string;
+  inputs: string[];
+  outputs: string[];
+  family: FamilyRef;
+  stats: RevisionStats;
+  usedBy?: Array<{ design: Person; revisions: number[] }>;
+  deltas?: FigureDeltaItem[] | null;
+}
+
+export interface LibraryBlockItem {
+  name: string;
+  latest: number | null;
+  revisions: LibraryRevisionItem[];
+}
+
+export interface LibraryItem {
+  id: string;
+  key: string;
+  name: string;
+  description: string;
+  /** How use lines in this workspace write it. */
+  ref: string;
+  owner: { slug: string; name: string };
+  sharedIn: boolean;
+  mayPublish: boolean;
+  requireReview: boolean;
+  createdAt: string;
+  blocks: LibraryBlockItem[];
+  shares?: Array<{ workspace: { slug: string; name: string }; createdAt: string; by: Person }> | null;
+}

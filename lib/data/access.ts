@@ -30,6 +30,10 @@ const ACTION_WORDS: Record<Action, string> = {
   "review.comment": "commenting on reviews",
   "review.approve": "approving revisions",
   "compile.run": "compiling",
+  "library.read": "reading libraries",
+  "library.edit": "creating libraries",
+  "library.publish": "publishing blocks to a library",
+  "library.share": "sharing libraries with other workspaces",
 };
 
 export interface Access {

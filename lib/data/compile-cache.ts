@@ -32,10 +32,17 @@ function pipelineBuild(): string {
  * not part of a cached result, and the time the minimizer was given is not
  * part of the key: a result found with more time is as good or better, and a
  * job's result (run to the end) replaces one found within the interactive budget.
+ *
+ * `libraryRevisions` are the ids of the library block revisions the source's
+ * use lines resolved to (any order). The job's function already holds what
+ * they elaborated to; the ids are in the key as well, so a kept result is
+ * never served for other block revisions even where a later stage reads more
+ * of the source than its function.
  */
-export function cacheKey(scope: string, job: StageJob): string {
+export function cacheKey(scope: string, job: StageJob, libraryRevisions: readonly string[] = []): string {
   const { exports: _e, unitName: _u, minimizeMs: _m, ...rest } = job;
-  return createHash("sha256").update(JSON.stringify([pipelineBuild(), scope, rest])).digest("hex");
+  const pins = [...new Set(libraryRevisions)].sort();
+  return createHash("sha256").update(JSON.stringify([pipelineBuild(), scope, rest, ...(pins.length ? [pins] : [])])).digest("hex");
 }
 
 export async function cachedResult(key: string): Promise<CompileResult | null> {

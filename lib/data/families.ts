@@ -160,13 +160,16 @@ export async function updateFamily(p: { actor: Actor | null; slug: string; famil
   return familyView(row);
 }
 
-/** Deletes a workspace family (owner); 409 while a design or revision uses it (archive it instead). */
+/** Deletes a workspace family (owner); 409 while a design, a revision or a library block revision uses it (archive it instead). */
 export async function deleteFamily(p: { actor: Actor | null; slug: string; familyId: string }): Promise<void> {
   const { workspace } = await requireAccess(p.actor, p.slug, "family.manage");
   const row = await ownFamily(workspace.id, p.familyId);
-  const { Design, Revision } = db().models;
-  const used = (await Design.count({ where: { familyId: row.id } })) + (await Revision.count({ where: { familyId: row.id } }));
-  if (used) throw conflict("Designs or revisions use this family; archive it instead, so they keep it and new designs do not offer it.", { uses: used });
+  const { Design, Revision, LibraryRevision } = db().models;
+  const used = (await Design.count({ where: { familyId: row.id } })) + (await Revision.count({ where: { familyId: row.id } }))
+    + (await LibraryRevision.count({ where: { familyId: row.id } }));
+  if (used) {
+    throw conflict("Designs, revisions or library block revisions use this family; archive it instead, so they keep it and new designs do not offer it.", { uses: used });
+  }
   // A design that names it at its inputs or outputs checks that boundary against it on every compile.
   const edges = await Design.count({
     where: { workspaceId: workspace.id, [Op.or]: [{ settings: { inputsDrivenBy: row.key } }, { settings: { outputsDrive: row.key } }] },

@@ -11,6 +11,7 @@ import { compileSource } from "../lang";
 import { requireAccess, requireActor, type Actor } from "./access";
 import { createDesign, usableFamily, type DesignDetail } from "./designs";
 import { getRevision } from "./revisions";
+import { pinnedAnswers, resolverOf } from "./library-resolve";
 
 export interface ImportRequest {
   kind: ImportKind;
@@ -70,7 +71,8 @@ export async function revisionTable(p: {
   limit?: number;
 }) {
   const rev = await getRevision(p);
-  const compiled = compileSource(rev.source);
+  // The library blocks as the revision pinned them, whatever the libraries hold now.
+  const compiled = compileSource(rev.source, { resolve: resolverOf(await pinnedAnswers(rev.id)) });
   if (!compiled.spec) {
     throw new AppError("compile_errors", "This revision no longer compiles with the current language; its table cannot be worked out.", { diagnostics: compiled.diagnostics });
   }

@@ -15,6 +15,7 @@ import { enqueue, JOB_BUDGET_MS } from "../runtime/jobs";
 import { iso, requireAccess, type Actor } from "./access";
 import { boundaryFamilies, familyOf } from "./families";
 import { usableFamily } from "./designs";
+import { answersForSource, pinsOf, resolverOf } from "./library-resolve";
 
 export type JobStatus = "queued" | "running" | "done" | "failed" | "cancelled";
 
@@ -104,14 +105,16 @@ export async function createJob(p: {
     if (!d) throw notFound("design");
     current = d.familyId;
   }
-  // A design on an archived family runs on it still; the families at its edges come along.
+  // A design on an archived family runs on it still; the families at its edges come along, and so do the library blocks its use lines name.
   const family = familyOf(await usableFamily(workspace.id, p.familyId, current));
   const families = await boundaryFamilies(workspace.id, p.settings);
-  const { diagnostics, job } = prepare({ source: p.source, family, settings: resolveSettings(p.settings), families });
+  const loaded = await answersForSource(workspace.id, p.source);
+  const { diagnostics, job } = prepare({ source: p.source, family, settings: resolveSettings(p.settings), families, resolve: resolverOf(loaded) });
   if (!job) throw new AppError("compile_errors", "The source has errors; fix them before running it as a job.", { diagnostics });
   job.minimizeMs = Math.round(JOB_BUDGET_MS * 0.9);
   const scope = `ws:${workspace.id}`;
-  const key = cacheKey(scope, job);
+  // The same key as the workbench's compile of this text, so the result it keeps answers that compile.
+  const key = cacheKey(scope, job, pinsOf(loaded));
   const kept = await cachedResult(key);
   const settled = kept && (kept.covers.exact || job.settings.heuristic);
   const rows = await db().sequelize.query<{ id: string }>(

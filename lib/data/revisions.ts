@@ -5,6 +5,7 @@ import "server-only";
  * Numbers are assigned under a row lock on the design, so concurrent saves
  * get consecutive numbers instead of colliding.
  */
+import { QueryTypes } from "sequelize";
 import { db } from "../db/connection";
 import { AppError, notFound } from "../errors";
 import { compileOnServer, storedSettings, type CompileSettings as Settings, type SavedNetlist } from "../runtime/compile";
@@ -15,6 +16,7 @@ import { decodeCursor, encodeCursor, iso, requireAccess, type Actor } from "./ac
 import { boundaryFamilies, familyOf } from "./families";
 import { recordActivity } from "./activity";
 import { usableFamily } from "./designs";
+import { pinnedAnswers } from "./library-resolve";
 
 export interface RevisionSummary {
   id: string;
@@ -30,6 +32,8 @@ export interface RevisionDetail extends RevisionSummary {
   source: string;
   settings: Record<string, unknown>;
   familySnapshot: Record<string, unknown>;
+  /** The library block revisions it used, pinned with it. */
+  libraries: Array<{ library: string; block: string; revision: number }>;
 }
 
 type Rev = InstanceType<ReturnType<typeof db>["models"]["Revision"]>;
@@ -50,7 +54,14 @@ function summary(r: Loaded): RevisionSummary {
   };
 }
 
-const detail = (r: Loaded): RevisionDetail => ({ ...summary(r), source: r.source, settings: r.settings, familySnapshot: r.familySnapshot });
+async function detail(r: Loaded): Promise<RevisionDetail> {
+  const libraries = await db().sequelize.query<{ library: string; block: string; revision: number }>(
+    `SELECT rl.library, rl.block, lr.number AS revision FROM revision_libraries rl
+       JOIN library_revisions lr ON lr.id = rl.library_revision_id WHERE rl.revision_id = :id ORDER BY rl.library, rl.block`,
+    { replacements: { id: r.id }, type: QueryTypes.SELECT },
+  );
+  return { ...summary(r), source: r.source, settings: r.settings, familySnapshot: r.familySnapshot, libraries };
+}
 
 function include() {
   const { User, LogicFamilyRecord } = db().models;
@@ -147,6 +158,11 @@ export async function createRevision(p: {
       },
       { transaction },
     );
+    // The library revisions this one used: pinned with it, never changed when the libraries move on.
+    const pinned = new Map(outcome.libraryUses.map((u) => [u.libraryRevisionId, u]));
+    for (const u of pinned.values()) {
+      await models.RevisionLibrary.create({ revisionId: rev.id, libraryRevisionId: u.libraryRevisionId, library: u.library, block: u.block }, { transaction });
+    }
     const follows = p.draftVersion !== undefined ? p.draftVersion === d.draftVersion : d.draftSource === "" || d.draftSource === p.source;
     if (follows) {
       d.set({
@@ -196,7 +212,7 @@ export async function exportRevision(p: { actor: Actor | null; slug: string; des
     const settings = designSettingsSchema.safeParse(rev.settings);
     const outcome = await compileOnServer({
       source: rev.source, family, settings: settings.success ? settings.data : {}, userId: p.actor!.userId,
-      workspaceId: design.workspaceId, exports: [p.format], unitName: design.name,
+      workspaceId: design.workspaceId, exports: [p.format], unitName: design.name, libraryAnswers: await pinnedAnswers(rev.id),
     });
     body = outcome.result?.exports[p.format];
     if (!outcome.result || body === undefined) {

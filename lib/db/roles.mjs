@@ -72,7 +72,9 @@ export async function prepareDatabase(adminUrl, database, roles = ROLES) {
       // Later migrations narrow them where a table needs less (revisions).
       await client.query(`GRANT SELECT, INSERT, UPDATE, DELETE ON ALL TABLES IN SCHEMA public TO ${app}`);
       await client.query(`GRANT USAGE ON ALL SEQUENCES IN SCHEMA public TO ${app}`);
-      await client.query(`REVOKE UPDATE, DELETE, TRUNCATE ON TABLE revisions FROM ${app}`).catch(() => {});
+      for (const records of ["revisions", "library_revisions", "library_approvals", "revision_libraries"]) {
+        await client.query(`REVOKE UPDATE, DELETE, TRUNCATE ON TABLE ${ident(records)} FROM ${app}`).catch(() => {});
+      }
       await client.query(`REVOKE UPDATE, DELETE, TRUNCATE ON TABLE review_decisions, review_comments, review_reviewers FROM ${app}`).catch(() => {});
       await client.query(`REVOKE DELETE, TRUNCATE ON TABLE reviews FROM ${app}`).catch(() => {});
       await client.query(`REVOKE UPDATE, DELETE, TRUNCATE ON TABLE activity FROM ${app}`).catch(() => {});

@@ -13,6 +13,7 @@ import { DEMO_PASSWORD, DEMO_USERS, DEMO_WORKSPACE } from "../scripts/demo.mjs";
 import { seedDemoDesigns } from "./seed-designs";
 import { seedDemoReviews } from "./seed-reviews";
 import { seedDemoAdministration, seedDemoFamily, teamJoined } from "./seed-admin";
+import { seedDemoLibraries } from "./seed-libraries";
 
 async function main() {
   const url = process.env.DATABASE_URL;
@@ -51,6 +52,7 @@ async function main() {
     const bench = await seedDemoFamily(models, workspace);
     await seedDemoDesigns(models, workspace, users);
     await seedDemoReviews(models, workspace, users);
+    await seedDemoLibraries(models, workspace, users);
     await seedDemoAdministration(models, workspace, users, bench);
     console.log(`seeded: ${BUILT_IN_FAMILIES.length} built-in families, workspace "${workspace.name}"`);
   } finally {

@@ -47,7 +47,8 @@ export type Statement =
   | { kind: "assign"; isLet: boolean; tuple: boolean; targets: Name[]; value: Rhs; range: Range }
   | { kind: "never"; condition: Expr; range: Range }
   | { kind: "block"; name: Name; params: Name[]; results: Name[]; body: Statement[]; range: Range; headerRange: Range }
-  | { kind: "use"; name: Name; library: string; libraryRange: Range; revision: number | null; range: Range };
+  /** `use name from "library" at 3`; revisionRange is the number's range (null without `at`). */
+  | { kind: "use"; name: Name; library: string; libraryRange: Range; revision: number | null; revisionRange: Range | null; range: Range };
 
 export interface Comment {
   /** Text including the leading //. */

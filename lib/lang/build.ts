@@ -123,6 +123,7 @@ class AstBuilder extends BaseVisitor {
       library: lib.image.slice(1, -1),
       libraryRange: tokenRange(lib),
       revision: rev ? Number(rev.image) : null,
+      revisionRange: rev ? tokenRange(rev) : null,
       range: nodeRange(node),
     };
   }

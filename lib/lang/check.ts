@@ -35,12 +35,31 @@ export interface Scope {
 export interface BlockInfo {
   statement: BlockStatement;
   scope: Scope;
+  /**
+   * The blocks its body's calls name. Absent for the design's own blocks
+   * (they see the design's blocks); a library block sees the blocks of its
+   * own source only.
+   */
+  blocks?: Map<string, BlockInfo>;
+  /** A library block's never lines, over its own inputs: impossible combinations it brings to every call. */
+  nevers?: Expr[];
+  /** Where a library block came from. */
+  library?: { library: string; revision: number };
 }
 
 export interface CheckedProgram {
   design: Scope;
+  /** The design's own blocks and the library blocks its use lines brought in, by name. */
   blocks: Map<string, BlockInfo>;
   nevers: Expr[];
+}
+
+/** Library blocks of a program's use lines, as lib/lang/imports.ts resolved them. */
+export interface Imports {
+  /** Resolved blocks by the name on their use line. */
+  blocks: Map<string, BlockInfo>;
+  /** Names whose use line failed (already reported): calls to them raise no further error. */
+  failed: Set<string>;
 }
 
 const roleWord = { input: "an input", output: "an output", let: "an intermediate" } as const;
@@ -49,23 +68,15 @@ function lineOf(r: Range): number {
   return r.line;
 }
 
-/** Runs every meaning check. Diagnostics are appended to `diagnostics`. */
-export function checkProgram(program: Program, diagnostics: Diagnostic[]): CheckedProgram {
+/**
+ * Runs every meaning check. Diagnostics are appended to `diagnostics`.
+ * `imports` are the library blocks of the use lines (none by default).
+ */
+export function checkProgram(program: Program, diagnostics: Diagnostic[], imports: Imports = { blocks: new Map(), failed: new Set() }): CheckedProgram {
   const blocks = new Map<string, BlockInfo>();
-  const imported = new Set<string>();
+  const imported = new Set<string>([...imports.blocks.keys(), ...imports.failed]);
   const nevers: Expr[] = [];
 
-  for (const s of program.statements) {
-    if (s.kind === "use") {
-      diagnostics.push(
-        error(
-          `library imports are not available yet, so block '${s.name.text}' from "${s.library}" cannot be used; copy the block into this design for now`,
-          s.range,
-        ),
-      );
-      imported.add(s.name.text);
-    }
-  }
   for (const s of program.statements) {
     if (s.kind !== "block") continue;
     const prior = blocks.get(s.name.text);
@@ -77,7 +88,7 @@ export function checkProgram(program: Program, diagnostics: Diagnostic[]): Check
     blocks.set(s.name.text, { statement: s, scope: emptyScope("block", s.params, s.results) });
   }
 
-  const ctx: Ctx = { blocks, imported, diagnostics };
+  const ctx: Ctx = { blocks, library: imports.blocks, failed: imports.failed, diagnostics };
 
   for (const info of blocks.values()) {
     const b = info.statement;
@@ -104,7 +115,7 @@ export function checkProgram(program: Program, diagnostics: Diagnostic[]): Check
     diagnostics.push(error("the design declares no outputs, so there is nothing to minimize; add an outputs line such as `outputs alarm` and an equation for each output", firstRange(program)));
   }
   checkBlockRecursion(ctx);
-  return { design, blocks, nevers };
+  return { design, blocks: new Map([...imports.blocks, ...blocks]), nevers };
 }
 
 function firstRange(p: Program): Range {
@@ -113,9 +124,17 @@ function firstRange(p: Program): Range {
 }
 
 interface Ctx {
+  /** The design's own blocks. */
   blocks: Map<string, BlockInfo>;
-  imported: Set<string>;
+  /** Library blocks brought in by use lines. */
+  library: Map<string, BlockInfo>;
+  /** Use lines that failed (reported already). */
+  failed: Set<string>;
   diagnostics: Diagnostic[];
+}
+
+function blockNamed(ctx: Ctx, name: string): BlockInfo | undefined {
+  return ctx.blocks.get(name) ?? ctx.library.get(name);
 }
 
 function emptyScope(kind: Scope["kind"], inputs: Name[], outputs: Name[]): Scope {
@@ -228,8 +247,8 @@ function checkScope(ctx: Ctx, kind: Scope["kind"], inputs: Name[], outputs: Name
         return;
       case "call": {
         for (const a of e.args) walk(a, false);
-        if (ctx.imported.has(e.block.text)) return;
-        const b = ctx.blocks.get(e.block.text);
+        if (ctx.failed.has(e.block.text)) return;
+        const b = blockNamed(ctx, e.block.text);
         if (!b) {
           d.push(error(`there is no block named '${e.block.text}'; define it with block ${e.block.text}(...) -> ... and end`, e.block.range));
           return;
@@ -352,7 +371,7 @@ function checkRhsShape(ctx: Ctx, scope: Scope, s: AssignStatement): boolean {
 }
 
 function checkTupleArity(ctx: Ctx, s: AssignStatement, call: Extract<Expr, { kind: "call" }>): void {
-  const b = ctx.blocks.get(call.block.text);
+  const b = blockNamed(ctx, call.block.text);
   if (!b) return;
   const results = b.statement.results;
   if (results.length !== s.targets.length) {
@@ -419,6 +438,13 @@ function callsOf(e: Expr, out: Set<string>): void {
     default:
       return;
   }
+}
+
+/** Blocks an expression calls, by name. */
+export function callsOfExpr(e: Expr): Set<string> {
+  const out = new Set<string>();
+  callsOf(e, out);
+  return out;
 }
 
 /** Signals an expression reads (inputs included). */

@@ -8,7 +8,7 @@
 import { TRUTH_TABLE_MAX_INPUTS, type FunctionSpec, type OutputSpec } from "../logic/index";
 import type { Expr, Name, SetClause } from "./ast";
 import { cubeAlgebra, tableAlgebra, type Algebra } from "./algebra";
-import { definitionOrder, refsOfExpr, type BlockInfo, type CheckedProgram, type Definition, type Scope } from "./check";
+import { callsOfExpr, definitionOrder, refsOfExpr, type BlockInfo, type CheckedProgram, type Definition, type Scope } from "./check";
 import { CubeLimitError, rangeToCubes } from "./cubes";
 import { error, warning, type Diagnostic } from "./diagnostics";
 import type { LanguageLimits } from "./limits";
@@ -18,15 +18,20 @@ interface Env<V> {
   inputs: V[];
   memo: Map<string, V>;
   calls: Map<Expr, V[]>;
+  /** The blocks that calls in this scope name. */
+  blocks: Map<string, BlockInfo>;
+  /**
+   * Impossible combinations brought in by the library blocks called so far,
+   * one value per call, over the design's inputs; shared by a design's
+   * environment and every block environment inside it.
+   */
+  impossible: V[];
 }
 
 class Evaluator<V> {
-  private readonly orders = new Map<string, string[]>();
+  private readonly orders = new Map<BlockInfo, string[]>();
 
-  constructor(
-    private readonly alg: Algebra<V>,
-    private readonly blocks: Map<string, BlockInfo>,
-  ) {}
+  constructor(private readonly alg: Algebra<V>) {}
 
   signal(env: Env<V>, name: string): V {
     const entry = env.scope.signals.get(name)!;
@@ -77,21 +82,29 @@ class Evaluator<V> {
   call(env: Env<V>, e: Extract<Expr, { kind: "call" }>): V[] {
     const hit = env.calls.get(e);
     if (hit) return hit;
-    const info = this.blocks.get(e.block.text)!;
+    const info = env.blocks.get(e.block.text)!;
     const inner: Env<V> = {
       scope: info.scope,
       inputs: e.args.map((x) => this.expr(env, x)),
       memo: new Map(),
       calls: new Map(),
+      blocks: info.blocks ?? env.blocks,
+      impossible: env.impossible,
     };
-    let order = this.orders.get(e.block.text);
+    let order = this.orders.get(info);
     if (!order) {
       order = definitionOrder(info.scope, info.scope.defs.keys());
-      this.orders.set(e.block.text, order);
+      this.orders.set(info, order);
     }
     // leaves first, so that evaluation never recurses along a chain of intermediates
     for (const name of order) this.signal(inner, name);
     const out = info.statement.results.map((r) => this.signal(inner, r.text));
+    if (info.nevers && info.nevers.length > 0) {
+      // A library block's impossible combinations, stated on the arguments of this call.
+      let never = this.alg.zero();
+      for (const x of info.nevers) never = this.alg.or(never, this.expr(inner, x));
+      env.impossible.push(never);
+    }
     env.calls.set(e, out);
     return out;
   }
@@ -169,6 +182,49 @@ function bitsOf(mask: number, n: number): number[] {
 }
 
 /**
+ * The design's definitions that call, directly or through other blocks, a
+ * library block with never lines: they are worked out for every output, so
+ * that each output gets the impossible combinations of every such call.
+ */
+function carriers(checked: CheckedProgram): string[] {
+  const memo = new Map<BlockInfo, boolean>();
+  const calls = (scope: Scope, blocks: Map<string, BlockInfo>, name: string): boolean => {
+    const v = scope.defs.get(name)!.statement.value;
+    if (v.kind !== "expr") return false;
+    for (const b of callsOfExpr(v.expr)) {
+      const info = blocks.get(b);
+      if (info && carries(info, blocks)) return true;
+    }
+    return false;
+  };
+  const carries = (info: BlockInfo, outer: Map<string, BlockInfo>): boolean => {
+    const hit = memo.get(info);
+    if (hit !== undefined) return hit;
+    memo.set(info, false); // blocks are not recursive (checked), so this is never read as an answer
+    const inner = info.blocks ?? outer;
+    const yes = (info.nevers?.length ?? 0) > 0 || [...info.scope.defs.keys()].some((n) => calls(info.scope, inner, n));
+    memo.set(info, yes);
+    return yes;
+  };
+  return [...checked.design.defs.keys()].filter((n) => calls(checked.design, checked.blocks, n));
+}
+
+/**
+ * Every impossible combination of the design, in this environment: its own
+ * never lines and those the library blocks it calls bring with them.
+ */
+function impossibleOf<V>(alg: Algebra<V>, ev: Evaluator<V>, env: Env<V>, checked: CheckedProgram, forced: string[]): V {
+  const roots = new Set(forced);
+  for (const e of checked.nevers) for (const r of refsOfExpr(e)) roots.add(r);
+  // leaves first, so that evaluation never recurses along a chain of intermediates
+  for (const name of definitionOrder(checked.design, roots)) ev.signal(env, name);
+  let never = alg.zero();
+  for (const e of checked.nevers) never = alg.or(never, ev.expr(env, e));
+  for (const v of env.impossible) never = alg.or(never, v);
+  return never;
+}
+
+/**
  * Builds the FunctionSpec of a checked program. Diagnostics for outputs that
  * exceed maxInputsPerOutput (default 30) or maxCubes (default 20000 product
  * terms), and for ON/DC overlaps, are appended; the spec is then incomplete
@@ -179,25 +235,32 @@ export function elaborate(checked: CheckedProgram, limits: Required<LanguageLimi
   const inputs = design.inputs.map((x) => x.text);
   const n = inputs.length;
   const supportOf = support(checked);
+  const forced = carriers(checked);
   let neverSupport = 0;
   for (const e of checked.nevers) neverSupport = or32(neverSupport, supportOf(e));
+  for (const name of forced) {
+    const v = design.defs.get(name)!.statement.value;
+    if (v.kind === "expr") neverSupport = or32(neverSupport, supportOf(v.expr));
+  }
+  const hasNever = checked.nevers.length > 0 || forced.length > 0;
 
-  type Ctx = { alg: Algebra<unknown>; ev: Evaluator<unknown>; env: Env<unknown> };
+  type Ctx = { alg: Algebra<unknown>; ev: Evaluator<unknown>; env: Env<unknown>; never?: unknown };
   const contexts = new Map<string, Ctx>();
   const contextFor = (vars: number[] | null): Ctx => {
     const key = vars ? vars.join(",") : "cubes";
     let c = contexts.get(key);
     if (!c) {
       const alg = (vars ? tableAlgebra(vars, n) : cubeAlgebra(n, limits.maxCubes)) as Algebra<unknown>;
-      const env: Env<unknown> = { scope: design, inputs: inputs.map((_, i) => (vars && !vars.includes(i) ? null : alg.input(i))), memo: new Map(), calls: new Map() };
-      c = { alg, ev: new Evaluator(alg, checked.blocks), env };
+      const env: Env<unknown> = {
+        scope: design, inputs: inputs.map((_, i) => (vars && !vars.includes(i) ? null : alg.input(i))),
+        memo: new Map(), calls: new Map(), blocks: checked.blocks, impossible: [],
+      };
+      c = { alg, ev: new Evaluator(alg), env };
       contexts.set(key, c);
     }
     return c;
   };
 
-  const neverRefs = new Set<string>();
-  for (const e of checked.nevers) for (const r of refsOfExpr(e)) neverRefs.add(r);
   const outputs: OutputSpec[] = [];
   for (const o of design.outputs) {
     const def = design.defs.get(o.text);
@@ -215,11 +278,13 @@ export function elaborate(checked: CheckedProgram, limits: Required<LanguageLimi
       );
       continue;
     }
-    const { alg, ev, env } = contextFor(n <= TRUTH_TABLE_MAX_INPUTS ? bitsOf(supportOf("all"), n) : vars.length <= TRUTH_TABLE_MAX_INPUTS ? vars : null);
+    const ctx = contextFor(n <= TRUTH_TABLE_MAX_INPUTS ? bitsOf(supportOf("all"), n) : vars.length <= TRUTH_TABLE_MAX_INPUTS ? vars : null);
+    const { alg, ev, env } = ctx;
     try {
+      if (hasNever) ctx.never ??= impossibleOf(alg, ev, env, checked, forced);
       // leaves first, so that evaluation never recurses along a chain of intermediates
-      for (const name of definitionOrder(design, [o.text, ...neverRefs])) if (name !== o.text) ev.signal(env, name);
-      outputs.push(elaborateOutput(o, def, alg, ev, env, checked, diagnostics));
+      for (const name of definitionOrder(design, [o.text])) if (name !== o.text) ev.signal(env, name);
+      outputs.push(elaborateOutput(o, def, alg, ev, env, hasNever ? ctx.never : null, diagnostics));
     } catch (e) {
       if (!(e instanceof CubeLimitError)) throw e;
       diagnostics.push(
@@ -239,7 +304,7 @@ function elaborateOutput<V>(
   alg: Algebra<V>,
   ev: Evaluator<V>,
   env: Env<V>,
-  checked: CheckedProgram,
+  never: V | null,
   diagnostics: Diagnostic[],
 ): OutputSpec {
   const v = def.statement.value;
@@ -276,36 +341,32 @@ function elaborateOutput<V>(
       on = alg.zero();
     }
   }
-  if (checked.nevers.length > 0) {
-    let never = alg.zero();
-    for (const e of checked.nevers) never = alg.or(never, ev.expr(env, e));
+  if (never !== null) {
     on = alg.and(on, alg.not(never));
     dc = alg.or(dc, never);
   }
   return { name: o.text, on: alg.toCubes(on), dc: alg.toCubes(dc) };
 }
 
-/** Warns when the never lines rule out every input combination. */
+/** Warns when the never lines (the design's and its library blocks') rule out every input combination. */
 export function checkNeverCoverage(checked: CheckedProgram, limits: Required<LanguageLimits>, diagnostics: Diagnostic[], neverRanges: Name["range"][]): void {
-  if (checked.nevers.length === 0) return;
+  const forced = carriers(checked);
+  if (checked.nevers.length === 0 && forced.length === 0) return;
   const n = checked.design.inputs.length;
   const alg = cubeAlgebra(n, limits.maxCubes) as Algebra<unknown>;
-  const ev = new Evaluator(alg, checked.blocks);
-  const env: Env<unknown> = { scope: checked.design, inputs: checked.design.inputs.map((_, i) => alg.input(i)), memo: new Map(), calls: new Map() };
+  const ev = new Evaluator(alg);
+  const env: Env<unknown> = {
+    scope: checked.design, inputs: checked.design.inputs.map((_, i) => alg.input(i)),
+    memo: new Map(), calls: new Map(), blocks: checked.blocks, impossible: [],
+  };
   try {
-    for (const name of definitionOrder(checked.design, neverRefs(checked))) ev.signal(env, name);
-    let never = alg.zero();
-    for (const e of checked.nevers) never = alg.or(never, ev.expr(env, e));
+    const never = impossibleOf(alg, ev, env, checked, forced);
     if (alg.isZero(alg.not(never))) {
-      diagnostics.push(warning("the never lines rule out every input combination, so every output is a don't-care everywhere", neverRanges[0]!));
+      const at = neverRanges[0] ?? checked.design.defs.get(forced[0]!)!.statement.range;
+      const whose = checked.nevers.length > 0 ? "the never lines" : "the never lines of the library blocks used";
+      diagnostics.push(warning(`${whose} rule out every input combination, so every output is a don't-care everywhere`, at));
     }
   } catch (e) {
     if (!(e instanceof CubeLimitError)) throw e;
   }
-}
-
-function neverRefs(checked: CheckedProgram): Set<string> {
-  const out = new Set<string>();
-  for (const e of checked.nevers) for (const r of refsOfExpr(e)) out.add(r);
-  return out;
 }

@@ -11,6 +11,8 @@ import { checkNeverCoverage, elaborate } from "./elaborate";
 import { formatProgram } from "./format";
 import { withDefaults, type LanguageLimits } from "./limits";
 import { parseSource } from "./parse";
+import { checkBlockSource, importBlocks } from "./imports";
+import type { LibraryResolver, UsedBlock } from "./library";
 
 export type { Diagnostic } from "./diagnostics";
 export type { Program, Statement, Expr, Rhs, SetClause, IndexItem, Name, Range, Comment } from "./ast";
@@ -21,6 +23,17 @@ export { KEYWORDS } from "./tokens";
 export { formatExpr } from "./format";
 export { symbolTable, type SymbolInfo } from "./symbols";
 export { highlightToHtml } from "./highlight";
+export { findUses, resolverFrom, requestKey, type LibraryAnswer, type LibraryRequest, type LibraryResolver, type UseLine, type UsedBlock } from "./library";
+
+/** Options of {@link compileSource}: the size limits, and where library blocks come from. */
+export interface CompileOptions extends LanguageLimits {
+  /**
+   * Answers the source's `use` lines with the source of each block revision.
+   * Without it, every `use` line is an error saying where library blocks can
+   * be used (the server, the CLI).
+   */
+  resolve?: LibraryResolver;
+}
 
 export interface CompiledSource {
   /** Errors and warnings, ordered by position. */
@@ -32,6 +45,8 @@ export interface CompiledSource {
    * editor can still offer names); null only when a size limit stopped parsing.
    */
   ast: Program | null;
+  /** The library blocks the use lines brought in (those that resolved), in source order. */
+  libraries: UsedBlock[];
 }
 
 /**
@@ -40,12 +55,12 @@ export interface CompiledSource {
  * Limits default to DEFAULT_LIMITS (200000 characters, 2000 statements,
  * 30 inputs per output, nesting 64 deep, 20000 product terms). Never throws on any text.
  */
-export function compileSource(source: string, options?: LanguageLimits): CompiledSource {
+export function compileSource(source: string, options?: CompileOptions): CompiledSource {
   try {
     return compileUnguarded(source, options);
   } catch (e) {
     if (!(e instanceof RangeError)) throw e;
-    return { diagnostics: [tooDeep()], spec: null, ast: null };
+    return { diagnostics: [tooDeep()], spec: null, ast: null, libraries: [] };
   }
 }
 
@@ -62,18 +77,52 @@ function tooDeep(): Diagnostic {
   };
 }
 
-function compileUnguarded(source: string, options?: LanguageLimits): CompiledSource {
-  const limits = withDefaults(options);
+function compileUnguarded(source: string, options?: CompileOptions): CompiledSource {
+  const { resolve, ...rest } = options ?? {};
+  const limits = withDefaults(rest);
   const parsed = parseSource(source, limits);
   const diagnostics = [...parsed.diagnostics];
   const ast = parsed.complete ? parsed.program : null;
-  if (hasErrors(diagnostics)) return { diagnostics: sortDiagnostics(diagnostics), spec: null, ast };
-  const checked = checkProgram(parsed.program, diagnostics);
-  if (hasErrors(diagnostics)) return { diagnostics: sortDiagnostics(diagnostics), spec: null, ast };
+  const done = (spec: FunctionSpec | null, libraries: UsedBlock[]): CompiledSource => ({ diagnostics: sortDiagnostics(diagnostics), spec, ast, libraries });
+  if (hasErrors(diagnostics)) return done(null, []);
+  const imports = importBlocks(parsed.program, resolve, limits, diagnostics);
+  const checked = checkProgram(parsed.program, diagnostics, imports);
+  if (hasErrors(diagnostics)) return done(null, imports.used);
   const spec = elaborate(checked, limits, diagnostics);
   const neverRanges = parsed.program.statements.filter((s) => s.kind === "never").map((s) => s.range);
   checkNeverCoverage(checked, limits, diagnostics, neverRanges);
-  return { diagnostics: sortDiagnostics(diagnostics), spec: hasErrors(diagnostics) ? null : spec, ast };
+  return done(hasErrors(diagnostics) ? null : spec, imports.used);
+}
+
+/**
+ * Checks a source that is to be published as a library block: it must compile
+ * as a design of its own, use no library blocks itself, and give no dc(...)
+ * on its outputs (impossible combinations are never lines). Returns the
+ * errors (located in the block's source) and its ports: inputs and outputs in
+ * declared order, the parameters and results of a call.
+ */
+export function checkLibraryBlock(source: string, options?: LanguageLimits): { diagnostics: Diagnostic[]; inputs: string[]; outputs: string[] } {
+  const limits = withDefaults(options);
+  try {
+    const own = checkBlockSource(source, limits);
+    // A source that passes the block checks must also work out (limits, overlaps) as a design.
+    const compiled = hasErrors(own.diagnostics) ? null : compileSource(source, limits);
+    const diagnostics = [...own.diagnostics, ...(compiled?.diagnostics ?? []).filter((x) => x.severity === "error")];
+    return { diagnostics: sortDiagnostics(dedupe(diagnostics)), inputs: own.inputs, outputs: own.outputs };
+  } catch (e) {
+    if (!(e instanceof RangeError)) throw e;
+    return { diagnostics: [tooDeep()], inputs: [], outputs: [] };
+  }
+}
+
+function dedupe(ds: Diagnostic[]): Diagnostic[] {
+  const seen = new Set<string>();
+  return ds.filter((x) => {
+    const k = JSON.stringify(x);
+    if (seen.has(k)) return false;
+    seen.add(k);
+    return true;
+  });
 }
 
 /**

@@ -3,7 +3,7 @@ import type { Program, Range } from "./ast";
 /** A named thing of a program, for editor completion and hover. */
 export interface SymbolInfo {
   name: string;
-  role: "input" | "output" | "intermediate" | "block" | "parameter" | "result";
+  role: "input" | "output" | "intermediate" | "block" | "parameter" | "result" | "library";
   /** Where the name is declared (for outputs: on the outputs line). */
   declared: Range;
   /** The statement that gives its value, when there is one. */
@@ -30,6 +30,7 @@ export function symbolTable(p: Program): SymbolInfo[] {
   for (const s of p.statements) {
     if (s.kind === "inputs") for (const n of s.names) out.push({ name: n.text, role: "input", declared: n.range, defined: null, block: null });
     if (s.kind === "outputs") for (const n of s.names) out.push({ name: n.text, role: "output", declared: n.range, defined: null, block: null });
+    if (s.kind === "use") out.push({ name: s.name.text, role: "library", declared: s.name.range, defined: s.range, block: null });
     if (s.kind === "block") {
       out.push({ name: s.name.text, role: "block", declared: s.name.range, defined: s.headerRange, block: null });
       for (const n of s.params) out.push({ name: n.text, role: "parameter", declared: n.range, defined: null, block: s.name.text });

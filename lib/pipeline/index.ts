@@ -6,7 +6,7 @@
  * the tests), on a pool of warm worker threads (the web server), or as a job
  * on a worker process (long runs). Errors come back as values; only bugs throw.
  */
-import { compileSource, type Diagnostic } from "../lang/index";
+import { compileSource, type Diagnostic, type LibraryResolver, type UsedBlock } from "../lang/index";
 import type { FunctionSpec } from "../logic/index";
 import { BUILT_IN_FAMILIES, type Family } from "../families/index";
 import { resolveSettings, type DesignSettings } from "./settings";
@@ -35,6 +35,8 @@ export interface CompileInput {
   families?: readonly Family[];
   /** Build the structure the settings do not keep as well, for its figures (StageJob.compare); default true. */
   compare?: boolean;
+  /** Answers the source's `use` lines (see lib/lang LibraryResolver); without it a `use` line is an error. */
+  resolve?: LibraryResolver;
 }
 
 export interface Compiled {
@@ -42,17 +44,20 @@ export interface Compiled {
   diagnostics: Diagnostic[];
   /** The elaborated function; null when the source has errors. */
   spec: FunctionSpec | null;
+  /** The library blocks the source's use lines brought in. */
+  libraries: UsedBlock[];
   /** null when the source has errors or the stages stopped (see error). */
   result: CompileResult | null;
   error: PipelineError | null;
 }
 
 /** Parses the source; a source with errors ends here with its diagnostics. */
-export function prepare(input: CompileInput): { diagnostics: Diagnostic[]; job: StageJob | null } {
-  const compiled = compileSource(input.source);
-  if (!compiled.spec) return { diagnostics: compiled.diagnostics, job: null };
+export function prepare(input: CompileInput): { diagnostics: Diagnostic[]; libraries: UsedBlock[]; job: StageJob | null } {
+  const compiled = compileSource(input.source, input.resolve ? { resolve: input.resolve } : undefined);
+  if (!compiled.spec) return { diagnostics: compiled.diagnostics, libraries: compiled.libraries, job: null };
   return {
     diagnostics: compiled.diagnostics,
+    libraries: compiled.libraries,
     job: {
       spec: compiled.spec,
       family: input.family,
@@ -87,20 +92,20 @@ function boundaryOf(settings: DesignSettings = {}, families: readonly Family[] =
 
 /** The one entry: parse, then the stages on `execute` (default this thread). */
 export async function compile(input: CompileInput, execute: Executor = runInThread, control: RunControl = {}): Promise<Compiled> {
-  const { diagnostics, job } = prepare(input);
-  if (!job) return { diagnostics, spec: null, result: null, error: null };
+  const { diagnostics, libraries, job } = prepare(input);
+  if (!job) return { diagnostics, spec: null, libraries, result: null, error: null };
   const out = await execute(job, control);
   return out.ok
-    ? { diagnostics, spec: job.spec, result: out.result, error: null }
-    : { diagnostics, spec: job.spec, result: null, error: out.error };
+    ? { diagnostics, spec: job.spec, libraries, result: out.result, error: null }
+    : { diagnostics, spec: job.spec, libraries, result: null, error: out.error };
 }
 
 /** {@link compile} on this thread, synchronously: for scripts, the seed and tests. */
 export function compileNow(input: CompileInput): Compiled {
-  const { diagnostics, job } = prepare(input);
-  if (!job) return { diagnostics, spec: null, result: null, error: null };
+  const { diagnostics, libraries, job } = prepare(input);
+  if (!job) return { diagnostics, spec: null, libraries, result: null, error: null };
   const out = runStages(job);
   return out.ok
-    ? { diagnostics, spec: job.spec, result: out.result, error: null }
-    : { diagnostics, spec: job.spec, result: null, error: out.error };
+    ? { diagnostics, spec: job.spec, libraries, result: out.result, error: null }
+    : { diagnostics, spec: job.spec, libraries, result: null, error: out.error };
 }

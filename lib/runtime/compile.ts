@@ -12,6 +12,9 @@ import type { Netlist } from "../map";
 import type { NetlistDocument } from "../export";
 import { CompilePool, QueueFull } from "../runtime/pool";
 import { cacheKey, cachedResult, keepResult } from "../data/compile-cache";
+import { answersForSource, pinsOf, resolverOf, type LibraryAnswers, type ResolvedBlock } from "../data/library-resolve";
+import { requestKey, type UsedBlock } from "../lang";
+import { figureDeltas, portChange } from "../libraries";
 import { AppError } from "../errors";
 import type { DesignSettings } from "../pipeline";
 
@@ -64,6 +67,29 @@ export interface ServerCompile {
   budgetMs?: number;
   /** The workspace's own families the settings may name at the design's edges (built-ins are found anyway). */
   families?: Family[];
+  /**
+   * Answers for the use lines, when the caller has them already (a saved
+   * revision's pinned list); otherwise they are loaded from the libraries the
+   * workspace may use.
+   */
+  libraryAnswers?: LibraryAnswers;
+}
+
+/** A library block revision a compile used: the use line, the block's ports and stored figures, and any newer revision. */
+export interface LibraryUse extends UsedBlock {
+  libraryId: string;
+  libraryName: string;
+  libraryRevisionId: string;
+  stats: ResolvedBlock["stats"];
+  newer: ResolvedBlock["newer"];
+}
+
+function libraryUses(used: UsedBlock[], loaded: LibraryAnswers | null): LibraryUse[] {
+  if (!loaded) return [];
+  return used.flatMap((u) => {
+    const r = loaded.resolved.get(requestKey({ library: u.library, block: u.block, revision: u.revision }));
+    return r ? [{ ...u, libraryId: r.libraryId, libraryName: r.libraryName, libraryRevisionId: r.libraryRevisionId, stats: r.stats, newer: r.newer }] : [];
+  });
 }
 
 /**
@@ -71,18 +97,22 @@ export interface ServerCompile {
  * and, when the source has no errors, the result; throws AppError 422 when a
  * limit or the family stops it, 429 when the caller has too many waiting.
  */
-export async function compileOnServer(p: ServerCompile): Promise<Compiled & { cached: boolean }> {
+export async function compileOnServer(p: ServerCompile): Promise<Compiled & { cached: boolean; libraryUses: LibraryUse[] }> {
+  // Library revisions are loaded before parsing: the core's resolver answers synchronously from this list.
+  const loaded = p.libraryAnswers ?? (/\buse\b/.test(p.source) ? await answersForSource(p.workspaceId ?? null, p.source) : null);
   const input = {
     source: p.source, family: p.family, settings: resolveSettings(p.settings), exports: p.exports ?? [], unitName: p.unitName, families: p.families ?? [],
+    ...(loaded ? { resolve: resolverOf(loaded) } : {}),
   };
-  const { diagnostics, job } = prepare(input);
-  if (!job) return { diagnostics, spec: null, result: null, error: null, cached: false };
+  const { diagnostics, libraries, job } = prepare(input);
+  const libraryUsesOf = libraryUses(libraries, loaded);
+  if (!job) return { diagnostics, spec: null, libraries, libraryUses: libraryUsesOf, result: null, error: null, cached: false };
   const budgetMs = p.budgetMs ?? COMPILE_BUDGET_MS;
   job.minimizeMs = Math.round(budgetMs * MINIMIZE_SHARE);
   const scope = p.workspaceId ? `ws:${p.workspaceId}` : `user:${p.userId}`;
-  const key = cacheKey(scope, job);
+  const key = cacheKey(scope, job, loaded ? pinsOf(loaded) : []);
   const hit = job.exports.length === 0 ? await cachedResult(key) : null;
-  if (hit) return { diagnostics, spec: job.spec, result: hit, error: null, cached: true };
+  if (hit) return { diagnostics, spec: job.spec, libraries, libraryUses: libraryUsesOf, result: hit, error: null, cached: true };
   let out: StageOutcome;
   try {
     out = await compilePool().executor(p.userId, budgetMs)(job, { ...(p.signal ? { signal: p.signal } : {}) });
@@ -94,7 +124,22 @@ export async function compileOnServer(p: ServerCompile): Promise<Compiled & { ca
   }
   if (!out.ok) throw asAppError(out.error);
   await keepResult(key, scope, out.result);
-  return { diagnostics, spec: job.spec, result: out.result, error: null, cached: false };
+  return { diagnostics, spec: job.spec, libraries, libraryUses: libraryUsesOf, result: out.result, error: null, cached: false };
+}
+
+/** A library use as the API sends it: with the figure deltas of moving to the newer revision (stored figures, never recomputed). */
+export function libraryUseBody(u: LibraryUse) {
+  return {
+    library: u.library, libraryName: u.libraryName, libraryId: u.libraryId, block: u.block, revision: u.revision,
+    inputs: u.inputs, outputs: u.outputs, range: u.range, revisionRange: u.revisionRange, stats: u.stats,
+    newer: u.newer
+      ? {
+          number: u.newer.number, message: u.newer.message, inputs: u.newer.inputs, outputs: u.newer.outputs,
+          deltas: figureDeltas(u.stats, u.newer.stats),
+          portChange: portChange(u, u.newer),
+        }
+      : null,
+  };
 }
 
 /** The part of a result the API sends (the netlist as its document). */

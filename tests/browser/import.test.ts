@@ -5,7 +5,7 @@
 // its pages and download. Screenshots go to test-results/.
 import { readFileSync } from "node:fs";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { BASE_URL, openBrowser, screenshot, signIn, type Session } from "../support/browser";
+import { BASE_URL, openBrowser, screenshot, signIn, typeInEditor, type Session } from "../support/browser";
 import { DEMO_PASSWORD } from "../../lib/scripts/demo.mjs";
 
 const sluice = readFileSync("lib/import/examples/sluice-alarm.csv", "utf8");
@@ -89,14 +89,12 @@ describe("bringing designs in, in chromium", () => {
     await page.click(".monaco-editor .view-lines");
     await page.keyboard.press("Control+A");
     await page.keyboard.press("Delete");
-    await page.keyboard.type("inputs a, b, c, d, e, f, g, h, i, j, k, l");
-    await page.keyboard.press("Escape");
+    // Through the shared helper: a completion list that opens late would otherwise take the Enter.
+    await typeInEditor(page, "inputs a, b, c, d, e, f, g, h, i, j, k, l");
     await page.keyboard.press("Enter");
-    await page.keyboard.type("outputs y");
-    await page.keyboard.press("Escape");
+    await typeInEditor(page, "outputs y");
     await page.keyboard.press("Enter");
-    await page.keyboard.type("y = a ^ l");
-    await page.keyboard.press("Escape");
+    await typeInEditor(page, "y = a ^ l");
     const range = page.locator('[data-testid="truth-table-range"]');
     await expect.poll(() => range.innerText(), { timeout: 15_000 }).toBe("rows 0–255 of 4,096");
     await page.getByRole("button", { name: "Last page" }).click();

@@ -26,7 +26,7 @@ beforeAll(async () => {
   const out = mkdtempSync(path.join(tmpdir(), "fanbound-bundle-"));
   await esbuild.build(buildOptions({ entry: "tests/cli/fixtures/bundle-entry.ts" }, out));
   bundled = (await import(pathToFileURL(path.join(out, "entry.mjs")).href)) as Bundled;
-  // bundling takes a few seconds alone, more on a machine shared with other builds
+  // The build takes a few seconds, and longer on a busy machine than the default 10 s a hook gets.
 }, 60_000);
 
 const cases = readdirSync("tests/lang/cases").filter((f) => f.endsWith(".fnb")).sort();

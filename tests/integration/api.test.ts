@@ -480,7 +480,7 @@ describe("designs and revisions", () => {
     const ownerDb = new Sequelize(process.env.DATABASE_OWNER_URL!, { dialect: "postgres", dialectModule: pg, logging: false });
     try {
       const rev = await db().models.Revision.findOne({ where: { designId } });
-      // Reviews refer to revisions, so a plain TRUNCATE stops at the foreign keys; with CASCADE the triggers refuse it.
+      // Reviews and the library revisions a revision pinned refer to revisions, so a plain TRUNCATE stops at the foreign keys; with CASCADE the triggers refuse it.
       await expect(ownerDb.query("TRUNCATE revisions")).rejects.toThrow(/immutable: TRUNCATE refused|cannot truncate a table referenced/);
       await expect(ownerDb.query("TRUNCATE revisions CASCADE")).rejects.toThrow(/immutable: TRUNCATE refused/);
       await expect(ownerDb.query("UPDATE revisions SET message = 'x' WHERE id = :id", { replacements: { id: rev!.id } })).rejects.toThrow(/immutable/);

@@ -9,6 +9,7 @@
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
 import { db } from "@/lib/db/connection";
 import { createRevision } from "@/lib/data/revisions";
+import { publishBlock } from "@/lib/data/libraries";
 import * as me from "@/app/api/v1/me/route";
 import * as tokens from "@/app/api/v1/tokens/route";
 import * as token from "@/app/api/v1/tokens/[id]/route";
@@ -47,6 +48,14 @@ import * as decisionsRoute from "@/app/api/v1/workspaces/[ws]/reviews/[reviewId]
 import * as withdrawRoute from "@/app/api/v1/workspaces/[ws]/reviews/[reviewId]/withdraw/route";
 import { requestReview } from "@/lib/data/reviews";
 import * as openapi from "@/app/api/v1/openapi.json/route";
+import * as libraries from "@/app/api/v1/workspaces/[ws]/libraries/route";
+import * as library from "@/app/api/v1/workspaces/[ws]/libraries/[libraryId]/route";
+import * as publish from "@/app/api/v1/workspaces/[ws]/libraries/[libraryId]/blocks/[block]/revisions/route";
+import * as libRevision from "@/app/api/v1/workspaces/[ws]/libraries/[libraryId]/blocks/[block]/revisions/[number]/route";
+import * as libShares from "@/app/api/v1/workspaces/[ws]/libraries/[libraryId]/shares/route";
+import * as libShare from "@/app/api/v1/workspaces/[ws]/libraries/[libraryId]/shares/[workspace]/route";
+import * as libResolve from "@/app/api/v1/workspaces/[ws]/libraries/resolve/route";
+import * as libApproval from "@/app/api/v1/workspaces/[ws]/libraries/[libraryId]/blocks/[block]/revisions/[number]/approval/route";
 import { SOURCE, addMember, builtinFamily, call, makeInvitation, makeUser, makeWorkspace, resetLimits, tag, type TestUser } from "./helpers";
 
 const ACTORS = ["anonymous", "other", "viewer", "reviewer", "designer", "owner"] as const;
@@ -60,6 +69,13 @@ let familyId: string;
 let ownFamilyId: string;
 let designId: string;
 let reviewId: string;
+/** A library of the workspace, one shared into it from the other workspace, and one of a third workspace shared with neither. */
+let libraryId: string;
+let sharedInId: string;
+let hiddenId: string;
+let shareTarget: { id: string; slug: string };
+
+const BLOCK = "inputs a, b, c\noutputs m\nm = a * b + a * c + b * c\n";
 
 const FAMILY_DATA = {
   supplyV: 5, vohMin: 4.4, volMax: 0.1, vihMin: 3.5, vilMax: 1.5,
@@ -99,7 +115,30 @@ beforeAll(async () => {
   await createRevision({ actor: { userId: owner.id, via: "token" }, slug: ws.slug, designId, message: "first", source: SOURCE, familyId, settings: {} });
   const r2 = await designerRevision("second");
   reviewId = (await freshReview(r2, [users.reviewer.id])).id;
+  const { Library, LibraryShare } = db().models;
+  const lib = await Library.create({ workspaceId: ws.id, key: `blocks-${tag()}`, name: "Lock blocks", createdBy: owner.id });
+  libraryId = lib.id;
+  await publishBlock({ actor: { userId: owner.id, via: "token" }, slug: ws.slug, libraryId, block: "vote", source: BLOCK, familyId, settings: {}, message: "first" });
+  const theirs = await Library.create({ workspaceId: otherWs.id, key: `weir-${tag()}`, name: "Weir blocks", createdBy: other.id });
+  sharedInId = theirs.id;
+  await publishBlock({ actor: { userId: other.id, via: "token" }, slug: otherWs.slug, libraryId: sharedInId, block: "vote", source: BLOCK, familyId, settings: {}, message: "first" });
+  await LibraryShare.create({ libraryId: sharedInId, workspaceId: ws.id, createdBy: other.id });
+  const third = await makeUser("third");
+  const thirdWs = await makeWorkspace("third", third);
+  hiddenId = (await Library.create({ workspaceId: thirdWs.id, key: `mill-${tag()}`, name: "Mill blocks", createdBy: third.id })).id;
+  shareTarget = await makeWorkspace("target", await makeUser("target"));
 });
+
+/** A revision of block "vote" in a library, published by the designer awaiting review; its number. */
+async function awaitingRevision(lib: string): Promise<number> {
+  const { LibraryBlock, LibraryRevision } = db().models;
+  const block = await LibraryBlock.findOne({ where: { libraryId: lib, name: "vote" } });
+  const first = await LibraryRevision.findOne({ where: { blockId: block!.id, number: 1 } });
+  const last = (await LibraryRevision.max("number", { where: { blockId: block!.id } })) as number;
+  const { id: _id, createdAt: _c, number: _n, ...rest } = first!.get({ plain: true });
+  await LibraryRevision.create({ ...rest, number: last + 1, authorId: users.designer.id, needsReview: true, message: "awaiting review" });
+  return last + 1;
+}
 
 /** A new revision saved by the designer (so the reviewer and the owner may review it). */
 async function designerRevision(message: string) {
@@ -371,6 +410,87 @@ const rows: Row[] = [
     name: "POST /compile (a workspace's own family)",
     run: (_w, t) => call(compile.POST, "POST", "/compile", { token: t, body: { source: SOURCE, familyId: ownFamilyId } }),
     expect: [401, 404, 200, 200, 200, 200],
+  },
+  { name: "GET libraries", run: (_w, t) => call(libraries.GET, "GET", "/l", { token: t, params: wsp() }), expect: [401, 404, 200, 200, 200, 200] },
+  {
+    name: "POST libraries",
+    run: (_w, t) => call(libraries.POST, "POST", "/l", { token: t, params: wsp(), body: { key: `lib-${tag()}`, name: "Spare blocks" } }),
+    expect: [401, 404, 403, 403, 201, 201],
+  },
+  { name: "GET libraries/{id}", run: (_w, t) => call(library.GET, "GET", "/l", { token: t, params: { ...wsp(), libraryId } }), expect: [401, 404, 200, 200, 200, 200] },
+  {
+    name: "POST libraries/{id}/blocks/{block}/revisions (publish)",
+    run: (_w, t) => call(publish.POST, "POST", "/p", { token: t, params: { ...wsp(), libraryId, block: "vote" }, body: { source: BLOCK, familyId, message: "matrix publish" } }),
+    expect: [401, 404, 403, 403, 201, 201],
+  },
+  {
+    name: "GET libraries/{id}/blocks/{block}/revisions/{n}",
+    run: (_w, t) => call(libRevision.GET, "GET", "/r", { token: t, params: { ...wsp(), libraryId, block: "vote", number: "1" } }),
+    expect: [401, 404, 200, 200, 200, 200],
+  },
+  {
+    name: "POST libraries/{id}/shares",
+    run: async (_w, t) => {
+      const target = await makeWorkspace("target", await makeUser("target"));
+      return call(libShares.POST, "POST", "/s", { token: t, params: { ...wsp(), libraryId }, body: { workspace: target.slug } });
+    },
+    expect: [401, 404, 403, 403, 403, 201],
+  },
+  {
+    name: "DELETE libraries/{id}/shares/{workspace}",
+    run: async (_w, t) => {
+      await db().models.LibraryShare.findOrCreate({ where: { libraryId, workspaceId: shareTarget.id }, defaults: { libraryId, workspaceId: shareTarget.id, createdBy: users.owner.id } });
+      return call(libShare.DELETE, "DELETE", "/s", { token: t, params: { ...wsp(), libraryId, workspace: shareTarget.slug } });
+    },
+    expect: [401, 404, 403, 403, 403, 200],
+  },
+  {
+    name: "POST libraries/resolve",
+    run: (_w, t) => call(libResolve.POST, "POST", "/r", { token: t, params: wsp(), body: { uses: [{ library: "x", block: "vote", revision: 1 }] } }),
+    expect: [401, 404, 200, 200, 200, 200],
+  },
+  {
+    // Shared into this workspace by the other one: its members read it; the other owner, not a member here, finds nothing.
+    name: "GET libraries/{id} (shared in from another workspace)",
+    run: (_w, t) => call(library.GET, "GET", "/l", { token: t, params: { ...wsp(), libraryId: sharedInId } }),
+    expect: [401, 404, 200, 200, 200, 200],
+  },
+  {
+    name: "POST publish to a library shared in (read-only)",
+    run: (_w, t) => call(publish.POST, "POST", "/p", { token: t, params: { ...wsp(), libraryId: sharedInId, block: "vote" }, body: { source: BLOCK, familyId, message: "x" } }),
+    expect: [401, 404, 403, 403, 403, 403],
+  },
+  {
+    name: "POST shares of a library shared in (read-only)",
+    run: (_w, t) => call(libShares.POST, "POST", "/s", { token: t, params: { ...wsp(), libraryId: sharedInId }, body: { workspace: shareTarget.slug } }),
+    expect: [401, 404, 403, 403, 403, 403],
+  },
+  {
+    name: "GET libraries/{id} of a workspace that shares nothing with this one",
+    run: (_w, t) => call(library.GET, "GET", "/l", { token: t, params: { ...wsp(), libraryId: hiddenId } }),
+    expect: [401, 404, 404, 404, 404, 404],
+  },
+  {
+    name: "POST publish to a library of a workspace that shares nothing with this one",
+    run: (_w, t) => call(publish.POST, "POST", "/p", { token: t, params: { ...wsp(), libraryId: hiddenId, block: "vote" }, body: { source: BLOCK, familyId, message: "x" } }),
+    expect: [401, 404, 403, 403, 404, 404],
+  },
+  {
+    // A revision the designer published while the workspace asked for reviews: those who may approve do, the author never.
+    name: "POST libraries/{id}/blocks/{block}/revisions/{n}/approval",
+    run: async (_w, t) => {
+      const n = await awaitingRevision(libraryId);
+      return call(libApproval.POST, "POST", "/a", { token: t, params: { ...wsp(), libraryId, block: "vote", number: String(n) }, body: { note: "matrix" } });
+    },
+    expect: [401, 404, 403, 201, 403, 201],
+  },
+  {
+    name: "POST approval in a library shared in (read-only)",
+    run: async (_w, t) => {
+      const n = await awaitingRevision(sharedInId);
+      return call(libApproval.POST, "POST", "/a", { token: t, params: { ...wsp(), libraryId: sharedInId, block: "vote", number: String(n) }, body: {} });
+    },
+    expect: [401, 404, 403, 403, 403, 403],
   },
   { name: "GET /openapi.json", run: (_w, t) => call(openapi.GET, "GET", "/openapi.json", { token: t }), expect: [200, 200, 200, 200, 200, 200] },
 ];

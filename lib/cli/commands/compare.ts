@@ -1,6 +1,7 @@
 /**
- * `npm run -s cli -- compare OLD NEW --family ID [--form ...] [--fanin N] [--fanout N] [--multilevel ...]` maps both
- * designs with the same options (those of `map`) and prints
+ * `npm run -s cli -- compare OLD NEW --family ID [--form ...] [--fanin N] [--fanout N] [--multilevel ...] [--library NAME=DIR]...`
+ * maps both designs with the same options (those of `map`; use lines answered as lib/cli/libraries.ts
+ * says, each file's own, so OLD and NEW may name different revisions of a block) and prints
  * {"from": stats, "to": stats, "delta": {gates, depth, packages, transistors, delayNs, staticMw, dynamicMw},
  *  "outputs": [{"name", "from": {products, literals} | null, "to": {...} | null}]}
  * where each side's stats are exactly what `map --format json` prints in its "stats" for that file,
@@ -14,13 +15,15 @@ import { compileNow, type CompileResult } from "../../pipeline";
 import type { Family } from "../../families";
 import { mapStatsDelta } from "../../review";
 import { MAP_OPTIONS_USAGE, parseMapArgs, type MapArgs } from "../options";
+import type { LibraryResolver } from "../../lang";
+import { LIBRARY_USAGE, libraryResolver, takeLibraryOptions } from "../libraries";
 
-const USAGE = `usage: npm run -s cli -- compare OLD NEW ${MAP_OPTIONS_USAGE}`;
+const USAGE = `usage: npm run -s cli -- compare OLD NEW ${MAP_OPTIONS_USAGE} ${LIBRARY_USAGE}`;
 
 type Outcome = { ok: true; result: CompileResult } | { ok: false; code: number };
 
-function mapOne(io: CliIO, file: string, source: string, family: Family, settings: MapArgs["settings"]): Outcome {
-  const r = compileNow({ source, family, settings, compare: false });
+function mapOne(io: CliIO, file: string, source: string, family: Family, settings: MapArgs["settings"], resolve: LibraryResolver | undefined): Outcome {
+  const r = compileNow({ source, family, settings, compare: false, ...(resolve ? { resolve } : {}) });
   if (!r.spec) {
     io.out(JSON.stringify({ ok: false, file, diagnostics: r.diagnostics }, null, 2));
     return { ok: false, code: 1 };
@@ -33,8 +36,9 @@ function mapOne(io: CliIO, file: string, source: string, family: Family, setting
 }
 
 export async function run(args: string[], io: CliIO): Promise<number> {
-  const parsed = parseMapArgs(args, { fileNames: ["OLD", "NEW"], format: false });
-  if (typeof parsed === "string") {
+  const taken = takeLibraryOptions(args);
+  const parsed = typeof taken === "string" ? taken : parseMapArgs(taken.args, { fileNames: ["OLD", "NEW"], format: false });
+  if (typeof parsed === "string" || typeof taken === "string") {
     io.err(`${parsed}\n${USAGE}`);
     return 2;
   }
@@ -45,9 +49,9 @@ export async function run(args: string[], io: CliIO): Promise<number> {
   }
   const oldSource = io.readSource(oldFile);
   const newSource = io.readSource(newFile);
-  const a = mapOne(io, oldFile, oldSource, parsed.family, parsed.settings);
+  const a = mapOne(io, oldFile, oldSource, parsed.family, parsed.settings, await libraryResolver(oldSource, taken.libraries));
   if (!a.ok) return a.code;
-  const b = mapOne(io, newFile, newSource, parsed.family, parsed.settings);
+  const b = mapOne(io, newFile, newSource, parsed.family, parsed.settings, await libraryResolver(newSource, taken.libraries));
   if (!b.ok) return b.code;
   const from = a.result.document.stats;
   const to = b.result.document.stats;

@@ -1,5 +1,5 @@
 /**
- * `npm run -s cli -- minimize FILE [--form sop|pos] [--cost products|gate-inputs|fan-in=N] [--heuristic]`
+ * `npm run -s cli -- minimize FILE [--form sop|pos] [--cost products|gate-inputs|fan-in=N] [--heuristic] [--library NAME=DIR]...`
  * prints {"inputs", "outputs": [{"name", "form", "cubes", "expression", "products", "literals",
  * "exact", "lowerBound"}], "shared", "ms"} as JSON. Language errors print the same JSON as
  * `check` and exit 1; a limit prints {"error": {"code": "limit", "message", "limit"}} and exits 1.
@@ -8,9 +8,10 @@ import type { CliIO } from "../main";
 import { compileSource } from "../../lang";
 import { cubeToString } from "../../logic";
 import { LimitError, minimize, type CostModel, type MinimizeOptions } from "../../minimize";
+import { LIBRARY_USAGE, libraryResolver, takeLibraryOptions } from "../libraries";
 
 const USAGE =
-  "usage: npm run -s cli -- minimize FILE [--form sop|pos] [--cost products|gate-inputs|fan-in=N] [--heuristic]";
+  `usage: npm run -s cli -- minimize FILE [--form sop|pos] [--cost products|gate-inputs|fan-in=N] [--heuristic] ${LIBRARY_USAGE}`;
 
 function parseArgs(args: string[]): { file: string; options: MinimizeOptions } | string {
   let file: string | undefined;
@@ -47,12 +48,15 @@ function parseArgs(args: string[]): { file: string; options: MinimizeOptions } |
 }
 
 export async function run(args: string[], io: CliIO): Promise<number> {
-  const parsed = parseArgs(args);
-  if (typeof parsed === "string") {
+  const taken = takeLibraryOptions(args);
+  const parsed = typeof taken === "string" ? taken : parseArgs(taken.args);
+  if (typeof parsed === "string" || typeof taken === "string") {
     io.err(`${parsed}\n${USAGE}`);
     return 2;
   }
-  const compiled = compileSource(io.readSource(parsed.file));
+  const source = io.readSource(parsed.file);
+  const resolve = await libraryResolver(source, taken.libraries);
+  const compiled = compileSource(source, resolve ? { resolve } : undefined);
   const ok = !compiled.diagnostics.some((d) => d.severity === "error");
   if (!ok || !compiled.spec) {
     io.out(JSON.stringify({ ok: false, diagnostics: compiled.diagnostics }, null, 2));

@@ -1,6 +1,6 @@
 /**
- * `npm run -s cli -- table FILE [--format json|csv]` (FILE or - for standard
- * input). json (the default) prints {"inputs", "outputs": [{"name", "on",
+ * `npm run -s cli -- table FILE [--format json|csv] [--library NAME=DIR]...`
+ * (FILE or - for standard input). json (the default) prints {"inputs", "outputs": [{"name", "on",
  * "dc"}]} with minterm indices; csv prints the full truth table (inputs then
  * outputs, - for don't-care), the layout `import` reads back. A source with
  * errors prints the check JSON instead and exits 1. JSON stops at
@@ -10,10 +10,17 @@ import type { CliIO } from "../main";
 import { compileSource } from "../../lang/index";
 import { tableFromCubes, tableMinterms, TRUTH_TABLE_MAX_INPUTS } from "../../logic/index";
 import { TABLE_CSV_MAX_INPUTS, truthTableCsv } from "../../import/index";
+import { LIBRARY_USAGE, libraryResolver, takeLibraryOptions } from "../libraries";
 
-const USAGE = "usage: npm run -s cli -- table FILE [--format json|csv]   (use - to read standard input)";
+const USAGE = `usage: npm run -s cli -- table FILE [--format json|csv] ${LIBRARY_USAGE}   (use - to read standard input)`;
 
-export async function run(args: string[], io: CliIO): Promise<number> {
+export async function run(argv: string[], io: CliIO): Promise<number> {
+  const taken = takeLibraryOptions(argv);
+  if (typeof taken === "string") {
+    io.err(`${taken}\n${USAGE}`);
+    return 2;
+  }
+  const args = taken.args;
   let file: string | undefined;
   let format: "json" | "csv" = "json";
   for (let i = 0; i < args.length; i++) {
@@ -36,7 +43,9 @@ export async function run(args: string[], io: CliIO): Promise<number> {
     io.err(USAGE);
     return 2;
   }
-  const result = compileSource(io.readSource(file));
+  const source = io.readSource(file);
+  const resolve = await libraryResolver(source, taken.libraries);
+  const result = compileSource(source, resolve ? { resolve } : undefined);
   if (!result.spec) {
     io.out(JSON.stringify({ ok: false, diagnostics: result.diagnostics }, null, 2));
     return 1;

@@ -1,6 +1,6 @@
 import { handle } from "@/lib/api/handler";
 import { routes } from "@/lib/api/routes";
-import { compileOnServer, resultBody } from "@/lib/runtime/compile";
+import { compileOnServer, libraryUseBody, resultBody } from "@/lib/runtime/compile";
 import { resolveCompileFamily } from "@/lib/data/families";
 
 export const POST = handle(routes.compile, async ({ req, actor, body }) => {
@@ -13,6 +13,7 @@ export const POST = handle(routes.compile, async ({ req, actor, body }) => {
   });
   return {
     diagnostics: out.diagnostics,
+    libraries: out.libraryUses.map(libraryUseBody),
     result: out.result ? resultBody(out.result) : null,
     family: { id: record.id, key: record.key, name: record.name },
     cached: out.cached,
