@@ -18,6 +18,7 @@ import { fingerprint, installCountingClock } from "./fingerprint";
 import { genericRoute, loadSolver, type GenericResult } from "./generic";
 import { mappingSection } from "./mapping";
 import { multilevelSection } from "./multilevel";
+import { platformSection } from "./platform";
 
 interface Row {
   c: BenchCase;
@@ -196,6 +197,7 @@ async function main(): Promise<void> {
 
   mappingSection(quick);
   multilevelSection(quick);
+  await platformSection();
 }
 
 main().then(
