@@ -85,7 +85,10 @@ describe("compiles on the worker pool", () => {
 
   it("stops when the client cancels, with a 422 that says it was stopped", async () => {
     const controller = new AbortController();
-    const pending = compileRoute(request(user.token, { source: HEAVY, familyKey: "ttl-std-5v", settings: { heuristic: true } }, controller.signal));
+    // A clock no other test uses: the heavy compile above may have finished within its budget, and its kept
+    // result must not answer this one before the cancel arrives.
+    const settings = { heuristic: true, clockMHz: 12.5 };
+    const pending = compileRoute(request(user.token, { source: HEAVY, familyKey: "ttl-std-5v", settings }, controller.signal));
     setTimeout(() => controller.abort(), 200);
     const res = await pending;
     expect(res.status).toBe(422);
