@@ -67,7 +67,7 @@ export const DEMO_DESIGNS: DemoDesign[] = [
       { message: "Decode the six states to the panel lamps", author: "designer", family: "ttl-ls-5v", edit: withoutNever },
       { message: "Codes 6 and 7 are never sent: use them as don't-cares", author: "designer", family: "ttl-ls-5v" },
       { message: "Lamp drivers load each output like four inputs", author: "owner", family: "ttl-ls-5v", settings: { outputPinLoad: 4 } },
-      { message: "Factored decode: the lamps share sub-expressions, five gates and one package fewer", author: "designer", family: "ttl-ls-5v", settings: { outputPinLoad: 4, structure: "factored" } },
+      { message: "Factored decode: the lamps share sub-expressions, one gate and one package fewer", author: "designer", family: "ttl-ls-5v", settings: { outputPinLoad: 4, structure: "factored" } },
     ],
   },
   {

@@ -186,24 +186,34 @@ export function mapFactored(spec: FunctionSpec, covers: CoverSet, family: Parame
   const aim = options.aim ?? "gates";
   const { twoLevel: _reuse, ...rest } = options;
   const mapOptions: MapOptions = { ...rest, spec, aim };
+  const figuresOf = (m: MapResult) => {
+    const chosen = m.realisations.find((r) => r.chosen)!;
+    return { gates: chosen.gates, packages: chosen.packages, levels: chosen.depth };
+  };
+  const rank = (f: ReturnType<typeof figuresOf>) => (aim === "levels" ? [f.levels, f.gates, f.packages ?? 0] : [f.gates, f.packages ?? 0, f.levels]);
+  /** Whether a ranks strictly before b (the first figure that differs decides). */
+  const before = (a: number[], b: number[]) => {
+    const k = a.findIndex((x, j) => x !== b[j]);
+    return k >= 0 && a[k]! < b[k]!;
+  };
+  // The mapper's own gate choice follows the aim too, and is a heuristic: the other aim's choices
+  // sometimes give a network fewer gates as well. Both are priced; the aim's own wins a tie.
+  const other: MapOptions = { ...mapOptions, aim: aim === "gates" ? "levels" : "gates" };
+  const mapBoth = (network: LogicNetwork): MapResult => {
+    const own = mapNetwork(network, family, mapOptions);
+    const alt = mapNetwork(network, family, other);
+    return before(rank(figuresOf(alt)), rank(figuresOf(own))) ? alt : own;
+  };
   // two-level first, so that it is kept on a tie
   const built: { structure: Structure; mapped: MapResult }[] = [];
   built.push({ structure: "two-level", mapped: options.twoLevel ?? mapNetwork(coverNetwork(covers), family, mapOptions) });
   const decomposed = decomposedNetwork(covers);
-  if (decomposed) built.push({ structure: "decomposed", mapped: mapNetwork(decomposed, family, mapOptions) });
+  if (decomposed) built.push({ structure: "decomposed", mapped: mapBoth(decomposed) });
   const cubes = covers.outputs.reduce((s, o) => s + o.cubes.length, 0);
-  if (cubes <= ALGEBRAIC_MAX_CUBES) built.push({ structure: "algebraic", mapped: mapNetwork(algebraicNetwork(covers), family, mapOptions) });
-  const figures = built.map((b) => {
-    const chosen = b.mapped.realisations.find((r) => r.chosen)!;
-    return { gates: chosen.gates, packages: chosen.packages, levels: chosen.depth };
-  });
-  const rank = (f: (typeof figures)[number]) => (aim === "levels" ? [f.levels, f.gates, f.packages ?? 0] : [f.gates, f.packages ?? 0, f.levels]);
+  if (cubes <= ALGEBRAIC_MAX_CUBES) built.push({ structure: "algebraic", mapped: mapBoth(algebraicNetwork(covers)) });
+  const figures = built.map((b) => figuresOf(b.mapped));
   let pick = 0;
-  for (let i = 1; i < built.length; i++) {
-    const [a, b] = [rank(figures[i]!), rank(figures[pick]!)];
-    const k = a.findIndex((x, j) => x !== b[j]);
-    if (k >= 0 && a[k]! < b[k]!) pick = i;
-  }
+  for (let i = 1; i < built.length; i++) if (before(rank(figures[i]!), rank(figures[pick]!))) pick = i;
   return {
     mapped: built[pick]!.mapped,
     structure: built[pick]!.structure,

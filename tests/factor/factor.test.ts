@@ -3,9 +3,10 @@
 // equality of every structure with the specification on random functions.
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
+import { readFileSync } from "node:fs";
 import { divide, factor, kernels, type FExpr, type Sop } from "../../lib/factor/algebra";
 import { algebraicNetwork, decomposedNetwork, mapFactored } from "../../lib/factor/index";
-import { mapNetwork, TARGET_FORMS, type LogicExpr, type Netlist } from "../../lib/map/index";
+import { mapCovers, mapNetwork, TARGET_FORMS, type LogicExpr, type Netlist } from "../../lib/map/index";
 import { builtInFamily, type Family } from "../../lib/families/index";
 import { minimize } from "../../lib/minimize/index";
 import { analyse } from "../../lib/analysis/index";
@@ -213,6 +214,29 @@ describe("every structure on random functions", () => {
       }),
       { numRuns: 120 },
     );
+  });
+  it("fewest gates never keeps more gates than fewest levels, nor fewest levels more levels than fewest gates", { timeout: 240_000 }, () => {
+    // by the definition of the aims: both choose among the same priced mappings (each network mapped with either
+    // aim's gate choice), each by its own first figure (no outside source). The chamber level display on the 3.3 V
+    // family was a case where the levels aim's gate choice also gave fewer gates.
+    const lvc = builtInFamily("lvcmos-3v3")!;
+    const display = compileSource(readFileSync("lib/lang/examples/level-display.fnb", "utf8")).spec!;
+    const cases: [FunctionSpec, Family][] = [[display, lvc], [display, hc], [comparator(3).spec, ttl]];
+    const random = fc.integer({ min: 3, max: 6 }).chain((n) => fc.tuple(fc.constant(n), fc.array(fc.integer({ min: 0, max: 2 }), { minLength: 2 ** n, maxLength: 2 ** n })));
+    for (const [n, vals] of fc.sample(random, { numRuns: 30, seed: 19 })) {
+      cases.push([{
+        inputs: Array.from({ length: n }, (_, i) => `x${i}`),
+        outputs: [{ name: "y", on: vals.flatMap((v, m): Cube[] => (v === 1 ? [minterm(m, n)] : [])), dc: vals.flatMap((v, m): Cube[] => (v === 2 ? [minterm(m, n)] : [])) }],
+      }, hc]);
+    }
+    for (const [spec, family] of cases) {
+      const covers = minimize(spec);
+      const twoLevel = mapCovers(covers, family, { spec });
+      const g = mapFactored(spec, covers, family, { aim: "gates", twoLevel }).structures.find((s) => s.chosen)!;
+      const l = mapFactored(spec, covers, family, { aim: "levels", twoLevel }).structures.find((s) => s.chosen)!;
+      expect(g.gates).toBeLessThanOrEqual(l.gates);
+      expect(l.levels).toBeLessThanOrEqual(g.levels);
+    }
   });
   it("an XOR in the NAND–NAND form, or on a family without XOR gates, is built from the form's gates", () => {
     // x ⊕ y = x·y' + x'·y (Boolean algebra, any textbook)
