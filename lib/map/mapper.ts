@@ -683,7 +683,7 @@ function mapLogic(network: LogicNetwork, family: Family, options: MapOptions, ch
     for (const o of e.outputs) {
       if (o.net === CONST0 || o.net === CONST1) continue;
       load.set(o.net, (load.get(o.net) ?? 0) + pinLoad);
-      pinned.set(o.net, (pinned.get(o.net) ?? 0) + pinLoad);
+      if (o.name === o.net) pinned.set(o.net, (pinned.get(o.net) ?? 0) + pinLoad);
     }
     let buffers = 0;
     for (const [net, l] of load) if (l > fanOut + 1e-9 && (pinned.get(net) ?? 0) <= fanOut - 1) buffers += bufferCount(Math.ceil(l - 1e-9), fanOut);
@@ -702,13 +702,14 @@ function mapLogic(network: LogicNetwork, family: Family, options: MapOptions, ch
   const finishNetlist = (e: Emitted) => {
     const warnings: string[] = [];
     // ---- fan-out: buffer trees where a load exceeds the fan-out ----
-    let live = insertBuffers(e.live, e.outputs, fanOut, pinLoad, network.inputs, railNets, e.fresh, bufOffered, warnings);
+    const buffered = insertBuffers(e.live, e.outputs, fanOut, pinLoad, network.inputs, railNets, e.fresh, bufOffered, warnings);
+    let live = buffered.gates;
     if (!bufOffered && live.some((g) => g.role === "buffer")) warnings.push(`${family.name} lists no buffer; BUF gates were used for the fan-out trees`);
 
     // ---- inverters into the spare places of packages already on the board ----
     if (spare) live = fillSparePlaces(live, offers);
 
-    const netlist: Netlist = { inputs: network.inputs.slice(), outputs: e.outputs, gates: live, complements };
+    const netlist: Netlist = { inputs: network.inputs.slice(), outputs: buffered.outputs, gates: live, complements };
     netlist.gates = topoOrder(netlist).map((g, i) => ({ ...g, id: `g${i + 1}` }));
     return { netlist, warnings, gates: netlist.gates.length, packages: knownPackages ? packageCount(netlist.gates, perPackage) : null, depth: gateLevels(netlist) };
   };
@@ -924,9 +925,11 @@ function insertBuffers(
   fresh: (p: string) => string,
   _bufOffered: boolean,
   warnings: string[],
-): Gate[] {
+): { gates: Gate[]; outputs: NetlistOutput[] } {
   const tail = tails(gates, outputs);
-  // Each load names its reader by index in `out`; a reader is copied once, on its first rewired input.
+  // Each load names its reader by index in `out` (a gate) or in `outs` (an output pin, gate −1); a reader is
+  // copied once, on its first rewired input. Only the output the net is named after must stay on it; other
+  // outputs sharing the net are read first from the driver and may move behind a buffer like any input.
   type Load = { gate: number; pin: number; weight: number; criticality: number; pinned: boolean };
   const loadsOf = new Map<string, Load[]>();
   const push = (net: string, x: Load) => {
@@ -940,8 +943,11 @@ function insertBuffers(
       if (i !== CONST0 && i !== CONST1) push(i, { gate: gi, pin, weight: 1, criticality: crit, pinned: false });
     });
   });
-  for (const o of outputs) if (o.net !== CONST0 && o.net !== CONST1) push(o.net, { gate: -1, pin: -1, weight: pinLoad, criticality: Infinity, pinned: true });
+  outputs.forEach((o, k) => {
+    if (o.net !== CONST0 && o.net !== CONST1) push(o.net, { gate: -1, pin: k, weight: pinLoad, criticality: Infinity, pinned: o.name === o.net });
+  });
   const out = gates.slice();
+  const outs = outputs.slice();
   const copied = new Uint8Array(gates.length);
   const drivers = new Set([...inputs, ...rails, ...gates.map((g) => g.output)]);
   for (const [net, loads] of loadsOf) {
@@ -963,7 +969,8 @@ function insertBuffers(
     });
     loads.forEach((l, i) => {
       const a = plan.assignment[i]!;
-      if (a >= 0 && l.gate >= 0) {
+      if (a >= 0 && l.gate < 0) outs[l.pin] = { ...outs[l.pin]!, net: bufNets[a]! };
+      else if (a >= 0) {
         if (!copied[l.gate]) {
           out[l.gate] = { ...out[l.gate]!, inputs: out[l.gate]!.inputs.slice() };
           copied[l.gate] = 1;
@@ -972,5 +979,5 @@ function insertBuffers(
       }
     });
   }
-  return out;
+  return { gates: out, outputs: outs };
 }
