@@ -4,6 +4,45 @@ import { DIRECTION_WORDS, FIGURE_LABELS, SETTING_LABELS, directionClass, fmtDelt
 
 const th = "px-2 py-1.5";
 
+/**
+ * The rows of the figures with their signed changes and the heaviest load, for
+ * a table whose head is Figure, the two sides and Change: the compare view's,
+ * and the workbench's "moving a block to a newer revision". `cell` pads each cell.
+ */
+export function FigureRows({ comparison: c, cell, rowClass = "" }: { comparison: Comparison; cell: string; rowClass?: string }) {
+  return (
+    <>
+      {c.figures.map((r) => {
+        const unit = r.key === "staticMw" || r.key === "dynamicMw" ? powerUnit(r.from, r.to) : undefined;
+        return (
+          <tr key={r.key} className={rowClass} data-figure={r.key} data-direction={r.direction}>
+            <td className={cell}>
+              {FIGURE_LABELS[r.key].label}
+              {FIGURE_LABELS[r.key].estimate && <span className="text-graphite"> (est.)</span>}
+            </td>
+            <td className={`${cell} text-right font-mono`}>{fmtFigure(r.key, r.from, unit)}</td>
+            <td className={`${cell} text-right font-mono`}>{fmtFigure(r.key, r.to, unit)}</td>
+            <td className={`${cell} text-right font-mono font-semibold ${directionClass(r.direction)}`} title={DIRECTION_WORDS[r.direction]}>
+              {fmtDelta(r.key, r.delta, unit)}
+            </td>
+          </tr>
+        );
+      })}
+      <tr className={rowClass} data-figure="load" data-direction={c.load.direction}>
+        <td className={cell}>Heaviest load / fan-out limit <span className="text-graphite">(est.)</span></td>
+        {[c.load.from, c.load.to].map((x, i) => (
+          <td key={i} className={`${cell} text-right font-mono ${x.over ? "text-vermilion" : ""}`}>
+            {x.load} / {x.limit ?? "—"}{x.over ? " over" : ""}
+          </td>
+        ))}
+        <td className={`${cell} text-right font-mono font-semibold ${directionClass(c.load.direction)}`} title={DIRECTION_WORDS[c.load.direction]}>
+          {fmtDelta("load", c.load.delta)}
+        </td>
+      </tr>
+    </>
+  );
+}
+
 /** The figures of both sides with signed changes, the outputs' covers, what changed in family and settings, and the netlist. */
 export function FiguresCompare({ comparison: c, fromLabel, toLabel }: { comparison: Comparison; fromLabel: string; toLabel: string }) {
   return (
@@ -18,33 +57,7 @@ export function FiguresCompare({ comparison: c, fromLabel, toLabel }: { comparis
           </tr>
         </thead>
         <tbody className="tabular">
-          {c.figures.map((r) => {
-            const unit = r.key === "staticMw" || r.key === "dynamicMw" ? powerUnit(r.from, r.to) : undefined;
-            return (
-              <tr key={r.key} className="border-b border-rule/50" data-figure={r.key} data-direction={r.direction}>
-                <td className="px-2 py-1">
-                  {FIGURE_LABELS[r.key].label}
-                  {FIGURE_LABELS[r.key].estimate && <span className="text-graphite"> (est.)</span>}
-                </td>
-                <td className="px-2 py-1 text-right font-mono">{fmtFigure(r.key, r.from, unit)}</td>
-                <td className="px-2 py-1 text-right font-mono">{fmtFigure(r.key, r.to, unit)}</td>
-                <td className={`px-2 py-1 text-right font-mono font-semibold ${directionClass(r.direction)}`} title={DIRECTION_WORDS[r.direction]}>
-                  {fmtDelta(r.key, r.delta, unit)}
-                </td>
-              </tr>
-            );
-          })}
-          <tr className="border-b border-rule/50" data-figure="load" data-direction={c.load.direction}>
-            <td className="px-2 py-1">Heaviest load / fan-out limit <span className="text-graphite">(est.)</span></td>
-            {[c.load.from, c.load.to].map((s, i) => (
-              <td key={i} className={`px-2 py-1 text-right font-mono ${s.over ? "text-vermilion" : ""}`}>
-                {s.load} / {s.limit ?? "—"}{s.over ? " over" : ""}
-              </td>
-            ))}
-            <td className={`px-2 py-1 text-right font-mono font-semibold ${directionClass(c.load.direction)}`} title={DIRECTION_WORDS[c.load.direction]}>
-              {fmtDelta("load", c.load.delta)}
-            </td>
-          </tr>
+          <FigureRows comparison={c} cell="px-2 py-1" rowClass="border-b border-rule/50" />
           <tr data-figure="exact" data-direction={c.exact.direction}>
             <td className="px-2 py-1">Cover</td>
             <td className="px-2 py-1 text-right">{c.exact.from ? "exact" : "heuristic"}</td>

@@ -14,7 +14,7 @@ import { api, ApiError } from "@/lib/client/fetcher";
 import { compareFigures, figuresOf, type Comparison } from "@/lib/review";
 import type { CompileResponse, WorkbenchSettings } from "./types";
 import { FigureDeltas } from "@/components/libraries/FigureDeltas";
-import { DIRECTION_WORDS, FIGURE_LABELS, directionClass, fmtDelta, fmtFigure, powerUnit } from "@/components/review/format";
+import { FigureRows } from "@/components/review/FiguresCompare";
 
 type Result = NonNullable<CompileResponse["result"]>;
 
@@ -82,25 +82,8 @@ function MoveFigures({ comparison: c, fromLabel, toLabel, testId }: { comparison
           <th className="text-right font-semibold">Change</th>
         </tr>
       </thead>
-      <tbody className="font-mono">
-        {c.figures.map((r) => {
-          const unit = r.key === "staticMw" || r.key === "dynamicMw" ? powerUnit(r.from, r.to) : undefined;
-          return (
-            <tr key={r.key} data-figure={r.key} data-direction={r.direction}>
-              <td className="pr-4 font-sans">{FIGURE_LABELS[r.key].label}{FIGURE_LABELS[r.key].estimate ? " (est.)" : ""}</td>
-              <td className="pr-4 text-right">{fmtFigure(r.key, r.from, unit)}</td>
-              <td className="pr-4 text-right">{fmtFigure(r.key, r.to, unit)}</td>
-              <td className={`text-right ${directionClass(r.direction)}`} title={DIRECTION_WORDS[r.direction]}>{fmtDelta(r.key, r.delta, unit)}</td>
-            </tr>
-          );
-        })}
-        <tr data-figure="load" data-direction={c.load.direction}>
-          <td className="pr-4 font-sans">Heaviest load / fan-out limit (est.)</td>
-          {[c.load.from, c.load.to].map((x, i) => (
-            <td key={i} className={`pr-4 text-right ${x.over ? "text-vermilion" : ""}`}>{x.load} / {x.limit ?? "—"}{x.over ? " over" : ""}</td>
-          ))}
-          <td className={`text-right ${directionClass(c.load.direction)}`} title={DIRECTION_WORDS[c.load.direction]}>{fmtDelta("load", c.load.delta)}</td>
-        </tr>
+      <tbody>
+        <FigureRows comparison={c} cell="pr-4 last:pr-0" />
       </tbody>
     </table>
   );

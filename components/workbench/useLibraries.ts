@@ -10,6 +10,7 @@ import useSWR from "swr";
 import { api } from "@/lib/client/fetcher";
 import { findUses, requestKey, resolverFrom, type LibraryAnswer, type LibraryResolver } from "@/lib/lang";
 import type { LibraryItem } from "@/lib/client/types";
+import { answerOfResolved, type ResolvedUse } from "@/lib/libraries";
 import type { LibraryCatalog } from "@/components/editor/fanbound-language";
 
 /** The libraries this workspace may use, shaped for the editor's completion and hover. */
@@ -34,17 +35,6 @@ export function useLibraryCatalog(ws: string): LibraryCatalog {
   );
 }
 
-interface ResolveItem {
-  library: string;
-  block: string;
-  revision: number | null;
-  ok: boolean;
-  source?: string;
-  number?: number;
-  latest?: number;
-  message?: string;
-}
-
 /**
  * A resolver for `source`'s use lines (null while the answers load, or when
  * `source` is null); undefined when the source has no use lines.
@@ -52,8 +42,8 @@ interface ResolveItem {
 export function useLibraryResolver(ws: string, source: string | null): LibraryResolver | null | undefined {
   const uses = useMemo(() => (source === null ? null : findUses(source).map(({ library, block, revision }) => ({ library, block, revision }))), [source]);
   const key = uses && uses.length ? JSON.stringify(uses) : null;
-  const { data } = useSWR<{ items: ResolveItem[] }>(key ? [`/api/v1/workspaces/${ws}/libraries/resolve`, key] : null, ([url, body]: [string, string]) =>
-    api<{ items: ResolveItem[] }>(url, { method: "POST", json: { uses: JSON.parse(body) } }),
+  const { data } = useSWR<{ items: ResolvedUse[] }>(key ? [`/api/v1/workspaces/${ws}/libraries/resolve`, key] : null, ([url, body]: [string, string]) =>
+    api<{ items: ResolvedUse[] }>(url, { method: "POST", json: { uses: JSON.parse(body) } }),
   );
   return useMemo(() => {
     if (source === null) return null;
@@ -61,12 +51,7 @@ export function useLibraryResolver(ws: string, source: string | null): LibraryRe
     if (!data) return null;
     const answers = new Map<string, LibraryAnswer>();
     for (const it of data.items) {
-      answers.set(
-        requestKey(it),
-        it.ok && it.source !== undefined && it.number !== undefined
-          ? { ok: true, source: it.source, revision: it.number, ...(it.latest !== undefined ? { latest: it.latest } : {}) }
-          : { ok: false, message: it.message ?? "the server gave no answer" },
-      );
+      answers.set(requestKey(it), answerOfResolved(it, "the server gave no answer"));
     }
     return resolverFrom(answers, (r) => `block '${r.block}' from "${r.library}" is being looked up`);
   }, [source, key, data]);

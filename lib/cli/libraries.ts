@@ -15,7 +15,7 @@
 import { existsSync, readdirSync, readFileSync, statSync } from "node:fs";
 import path from "node:path";
 import { findUses, requestKey, type LibraryAnswer, type LibraryResolver, type UseLine } from "../lang/index";
-import { libraryFilePath, parseLibraryName, revisionOfFile } from "../libraries/index";
+import { answerOfResolved, libraryFilePath, parseLibraryName, revisionOfFile, type ResolvedUse } from "../libraries/index";
 
 export const LIBRARY_USAGE = "[--library NAME=DIR]...   (DIR/BLOCK/N.fnb: one file per block revision; or FANBOUND_URL and FANBOUND_TOKEN for the server's libraries)";
 
@@ -61,17 +61,6 @@ export function answerFromFolder(name: string, dir: string, u: { block: string; 
   return { ok: true, source: readFileSync(path.join(dir, libraryFilePath(u.block, n)), "utf8"), revision: n, latest };
 }
 
-interface ServerItem {
-  library: string;
-  block: string;
-  revision: number | null;
-  ok: boolean;
-  source?: string;
-  number?: number;
-  latest?: number;
-  message?: string;
-}
-
 /** Asks the server to answer use lines, grouped by the workspace each is asked in. */
 async function answersFromServer(uses: UseLine[], env: NodeJS.ProcessEnv, into: Map<string, LibraryAnswer>): Promise<void> {
   const url = env.FANBOUND_URL!.replace(/\/+$/, "");
@@ -88,14 +77,14 @@ async function answersFromServer(uses: UseLine[], env: NodeJS.ProcessEnv, into: 
     groups.set(ws, [...(groups.get(ws) ?? []), u]);
   }
   for (const [ws, list] of groups) {
-    let items: ServerItem[];
+    let items: ResolvedUse[];
     try {
       const res = await fetch(`${url}/api/v1/workspaces/${encodeURIComponent(ws)}/libraries/resolve`, {
         method: "POST",
         headers: { "content-type": "application/json", authorization: `Bearer ${env.FANBOUND_TOKEN}` },
         body: JSON.stringify({ uses: list.map((u) => ({ library: u.library, block: u.block, revision: u.revision })) }),
       });
-      const body = (await res.json().catch(() => null)) as { items?: ServerItem[]; error?: { message?: string } } | null;
+      const body = (await res.json().catch(() => null)) as { items?: ResolvedUse[]; error?: { message?: string } } | null;
       if (!res.ok || !body?.items) throw new Error(body?.error?.message ?? `the server answered ${res.status}`);
       items = body.items;
     } catch (e) {
@@ -104,13 +93,7 @@ async function answersFromServer(uses: UseLine[], env: NodeJS.ProcessEnv, into: 
       continue;
     }
     list.forEach((u, i) => {
-      const it = items[i];
-      into.set(
-        requestKey(u),
-        it?.ok && it.source !== undefined && it.number !== undefined
-          ? { ok: true, source: it.source, revision: it.number, ...(it.latest !== undefined ? { latest: it.latest } : {}) }
-          : { ok: false, message: it?.message ?? "the server gave no answer for this line" },
-      );
+      into.set(requestKey(u), answerOfResolved(items[i], "the server gave no answer for this line"));
     });
   }
 }

@@ -4,7 +4,7 @@
  * design could move to a newer block revision, and the folder layout the CLI
  * reads with --library. Pure: data in, data out.
  */
-import { KEYWORDS } from "../lang/index";
+import { KEYWORDS, type LibraryAnswer } from "../lang/index";
 
 /** A library's key: what use lines write. 1–64 lower-case letters, digits or dashes, starting with a letter or digit. */
 export const LIBRARY_KEY = /^[a-z0-9][a-z0-9-]{0,63}$/;
@@ -112,4 +112,23 @@ export function libraryFilePath(block: string, revision: number): string {
 export function revisionOfFile(name: string): number | null {
   const m = /^([1-9][0-9]{0,8})\.fnb$/.exec(name);
   return m ? Number(m[1]) : null;
+}
+
+/** One item of the resolve route's answer (POST …/libraries/resolve; its zod schema is in lib/api/routes.ts), as clients read it. */
+export interface ResolvedUse {
+  library: string;
+  block: string;
+  revision: number | null;
+  ok: boolean;
+  source?: string;
+  number?: number;
+  latest?: number;
+  message?: string;
+}
+
+/** The language core's answer for a use line from the resolve route's item (`missing` when the server gave none). */
+export function answerOfResolved(item: ResolvedUse | undefined, missing: string): LibraryAnswer {
+  return item?.ok && item.source !== undefined && item.number !== undefined
+    ? { ok: true, source: item.source, revision: item.number, ...(item.latest !== undefined ? { latest: item.latest } : {}) }
+    : { ok: false, message: item?.message ?? missing };
 }
