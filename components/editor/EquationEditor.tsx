@@ -104,6 +104,9 @@ export default function EquationEditor({
       wordBasedSuggestions: "off",
       automaticLayout: true,
       fixedOverflowWidgets: true,
+      // A file dropped on the editor goes to the page's import (a truth table or Verilog module
+      // becomes the draft after a preview), not into the text as a path.
+      dropIntoEditor: { enabled: false },
     }),
     [readOnly, ariaLabel],
   );

@@ -21,6 +21,7 @@ import { SchematicPanel } from "@/components/schematic/SchematicPanel";
 import { JobPanel } from "./JobPanel";
 import { TruthTableView } from "./TruthTableView";
 import { LibraryNotice } from "./LibraryNotice";
+import { ImportDrop } from "@/components/workspace/ImportDrop";
 import { useLibraryCatalog, useLibraryResolver } from "./useLibraries";
 
 const EquationEditor = dynamic(() => import("@/components/editor/EquationEditor"), {
@@ -84,6 +85,8 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
   const [saving, setSaving] = useState(false);
   const [saveMessage, setSaveMessage] = useState("");
   const [saveError, setSaveError] = useState<string | null>(null);
+  // The text an import replaced, until the designer keeps the import or takes the text back.
+  const [beforeImport, setBeforeImport] = useState<string | null>(null);
 
   const loadedDraft = useMemo(() => (designData ? serverDraftOf(designData.design as Parameters<typeof serverDraftOf>[0]) : null), [designData]);
   const adopt = useCallback((d: ServerDraft) => {
@@ -182,8 +185,15 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
   const family = families?.items.find((f) => f.id === familyId);
   const stale = phase.kind === "compiling" && !!result;
 
+  const useImported = (imported: string) => {
+    setBeforeImport(source ?? "");
+    setSource(imported);
+  };
+
   return (
     <main className="page-frame py-4">
+      <ImportDrop ws={ws} into={{ designName: design?.name ?? "this design", onUse: useImported }}>
+      {(importer) => (<>
       <div className="mb-3 flex flex-wrap items-center gap-3">
         <Link href={`/w/${ws}`} className="text-sm text-graphite hover:text-ink">← Designs</Link>
         <h1 className="text-xl font-semibold">{design?.name ?? "…"}</h1>
@@ -222,6 +232,15 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
         <ConflictBanner theirs={draft.conflict} onKeepMine={draft.keepMine} onTakeTheirs={draft.takeTheirs} />
       )}
 
+      {beforeImport !== null && (
+        <div className="mb-3 flex flex-wrap items-center gap-3 rounded border border-accent/50 bg-sheet px-3 py-2 text-sm" role="status" data-testid="import-used">
+          <span>The draft now holds the imported source; it is kept like any typed change.</span>
+          <button type="button" onClick={() => { setSource(beforeImport); setBeforeImport(null); }}
+            className="rounded border border-rule px-2 py-0.5 hover:border-ink">Take the previous text back</button>
+          <button type="button" onClick={() => setBeforeImport(null)} className="ml-auto text-graphite hover:text-ink">Dismiss</button>
+        </div>
+      )}
+
       {saving && (
         <form className="mb-3 flex flex-wrap items-center gap-2 rounded border border-accent/50 bg-sheet p-3"
           onSubmit={(e) => { e.preventDefault(); void saveRevision(); }}>
@@ -250,11 +269,22 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
         <section className="flex min-h-[32rem] flex-col rounded border border-rule bg-sheet" aria-label="Equations">
           <div className="flex items-center border-b border-rule px-3 py-1.5 text-xs uppercase tracking-wide text-graphite">
             Equations
-            {mayEdit && source !== null && source.trim() === "" && (
-              <button type="button" onClick={() => setSource(STARTER_SOURCE)}
-                className="ml-auto rounded border border-rule px-2 py-0.5 normal-case tracking-normal text-ink hover:border-ink">
-                Start from an example
-              </button>
+            {mayEdit && source !== null && (
+              <span className="ml-auto flex gap-2 normal-case tracking-normal">
+                {source.trim() === "" && (
+                  <button type="button" onClick={() => setSource(STARTER_SOURCE)}
+                    className="rounded border border-rule px-2 py-0.5 text-ink hover:border-ink">
+                    Start from an example
+                  </button>
+                )}
+                <button type="button" onClick={importer.chooseFile} title="Or drop a .csv truth table or a .v module anywhere on the page"
+                  className="rounded border border-rule px-2 py-0.5 text-ink hover:border-ink">
+                  Bring in a table or Verilog…
+                </button>
+                <button type="button" onClick={importer.paste} className="rounded border border-rule px-2 py-0.5 text-ink hover:border-ink">
+                  Paste cells…
+                </button>
+              </span>
             )}
           </div>
           <div className="min-h-[28rem] flex-1" data-testid="editor">
@@ -331,6 +361,8 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
         )}
         <RevisionsPanel ws={ws} designId={designId} revisions={revisions?.items ?? []} />
       </section>
+      </>)}
+      </ImportDrop>
     </main>
   );
 }

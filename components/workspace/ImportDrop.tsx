@@ -1,10 +1,13 @@
 "use client";
 /**
- * Bringing a design in on the workspace home: drop a truth table (.csv,
- * .tsv, .txt) or a Verilog module (.v) anywhere on the page, choose a file,
- * or paste cells copied from a spreadsheet. The server's import shows the
- * design source it would make, or every refusal with its row and column,
- * before anything is created.
+ * Bringing a design in: drop a truth table (.csv, .tsv, .txt) or a Verilog
+ * module (.v) anywhere on the page, choose a file, or paste cells copied
+ * from a spreadsheet. The server's import shows the design source it would
+ * make, or every refusal with its row and column, before anything changes.
+ *
+ * On the workspace home the result becomes a new design. On the workbench
+ * (`into`) it becomes the new draft of the open design: the editor takes it
+ * as one edit, so Ctrl+Z there (or the notice's Undo) brings the old text back.
  */
 import { useCallback, useEffect, useMemo, useState } from "react";
 import { useDropzone } from "react-dropzone";
@@ -45,7 +48,24 @@ function headerNames(text: string): string[] {
   return first.split(sep).map((c) => c.trim().replace(/^"(.*)"$/, "$1").trim()).filter(Boolean);
 }
 
-export function ImportDrop({ ws, children }: { ws: string; children: React.ReactNode }) {
+/** Where an import goes on the workbench: the draft of the open design. */
+export interface ImportInto {
+  designName: string;
+  /** Puts the imported source on screen as the new draft text. */
+  onUse: (source: string) => void;
+}
+
+/** What the workbench's own buttons may do with the drop zone. */
+export interface ImportControls {
+  chooseFile: () => void;
+  paste: () => void;
+}
+
+export function ImportDrop({ ws, into, children }: {
+  ws: string;
+  into?: ImportInto;
+  children: React.ReactNode | ((controls: ImportControls) => React.ReactNode);
+}) {
   const { data: wsData } = useSWR<{ workspace: WorkspaceInfo }>(`/api/v1/workspaces/${ws}`);
   const role = wsData?.workspace.role;
   const mayImport = role ? can(role, "design.edit") : false;
@@ -72,30 +92,46 @@ export function ImportDrop({ ws, children }: { ws: string; children: React.React
     disabled: !mayImport,
   });
 
-  if (!mayImport) return <>{children}</>;
+  const paste = () => { setReadError(null); setDraft({ text: "", kind: "csv", fileName: null, outputs: [], name: "" }); };
+  // Roles that may not edit (or before the role is known) get the page as it is, with controls that do nothing;
+  // the wrapper stays the same either way, so the page below is not mounted again when the role arrives.
+  const body = typeof children === "function"
+    ? children(mayImport ? { chooseFile: open, paste } : { chooseFile: () => {}, paste: () => {} })
+    : children;
   return (
     <div {...getRootProps({ className: "relative" })} data-testid="import-drop">
-      <input {...getInputProps({ "aria-label": "Choose a truth table or Verilog file" })} data-testid="import-file" />
-      {isDragActive && (
+      {mayImport && <input {...getInputProps({ "aria-label": "Choose a truth table or Verilog file" })} data-testid="import-file" />}
+      {mayImport && isDragActive && (
         <div className="pointer-events-none absolute inset-0 z-20 flex items-center justify-center rounded border-2 border-dashed border-accent bg-paper/90">
-          <p className="text-lg font-semibold text-accent">Drop the truth table or Verilog file to bring it in</p>
+          <p className="text-lg font-semibold text-accent">
+            {into ? `Drop the truth table or Verilog file to make it the draft of ${into.designName}` : "Drop the truth table or Verilog file to bring it in"}
+          </p>
         </div>
       )}
+      {!mayImport ? null : into ? (
+        readError && <p role="alert" className="mb-3 text-sm text-vermilion">{readError}</p>
+      ) : (
       <div className="mb-4 flex flex-wrap items-center gap-3 rounded border border-dashed border-rule bg-sheet px-3 py-2 text-sm">
         <span className="font-semibold">Bring a design in</span>
         <span className="text-graphite">Drop a truth table (.csv) or a Verilog module (.v) on this page, or</span>
         <button type="button" onClick={open} className="rounded border border-rule px-2 py-0.5 hover:border-ink">Choose a file…</button>
-        <button type="button" onClick={() => { setReadError(null); setDraft({ text: "", kind: "csv", fileName: null, outputs: [], name: "" }); }}
-          className="rounded border border-rule px-2 py-0.5 hover:border-ink">Paste cells…</button>
+        <button type="button" onClick={paste} className="rounded border border-rule px-2 py-0.5 hover:border-ink">Paste cells…</button>
         {readError && <p role="alert" className="w-full text-vermilion">{readError}</p>}
       </div>
-      {draft && <ImportPanel ws={ws} draft={draft} onChange={setDraft} onClose={() => setDraft(null)} />}
-      {children}
+      )}
+      {draft && <ImportPanel ws={ws} draft={draft} into={into} onChange={setDraft} onClose={() => setDraft(null)} />}
+      {body}
     </div>
   );
 }
 
-function ImportPanel({ ws, draft, onChange, onClose }: { ws: string; draft: Draft; onChange: (d: Draft) => void; onClose: () => void }) {
+function ImportPanel({ ws, draft, into, onChange, onClose }: {
+  ws: string;
+  draft: Draft;
+  into: ImportInto | undefined;
+  onChange: (d: Draft) => void;
+  onClose: () => void;
+}) {
   const { data: families } = useSWR<{ items: FamilyItem[] }>(`/api/v1/workspaces/${ws}/families`);
   const [familyId, setFamilyId] = useState<string>("");
   const [preview, setPreview] = useState<Preview | null>(null);
@@ -148,6 +184,7 @@ function ImportPanel({ ws, draft, onChange, onClose }: { ws: string; draft: Draf
 
   const stale = answered !== asked;
   const ready = !!preview?.source && !stale && draft.name.trim() !== "" && familyId !== "";
+  const readyInto = !!preview?.source && !stale;
 
   async function create() {
     setBusy(true);
@@ -255,6 +292,15 @@ function ImportPanel({ ws, draft, onChange, onClose }: { ws: string; draft: Draf
         </div>
       </div>
 
+      {into ? (
+        <div className="mt-4 flex flex-wrap items-center gap-2 border-t border-rule pt-3">
+          <button type="button" disabled={!readyInto} onClick={() => { if (preview?.source) { into.onUse(preview.source); onClose(); } }}
+            className="rounded bg-accent px-3 py-1.5 text-sm font-semibold text-paper disabled:opacity-50">
+            Make it the draft of {into.designName}
+          </button>
+          <span className="text-sm text-graphite">The text in the editor is replaced as one edit; Ctrl+Z in the editor brings it back. Revisions are not touched.</span>
+        </div>
+      ) : (
       <form className="mt-4 flex flex-wrap items-center gap-2 border-t border-rule pt-3" onSubmit={(e) => { e.preventDefault(); if (ready) void create(); }}>
         <input value={draft.name} onChange={(e) => onChange({ ...draft, name: e.target.value })} aria-label="Design name"
           placeholder="Design name, e.g. sluice alarm" className="min-w-[16rem] flex-1 rounded border border-rule bg-paper px-3 py-1.5 text-sm" />
@@ -267,6 +313,7 @@ function ImportPanel({ ws, draft, onChange, onClose }: { ws: string; draft: Draf
         </button>
         {createError && <p role="alert" className="w-full text-sm text-vermilion">{createError.message}</p>}
       </form>
+      )}
     </section>
   );
 }

@@ -21,7 +21,7 @@ describe("bringing designs in, in chromium", () => {
   });
 
   /** Drops a file on the workspace home as a person would: dragenter, dragover and drop with one DataTransfer. */
-  async function dropFile(name: string, text: string, type: string) {
+  async function dropFile(name: string, text: string, type: string, on = '[data-testid="design-table"]') {
     const dt = await s.page.evaluateHandle(
       ([n, t, ty]) => {
         const d = new DataTransfer();
@@ -30,7 +30,7 @@ describe("bringing designs in, in chromium", () => {
       },
       [name, text, type] as const,
     );
-    const target = s.page.locator('[data-testid="design-table"]');
+    const target = s.page.locator(on).first();
     await target.dispatchEvent("dragenter", { dataTransfer: dt });
     await target.dispatchEvent("dragover", { dataTransfer: dt });
     await target.dispatchEvent("drop", { dataTransfer: dt });
@@ -104,6 +104,39 @@ describe("bringing designs in, in chromium", () => {
     expect(last[0]).toBe("4095");
     expect(last[last.length - 1]).toBe("0");
     await screenshot(page, "workbench-truth-table-paged");
+  });
+
+  it("makes a Verilog file dropped on the workbench the new draft of the open design, kept over a reload and undoable", async () => {
+    const { page } = s;
+    // Still in the workbench of the imported sluice design, whose draft now holds the 12-input text.
+    const url = page.url();
+    const weir = readFileSync("lib/import/examples/weir-horn.v", "utf8");
+    await dropFile("weir-horn.v", weir, "text/plain", '[data-testid="editor"]');
+    await expect.poll(async () => (await page.locator('[data-testid="import-source"]').innerText()), { timeout: 15_000 })
+      .toContain("let blocked = sluice_open * flow'");
+    // The workbench asks no name or family: the import becomes this design's draft.
+    expect(await page.getByLabel("Design name").count()).toBe(0);
+    await screenshot(page, "workbench-import-preview");
+    await page.getByRole("button", { name: /^Make it the draft of / }).click();
+    await page.waitForSelector('[data-testid="import-used"]');
+    // The imported module is short, so every line is in view.
+    const editorText = async () => (await page.locator(".monaco-editor .view-lines").innerText()).replace(/\u00a0/g, " ");
+    await expect.poll(editorText, { timeout: 10_000 }).toContain("blocked");
+    // The draft reaches the server like typing does, so a reload shows it.
+    await expect.poll(() => page.locator('[data-testid="draft-state"]').getAttribute("data-status"), { timeout: 15_000 }).toBe("kept");
+    await screenshot(page, "workbench-import-used");
+    await page.goto(url);
+    await page.waitForSelector(".monaco-editor");
+    await expect.poll(editorText, { timeout: 15_000 }).toContain("blocked");
+
+    // A second import, then the previous text taken back.
+    await dropFile("weir-horn.v", weir.replace(/blocked/g, "held"), "text/plain", '[data-testid="editor"]');
+    await expect.poll(async () => (await page.locator('[data-testid="import-source"]').innerText()), { timeout: 15_000 }).toContain("let held");
+    await page.getByRole("button", { name: /^Make it the draft of / }).click();
+    await expect.poll(editorText, { timeout: 10_000 }).toContain("held");
+    await page.getByRole("button", { name: "Take the previous text back" }).click();
+    await expect.poll(editorText, { timeout: 10_000 }).toContain("blocked");
+    expect(await editorText()).not.toContain("held");
   });
 
   it("brings in a Verilog file through the file input, and pasted spreadsheet cells", async () => {
