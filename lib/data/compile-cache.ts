@@ -53,11 +53,15 @@ export async function cachedResult(key: string): Promise<CompileResult | null> {
   return rows[0]?.result ?? null;
 }
 
-/** Keeps a result; an exact one already kept under the key is not replaced by a later (possibly heuristic) one. */
-export async function keepResult(key: string, scope: string, result: CompileResult): Promise<void> {
+/**
+ * Keeps a result; an exact one already kept under the key is not replaced by a
+ * later (possibly heuristic) one. Answers the size of the result as kept, or
+ * `{ kept: false }` with its size when it is larger than MAX_CACHED_BYTES.
+ */
+export async function keepResult(key: string, scope: string, result: CompileResult): Promise<{ kept: boolean; bytes: number }> {
   const { exports: _e, ...kept } = result;
   const text = JSON.stringify({ ...kept, exports: {} });
-  if (text.length > MAX_CACHED_BYTES) return;
+  if (text.length > MAX_CACHED_BYTES) return { kept: false, bytes: text.length };
   await db().sequelize.query(
     `INSERT INTO compile_results (key, scope, result, bytes, created_at, used_at) VALUES ($1, $2, $3::jsonb, $4, now(), now())
      ON CONFLICT (key) DO UPDATE SET used_at = now(),
@@ -69,4 +73,5 @@ export async function keepResult(key: string, scope: string, result: CompileResu
   if (Math.random() < 0.01) {
     await db().sequelize.query(`DELETE FROM compile_results WHERE used_at < now() - interval '${CACHE_DAYS} days'`);
   }
+  return { kept: true, bytes: text.length };
 }

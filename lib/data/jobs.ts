@@ -10,7 +10,7 @@ import { db } from "../db/connection";
 import { AppError, forbidden, notFound } from "../errors";
 import { resultBody, type CompileSettings } from "../runtime/compile";
 import { prepare, resolveSettings, type PipelineError } from "../pipeline";
-import { cacheKey, cachedResult } from "./compile-cache";
+import { CACHE_DAYS, cacheKey, cachedResult } from "./compile-cache";
 import { enqueue, JOB_BUDGET_MS } from "../runtime/jobs";
 import { iso, requireAccess, type Actor } from "./access";
 import { boundaryFamilies, familyOf } from "./families";
@@ -62,6 +62,8 @@ const SELECT = `SELECT j.id, j.status, j.stage, j.cost, j.lower_bound, j.primes,
 
 async function view(r: Row, withResult: boolean): Promise<JobView> {
   const result = withResult && r.status === "done" ? await cachedResult(r.key) : null;
+  // Kept results unused for CACHE_DAYS are dropped; the job then says so instead of being done with nothing to show.
+  const gone = withResult && r.status === "done" && !result;
   return {
     id: r.id,
     status: r.status,
@@ -69,7 +71,9 @@ async function view(r: Row, withResult: boolean): Promise<JobView> {
     cost: r.cost,
     lowerBound: r.lower_bound,
     primes: r.primes,
-    error: r.error,
+    error: gone
+      ? { code: "limit", message: `The result of this compile is no longer kept (results unused for ${CACHE_DAYS} days are dropped).`, hint: "Compile the design again, or file the job again." }
+      : r.error,
     attempt: r.attempt,
     designId: r.design_id,
     createdBy: { id: r.user_id, name: r.user_name },

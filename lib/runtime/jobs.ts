@@ -11,7 +11,7 @@ import { hostname } from "node:os";
 import { QueryTypes } from "sequelize";
 import PgBoss from "pg-boss";
 import { db } from "../db/connection";
-import { keepResult } from "../data/compile-cache";
+import { keepResult, MAX_CACHED_BYTES } from "../data/compile-cache";
 import type { PipelineError, Progress, StageJob } from "../pipeline/stages";
 import type { CompilePool } from "./pool";
 
@@ -24,6 +24,7 @@ export const HEARTBEAT_MS = 2_000;
 export const STALE_AFTER_S = 15;
 /** A job is tried on at most this many workers before it is given up. */
 export const MAX_ATTEMPTS = 3;
+const MAX_CACHED_MIB = MAX_CACHED_BYTES / 1048576;
 
 const g = globalThis as unknown as { fanboundBoss?: Promise<PgBoss> };
 
@@ -93,8 +94,19 @@ export async function runJob(jobId: string, pool: CompilePool, worker = workerNa
   try {
     const out = await pool.executor(`job:${job.user_id}`, JOB_BUDGET_MS)(job.input, { signal: ctl.signal, onProgress });
     if (out.ok) {
-      await keepResult(job.key, `ws:${job.workspace_id}`, out.result);
+      const keep = await keepResult(job.key, `ws:${job.workspace_id}`, out.result);
       const { cost, lowerBound, primes } = out.result.covers;
+      if (!keep.kept) {
+        // A job is read back from the kept results; one too large to keep (or to show) is no result for the designer.
+        const gates = out.result.stats.gates;
+        await finish(job, worker, "failed", {
+          code: "limit",
+          what: `size of a kept result (${MAX_CACHED_MIB} MiB)`,
+          message: `The compile ran to the end, but its result (${gates.toLocaleString("en")} gates, ${(keep.bytes / 1048576).toFixed(0)} MiB) is larger than the ${MAX_CACHED_MIB} MiB a kept result may hold, so it cannot be shown.`,
+          hint: "Split the design into smaller blocks, or write wide exclusive-ors and comparisons as let steps and keep the factored structure.",
+        }, { cost, lowerBound, primes: primes >= 0 ? primes : null });
+        return "failed";
+      }
       await finish(job, worker, "done", null, { cost, lowerBound, primes: primes >= 0 ? primes : null });
       return "done";
     }

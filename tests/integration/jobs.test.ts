@@ -14,6 +14,9 @@ import { BUILT_IN_FAMILIES } from "@/lib/families";
 import { paritySource } from "@/lib/bench/sources";
 import { randomCase } from "@/lib/bench/cases";
 import type { FunctionSpec } from "@/lib/logic";
+import { QueryTypes } from "sequelize";
+import { keepResult, MAX_CACHED_BYTES } from "@/lib/data/compile-cache";
+import type { CompileResult } from "@/lib/pipeline";
 import { builtinFamily, call, makeUser, makeWorkspace, tag, type TestUser } from "./helpers";
 
 const workers: ChildProcess[] = [];
@@ -102,6 +105,26 @@ describe("compile jobs", () => {
     const again = await file(text);
     expect(again.json.job.status).toBe("done");
     expect(again.json.job.result.stats).toEqual(want.stats);
+  });
+
+  it("says so when a done job's result is no longer kept, and the store refuses a result over its size limit with its size", async () => {
+    const out = `vote_${tag()}`;
+    const r = await file(`inputs a, b, c\noutputs ${out}\n${out} = a * b + a * c + b * c\n`);
+    const done = await until(r.json.job.id, (j) => j.status === "done");
+    expect(done.result).not.toBeNull();
+    const { db } = await import("@/lib/db/connection");
+    const row = (await db().sequelize.query<{ key: string }>("SELECT key FROM compile_jobs WHERE id = $1", { bind: [r.json.job.id], type: QueryTypes.SELECT }))[0]!;
+    await db().sequelize.query("DELETE FROM compile_results WHERE key = $1", { bind: [row.key] });
+    const gone = (await read(r.json.job.id)).json.job as { result: unknown; error: { message: string; hint: string } };
+    expect(gone.result).toBeNull();
+    expect(gone.error.message).toContain("no longer kept");
+    expect(gone.error.hint).toContain("Compile the design again");
+
+    // A result one byte of text over the limit is not kept; the store answers its size (the job then fails with it).
+    const big = { ...(done.result as object), covers: { exact: false }, stats: { gates: 1 }, warnings: ["x".repeat(MAX_CACHED_BYTES)] };
+    const kept = await keepResult(`test-${tag()}`, `ws:${ws.id}`, big as unknown as CompileResult);
+    expect(kept.kept).toBe(false);
+    expect(kept.bytes).toBeGreaterThan(MAX_CACHED_BYTES);
   });
 
   it("is taken up by another worker when the one running it is killed", async () => {
