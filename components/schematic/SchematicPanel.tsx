@@ -1,5 +1,5 @@
 "use client";
-import { useMemo, useState } from "react";
+import { memo, useMemo, useState } from "react";
 import { coneSizes, outputCone, type DrawableNetlist } from "@/lib/export/cone";
 import { Schematic } from "./Schematic";
 
@@ -15,7 +15,7 @@ export const CONE_DRAWING_MAX_GATES = 200;
  * output depends on — with the nets entering from gates left out drawn as
  * dashed ports.
  */
-export function SchematicPanel({ netlist, critical, selected, onSelect, criticalOutput }: {
+function SchematicPanelView({ netlist, critical, selected, onSelect, criticalOutput }: {
   netlist: DrawableNetlist;
   critical: { nets: Set<string>; gates: Set<string> };
   selected: string | null;
@@ -57,3 +57,6 @@ export function SchematicPanel({ netlist, critical, selected, onSelect, critical
     </div>
   );
 }
+
+/** Drawn again only when its own inputs change, not at every keystroke in the editor. */
+export const SchematicPanel = memo(SchematicPanelView);

@@ -6,14 +6,14 @@ export function SiteHeader({ children }: { children?: React.ReactNode }) {
   return (
     <header className="border-b border-rule bg-sheet">
       <div className="page-frame flex h-12 items-center gap-6">
-        <Link href="/" className="flex items-center gap-2 font-semibold text-ink">
+        <Link prefetch={false} href="/" className="flex items-center gap-2 font-semibold text-ink">
           <span className="text-accent">
             <Mark />
           </span>
           Fanbound
         </Link>
         <nav className="flex items-center gap-4 text-sm text-graphite">
-          <Link href="/language" className="hover:text-ink">
+          <Link prefetch={false} href="/language" className="hover:text-ink">
             Language
           </Link>
         </nav>

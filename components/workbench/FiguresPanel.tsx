@@ -1,10 +1,11 @@
 "use client";
+import { memo } from "react";
 import type { Analysis } from "./types";
 import { fmtMw, fmtNs } from "@/components/workspace/format";
 import { VERDICT_WORDS } from "@/lib/families/compat";
 
 /** Counts, depth, delay and power, each estimate with its formula and the caution beside it. */
-export function FiguresPanel({ analysis }: { analysis: Analysis }) {
+function FiguresPanelView({ analysis }: { analysis: Analysis }) {
   const est = [
     { label: "Critical path delay", value: fmtNs(analysis.criticalPath.delay.value), e: analysis.criticalPath.delay },
     { label: "Static power", value: fmtMw(analysis.staticPower.value), e: analysis.staticPower },
@@ -86,3 +87,6 @@ export function FiguresPanel({ analysis }: { analysis: Analysis }) {
     </div>
   );
 }
+
+/** Drawn again only when its own inputs change, not at every keystroke in the editor. */
+export const FiguresPanel = memo(FiguresPanelView);

@@ -1,5 +1,5 @@
 "use client";
-import { useEffect, useMemo, useRef } from "react";
+import { memo, useEffect, useMemo, useRef } from "react";
 import { useVirtualizer } from "@tanstack/react-virtual";
 import type { Analysis, NetlistDocument } from "./types";
 
@@ -10,7 +10,7 @@ const ROW_PX = 28;
  * Only the rows in view are in the page, so a netlist of thousands of gates
  * scrolls without freezing it.
  */
-export function GateTable({ netlist, analysis, selected, onSelect, criticalGates }: {
+function GateTableView({ netlist, analysis, selected, onSelect, criticalGates }: {
   netlist: NetlistDocument;
   analysis: Analysis;
   selected: string | null;
@@ -77,3 +77,6 @@ export function GateTable({ netlist, analysis, selected, onSelect, criticalGates
     </div>
   );
 }
+
+/** Drawn again only when its own inputs change, not at every keystroke in the editor. */
+export const GateTable = memo(GateTableView);

@@ -116,7 +116,7 @@ function BehindBlock({ use: u, ws, source, familyId, settings, current, mayEdit,
           <span className="font-mono">r{newer.number}</span> (this design uses <span className="font-mono">r{u.revision}</span>) —{" "}
           <span className="text-graphite">{newer.message}</span>
         </span>
-        <Link href={`/w/${ws}/libraries/${u.libraryId}`} className="text-xs text-graphite hover:text-ink">{u.libraryName}</Link>
+        <Link prefetch={false} href={`/w/${ws}/libraries/${u.libraryId}`} className="text-xs text-graphite hover:text-ink">{u.libraryName}</Link>
         {mayEdit && (
           <button type="button" onClick={move} disabled={moved === null}
             title={moved !== null ? `Change “at ${u.revision}” to “at ${newer.number}” in the draft` : "The use line has changed since this compile"}

@@ -1,5 +1,5 @@
 "use client";
-import { useState } from "react";
+import { memo, useState } from "react";
 import type { MinimizeResult } from "./types";
 import { cubeToString } from "@/lib/logic";
 
@@ -9,7 +9,7 @@ export const EXPRESSION_SHOWN_CHARS = 4_000;
 export const CUBES_SHOWN = 500;
 
 /** The minimized equation of each output, with how sure we are of its optimality. */
-export function MinimizedPanel({ covers }: { covers: MinimizeResult }) {
+function MinimizedPanelView({ covers }: { covers: MinimizeResult }) {
   const n = covers.inputs.length;
   const gap = covers.cost - covers.lowerBound;
   return (
@@ -90,3 +90,6 @@ function CubeList({ cubes, n, inputs }: { cubes: MinimizeResult["outputs"][numbe
     </details>
   );
 }
+
+/** Drawn again only when its own inputs change, not at every keystroke in the editor. */
+export const MinimizedPanel = memo(MinimizedPanelView);

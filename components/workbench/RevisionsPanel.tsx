@@ -1,4 +1,5 @@
 "use client";
+import { memo } from "react";
 import Link from "next/link";
 import useSWR from "swr";
 import type { ReviewSummary, RevisionSummary } from "@/lib/client/types";
@@ -14,7 +15,7 @@ const formats = [
 ] as const;
 
 /** The design's revisions, newest first, with their figures, a chart and the downloads. */
-export function RevisionsPanel({ ws, designId, revisions }: { ws: string; designId: string; revisions: RevisionSummary[] }) {
+function RevisionsPanelView({ ws, designId, revisions }: { ws: string; designId: string; revisions: RevisionSummary[] }) {
   const base = `/api/v1/workspaces/${ws}/designs/${designId}/revisions`;
   const { data: reviews } = useSWR<{ items: ReviewSummary[] }>(`/api/v1/workspaces/${ws}/designs/${designId}/reviews`);
   // The newest review of each revision (the list comes newest first).
@@ -43,7 +44,7 @@ export function RevisionsPanel({ ws, designId, revisions }: { ws: string; design
             {revisions.map((r) => (
               <tr key={r.id} className="border-b border-rule/50 last:border-0" data-revision={r.number}>
                 <td className="px-2 py-1 font-mono">
-                  <Link href={`/w/${ws}/d/${designId}/r/${r.number}`} className="text-accent hover:underline">r{r.number}</Link>
+                  <Link prefetch={false} href={`/w/${ws}/d/${designId}/r/${r.number}`} className="text-accent hover:underline">r{r.number}</Link>
                 </td>
                 <td className="px-2 py-1">{r.message}</td>
                 <td className="px-2 py-1 text-graphite">{r.author.name}</td>
@@ -54,9 +55,9 @@ export function RevisionsPanel({ ws, designId, revisions }: { ws: string; design
                 <td className="px-2 py-1 text-right font-mono">{fmtNs(r.stats.delayNs as number | null | undefined)}</td>
                 <td className="whitespace-nowrap px-2 py-1 text-xs" data-testid="revision-review">
                   {reviewOf.has(r.number) && (
-                    <Link href={`${compare}?review=${reviewOf.get(r.number)!.id}`} className="mr-2"><StateBadge state={reviewOf.get(r.number)!.state} /></Link>
+                    <Link prefetch={false} href={`${compare}?review=${reviewOf.get(r.number)!.id}`} className="mr-2"><StateBadge state={reviewOf.get(r.number)!.state} /></Link>
                   )}
-                  {r.number > 1 && <Link href={`${compare}?from=${r.number - 1}&to=${r.number}`} className="text-accent hover:underline">compare</Link>}
+                  {r.number > 1 && <Link prefetch={false} href={`${compare}?from=${r.number - 1}&to=${r.number}`} className="text-accent hover:underline">compare</Link>}
                 </td>
                 <td className="whitespace-nowrap px-2 py-1 text-xs">
                   {formats.map(([f, label]) => (
@@ -80,3 +81,6 @@ export function RevisionsPanel({ ws, designId, revisions }: { ws: string; design
     </div>
   );
 }
+
+/** Drawn again only when its own inputs change, not at every keystroke in the editor. */
+export const RevisionsPanel = memo(RevisionsPanelView);

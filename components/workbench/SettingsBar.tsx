@@ -1,5 +1,5 @@
 "use client";
-import { useEffect, useState } from "react";
+import { memo, useEffect, useState } from "react";
 import type { FamilyItem } from "@/lib/client/types";
 import type { CostKind, TargetForm, WorkbenchSettings } from "./types";
 
@@ -23,7 +23,7 @@ const costs: Array<[CostKind, string, string]> = [
 const field = "rounded border border-rule bg-paper px-2 py-1 text-sm disabled:opacity-70";
 
 /** Family, target form, cost model and the electrical assumptions of one design. */
-export function SettingsBar({ families, familyId, onFamily, settings, onChange, readOnly }: {
+function SettingsBarView({ families, familyId, onFamily, settings, onChange, readOnly }: {
   families: FamilyItem[];
   familyId: string | undefined;
   onFamily: (id: string) => void;
@@ -181,3 +181,6 @@ function NumberField({ label, aria, width, readOnly, placeholder, value, rule, o
     </label>
   );
 }
+
+/** Drawn again only when its own inputs change, not at every keystroke in the editor. */
+export const SettingsBar = memo(SettingsBarView);

@@ -1,4 +1,5 @@
 "use client";
+import { memo } from "react";
 import type { StructureFigures } from "@/lib/api/compile-schema";
 import type { WorkbenchSettings } from "./types";
 import { fmtInt, fmtMw, fmtNs } from "@/components/workspace/format";
@@ -37,7 +38,7 @@ const ROWS: Row[] = [
  * choice of the one the revision keeps (settings.structure) and of what
  * factoring aims at (settings.aim). The smaller figure of each row is marked.
  */
-export function StructuresPanel({ structures, settings, onChange, readOnly }: {
+function StructuresPanelView({ structures, settings, onChange, readOnly }: {
   structures: StructureFigures[];
   settings: WorkbenchSettings;
   onChange: (s: WorkbenchSettings) => void;
@@ -120,3 +121,6 @@ export function StructuresPanel({ structures, settings, onChange, readOnly }: {
     </div>
   );
 }
+
+/** Drawn again only when its own inputs change, not at every keystroke in the editor. */
+export const StructuresPanel = memo(StructuresPanelView);

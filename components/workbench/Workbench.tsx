@@ -2,7 +2,7 @@
 import Link from "next/link";
 import dynamic from "next/dynamic";
 import { useRouter } from "next/navigation";
-import { useCallback, useEffect, useMemo, useState } from "react";
+import { useCallback, useEffect, useMemo, useRef, useState } from "react";
 import useSWR from "swr";
 import { api, ApiError } from "@/lib/client/fetcher";
 import { can } from "@/lib/auth/permissions";
@@ -24,7 +24,11 @@ import { LibraryNotice } from "./LibraryNotice";
 import { ImportDrop } from "@/components/workspace/ImportDrop";
 import { useLibraryCatalog, useLibraryResolver } from "./useLibraries";
 
-const EquationEditor = dynamic(() => import("@/components/editor/EquationEditor"), {
+// The editor's bundle (Monaco) is the largest part of the page: it starts loading with this module,
+// beside the design's data, rather than once the data has come and the editor is first drawn.
+const loadEditor = () => import("@/components/editor/EquationEditor");
+if (typeof window !== "undefined") void loadEditor();
+const EquationEditor = dynamic(loadEditor, {
   ssr: false,
   loading: () => <div className="h-full animate-pulse rounded border border-rule bg-sheet" />,
 });
@@ -111,7 +115,8 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
     onSaved: (answer) => void mutateDesign(answer as unknown as { design: DesignItem }, { revalidate: false }),
   });
 
-  const compile = useCompile(ws, source, familyId, settings);
+  const editedAt = useRef(0);
+  const compile = useCompile(ws, source, familyId, settings, editedAt);
   const catalog = useLibraryCatalog(ws);
   const resolveLibraries = useLibraryResolver(ws, tab === "table" ? source : null);
   // A compile run to the end as a job: its result stands for the text it was started from.
@@ -174,10 +179,15 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
     return result?.netlist.outputs.find((o) => o.net === last)?.name;
   }, [result]);
 
-  const selectGate = (id: string) => {
+  const selectGate = useCallback((id: string) => {
     setSelected(id);
     setTab("gates");
-  };
+  }, []);
+  const onEdit = useCallback((v: string) => {
+    editedAt.current = performance.now();
+    setSource(v);
+  }, []);
+  const noRevisions = useMemo<RevisionSummary[]>(() => [], []);
 
   if (designError) return <main className="page-frame py-8 text-vermilion" role="alert">{designError.message}</main>;
   const design = designData?.design;
@@ -195,7 +205,7 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
       <ImportDrop ws={ws} into={{ designName: design?.name ?? "this design", onUse: useImported }}>
       {(importer) => (<>
       <div className="mb-3 flex flex-wrap items-center gap-3">
-        <Link href={`/w/${ws}`} className="text-sm text-graphite hover:text-ink">← Designs</Link>
+        <Link prefetch={false} href={`/w/${ws}`} className="text-sm text-graphite hover:text-ink">← Designs</Link>
         <h1 className="text-xl font-semibold">{design?.name ?? "…"}</h1>
         <span className="text-sm text-graphite">
           {family?.name}
@@ -205,7 +215,7 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
           <CompileStatus phase={phase} onCancel={compile.cancel} onRetry={compile.retry} />
           {mayEdit && <DraftState status={draft.status} error={draft.error} />}
           {latest && (
-            <Link href={`/w/${ws}/d/${designId}/compare?from=${latest.number}&to=draft`} className="text-xs text-graphite hover:text-ink"
+            <Link prefetch={false} href={`/w/${ws}/d/${designId}/compare?from=${latest.number}&to=draft`} className="text-xs text-graphite hover:text-ink"
               title={`Compare the draft with r${latest.number}`}
               onClick={async (e) => {
                 // The comparison compiles the draft the server keeps: send what is typed first.
@@ -289,7 +299,7 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
           </div>
           <div className="min-h-[28rem] flex-1" data-testid="editor">
             {source !== null && (
-              <EquationEditor value={source} onChange={(v: string) => setSource(v)} readOnly={!mayEdit}
+              <EquationEditor value={source} onChange={onEdit} readOnly={!mayEdit}
                 diagnostics={diagnostics} height="100%" libraries={catalog} />
             )}
           </div>
@@ -359,7 +369,7 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
         {revisionsError && (
           <p role="alert" className="mb-2 text-sm text-vermilion">The revisions could not be loaded: {revisionsError.message}</p>
         )}
-        <RevisionsPanel ws={ws} designId={designId} revisions={revisions?.items ?? []} />
+        <RevisionsPanel ws={ws} designId={designId} revisions={revisions?.items ?? noRevisions} />
       </section>
       </>)}
       </ImportDrop>

@@ -6,16 +6,6 @@ import type { CompileResponse, WorkbenchSettings } from "./types";
 /** Quiet time after the last keystroke before the source is compiled, ms. */
 export const COMPILE_PAUSE_MS = 200;
 
-/** The value after it has stopped changing for `ms` milliseconds. Give it a string or number: an object made anew each render never settles. */
-export function useDebounced<T extends string | number | boolean | null | undefined>(value: T, ms: number): T {
-  const [v, setV] = useState(value);
-  useEffect(() => {
-    const t = setTimeout(() => setV(value), ms);
-    return () => clearTimeout(t);
-  }, [value, ms]);
-  return v;
-}
-
 export interface CompileState {
   /** The last answer; kept while a newer compile runs, dropped when a newer one fails or is stopped. */
   data: CompileResponse | null;
@@ -38,22 +28,22 @@ export interface CompileState {
  * server stops that run with it. Nothing is cached by text, so a long session
  * does not pile up old results.
  */
-export function useCompile(ws: string, source: string | null, familyId: string | undefined, settings: WorkbenchSettings): CompileState {
+export function useCompile(ws: string, source: string | null, familyId: string | undefined, settings: WorkbenchSettings,
+  /** When the text last changed (performance.now()), set by the editor's change handler: the pause counts from the keystroke, not from the render that followed it. */
+  editedAt?: { readonly current: number }): CompileState {
   const key = source !== null && familyId ? JSON.stringify([source, familyId, settings]) : null;
-  const settled = useDebounced(key, COMPILE_PAUSE_MS);
-  const [state, setState] = useState<{ data: CompileResponse | null; dataKey: string | null; error: ApiError | Error | null; running: string | null; cancelled: boolean }>(
-    { data: null, dataKey: null, error: null, running: null, cancelled: false },
+  const [state, setState] = useState<{ data: CompileResponse | null; dataKey: string | null; error: ApiError | Error | null; running: string | null; asked: string | null; cancelled: boolean }>(
+    { data: null, dataKey: null, error: null, running: null, asked: null, cancelled: false },
   );
   const [attempt, setAttempt] = useState(0);
   const controller = useRef<AbortController | null>(null);
 
-  useEffect(() => {
-    if (!settled) return;
-    const [src, fam, s] = JSON.parse(settled) as [string, string, WorkbenchSettings];
+  // The request leaves from the pause's timer itself: no render of the page stands between the pause and the compile.
+  const start = useCallback((asked: string) => {
+    const [src, fam, s] = JSON.parse(asked) as [string, string, WorkbenchSettings];
     controller.current?.abort();
     const c = new AbortController();
     controller.current = c;
-    setState((st) => ({ ...st, running: settled, cancelled: false }));
     api<CompileResponse>("/api/v1/compile", {
       method: "POST",
       json: { source: src, workspace: ws, familyId: fam, settings: s },
@@ -62,23 +52,40 @@ export function useCompile(ws: string, source: string | null, familyId: string |
       (data) => {
         if (c.signal.aborted) return;
         // A wide result renders in slices: typing and Cancel stay responsive meanwhile.
-        startTransition(() => setState({ data, dataKey: settled, error: null, running: null, cancelled: false }));
+        startTransition(() => setState((st) => ({ ...st, data, dataKey: asked, error: null, running: null, cancelled: false })));
       },
       (e: unknown) => {
         if (c.signal.aborted) return;
-        setState({ data: null, dataKey: settled, error: e instanceof Error ? e : new Error(String(e)), running: null, cancelled: false });
+        setState((st) => ({ ...st, data: null, dataKey: asked, error: e instanceof Error ? e : new Error(String(e)), running: null, cancelled: false }));
       },
     );
-    return () => c.abort();
-  }, [settled, ws, attempt]);
+    setState((st) => ({ ...st, running: asked, asked, cancelled: false }));
+  }, [ws]);
+
+  // The text asked last, on which attempt, and whether it was stopped: a text typed away and back is not asked again.
+  const last = useRef<{ key: string | null; attempt: number; stopped: boolean }>({ key: null, attempt: -1, stopped: false });
+  useEffect(() => {
+    if (!key) return;
+    const l = last.current;
+    if (l.key === key && l.attempt === attempt && !l.stopped) return;
+    const since = editedAt ? performance.now() - editedAt.current : 0;
+    const t = setTimeout(() => {
+      last.current = { key, attempt, stopped: false };
+      start(key);
+    }, Math.max(0, COMPILE_PAUSE_MS - Math.max(0, since)));
+    return () => clearTimeout(t);
+  }, [key, start, attempt, editedAt]);
+  // Leaving the page stops the compile under way.
+  useEffect(() => () => controller.current?.abort(), []);
 
   const cancel = useCallback(() => {
     controller.current?.abort();
+    last.current.stopped = true;
     setState((st) => ({ ...st, data: null, running: null, cancelled: true }));
   }, []);
   const retry = useCallback(() => setAttempt((a) => a + 1), []);
 
-  const waiting = key !== settled;
+  const waiting = key !== state.asked;
   return {
     data: state.data,
     dataKey: state.dataKey,

@@ -6,13 +6,15 @@ import type { WorkspaceInfo } from "@/lib/client/types";
 import { RoleBadge } from "@/components/ui/RoleBadge";
 import { can } from "@/lib/auth/permissions";
 
+// Links on the workspace pages do not prefetch: a dozen route prefetches at load would queue ahead of
+// the editor's bundle and the design's data on the browser's few connections to the server.
 export function WorkspaceNav({ ws }: { ws: string }) {
   const { data } = useSWR<{ workspace: WorkspaceInfo }>(`/api/v1/workspaces/${ws}`);
   const { data: reviews } = useSWR<{ waitingForMe: unknown[] }>(`/api/v1/workspaces/${ws}/reviews`, { refreshInterval: 60_000 });
   const waiting = reviews?.waitingForMe.length ?? 0;
   const path = usePathname();
   const link = (href: string, label: string) => (
-    <Link href={href} className={path === href ? "text-ink" : "hover:text-ink"} aria-current={path === href ? "page" : undefined}>
+    <Link prefetch={false} href={href} className={path === href ? "text-ink" : "hover:text-ink"} aria-current={path === href ? "page" : undefined}>
       {label}
     </Link>
   );

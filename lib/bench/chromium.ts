@@ -16,20 +16,30 @@ export interface ChromiumSession {
   close(): Promise<void>;
 }
 
-export async function launchChromium(): Promise<ChromiumSession> {
+/**
+ * `keepCache`: Playwright's request routing turns the browser's HTTP cache off, so a "warm" page load would
+ * fetch every script again. With it, requests outside 127.0.0.1 are stopped by the browser's own host
+ * resolver instead (every other host resolves to nothing) and listed by watching requests, and the cache works
+ * as it does for a designer.
+ */
+export async function launchChromium({ keepCache = false }: { keepCache?: boolean } = {}): Promise<ChromiumSession> {
   const profile = mkdtempSync(path.join(tmpdir(), "fanbound-chromium-"));
   const context = await chromium.launchPersistentContext(profile, {
     executablePath: "/usr/bin/chromium",
     headless: true,
     viewport: { width: 1360, height: 860 },
     args: ["--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
-      "--disable-background-networking", "--disable-component-update", "--disable-sync"],
+      "--disable-background-networking", "--disable-component-update", "--disable-sync",
+      ...(keepCache ? ["--host-resolver-rules=MAP * ~NOTFOUND, EXCLUDE 127.0.0.1"] : [])],
   });
   const outside: string[] = [];
-  await context.route("**/*", (route) => {
-    const url = new URL(route.request().url());
-    const local = url.protocol === "data:" || url.protocol === "blob:" || url.hostname === "127.0.0.1";
-    if (local) return route.continue();
+  const isLocal = (u: string) => {
+    const url = new URL(u);
+    return url.protocol === "data:" || url.protocol === "blob:" || url.hostname === "127.0.0.1";
+  };
+  if (keepCache) context.on("request", (r) => { if (!isLocal(r.url())) outside.push(r.url()); });
+  else await context.route("**/*", (route) => {
+    if (isLocal(route.request().url())) return route.continue();
     outside.push(route.request().url());
     return route.abort();
   });

@@ -18,7 +18,7 @@ export default async function WorkspaceLayout({ children, params }: { children: 
   return (
     <Providers>
       <SiteHeader>
-        <Link href="/account" className="text-graphite hover:text-ink">
+        <Link prefetch={false} href="/account" className="text-graphite hover:text-ink">
           {session?.user?.email}
         </Link>
         <SignOutButton />
