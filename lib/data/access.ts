@@ -44,13 +44,17 @@ export interface Access {
 /** Loads the workspace and the caller's role; throws 401/404/403 as fits. */
 export async function requireAccess(actor: Actor | null | undefined, slug: string, action: Action): Promise<Access> {
   if (!actor?.userId) throw unauthenticated();
-  const { Workspace, Membership } = db().models;
-  const workspace = await Workspace.findOne({ where: { slug } });
+  const { Workspace } = db().models;
+  // One statement for the workspace and the caller's role: every workspace request starts here.
+  const rows = await db().sequelize.query(
+    `SELECT w.*, m.role AS member_role FROM workspaces w JOIN memberships m ON m.workspace_id = w.id AND m.user_id = $2 WHERE w.slug = $1`,
+    { bind: [slug, actor.userId], model: Workspace, mapToModel: true },
+  );
+  const workspace = rows[0];
   if (!workspace) throw notFound("workspace");
-  const m = await Membership.findOne({ where: { workspaceId: workspace.id, userId: actor.userId } });
-  if (!m) throw notFound("workspace");
-  if (!can(m.role, action)) throw forbidden(ACTION_WORDS[action]);
-  return { workspace, role: m.role };
+  const role = workspace.get("member_role") as Role;
+  if (!can(role, action)) throw forbidden(ACTION_WORDS[action]);
+  return { workspace, role };
 }
 
 /** The caller must be signed in; returns the user id. */

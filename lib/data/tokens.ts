@@ -3,7 +3,7 @@ import "server-only";
  * Personal API tokens: the secret is shown once at creation; the database
  * keeps its SHA-256 and a short prefix by which the owner recognises it.
  */
-import { Op } from "sequelize";
+import { QueryTypes } from "sequelize";
 import { db } from "../db/connection";
 import { randomSecret, sha256 } from "../auth/secrets";
 import { invalid, notFound } from "../errors";
@@ -81,14 +81,16 @@ export async function revokeToken(p: { actor: Actor | null; id: string }): Promi
 /** The user id of a live (unrevoked, unexpired) token, or null. Notes when it was last used. */
 export async function resolveApiToken(secret: string): Promise<string | null> {
   if (!secret.startsWith("fb_") || secret.length > 200) return null;
-  const { ApiToken } = db().models;
-  const row = await ApiToken.findOne({
-    where: { tokenHash: sha256(secret), revokedAt: { [Op.is]: null }, expiresAt: { [Op.gt]: new Date() } },
-  });
+  // A plain statement: every request with a token starts here.
+  const rows = await db().sequelize.query<{ id: string; user_id: string; last_used_at: Date | null }>(
+    "SELECT id, user_id, last_used_at FROM api_tokens WHERE token_hash = $1 AND revoked_at IS NULL AND expires_at > now()",
+    { bind: [sha256(secret)], type: QueryTypes.SELECT },
+  );
+  const row = rows[0];
   if (!row) return null;
   // Once a minute is precise enough and spares a write per request.
-  if (!row.lastUsedAt || Date.now() - row.lastUsedAt.getTime() > 60_000) {
-    await ApiToken.update({ lastUsedAt: new Date() }, { where: { id: row.id } });
+  if (!row.last_used_at || Date.now() - new Date(row.last_used_at).getTime() > 60_000) {
+    await db().sequelize.query("UPDATE api_tokens SET last_used_at = now() WHERE id = $1", { bind: [row.id], type: QueryTypes.UPDATE });
   }
-  return row.userId;
+  return row.user_id;
 }
