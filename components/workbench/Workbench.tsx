@@ -136,7 +136,15 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
       setJobError(e instanceof ApiError ? e.message : String(e));
     }
   }, [ws, source, familyId, settings, designId]);
-  const shown: CompileResponse | null = jobResult && compile.data ? { ...compile.data, result: jobResult } : compile.data;
+  // A job's result stands for the text even when the interactive compile was stopped and left nothing
+  // (the job was filed only for a source without errors, so there is nothing to note beside it).
+  const jobFamily = families?.items.find((f) => f.id === familyId);
+  const shown: CompileResponse | null = !jobResult
+    ? compile.data
+    : compile.data
+      ? { ...compile.data, result: jobResult }
+      : { diagnostics: [], libraries: [], result: jobResult, cached: false,
+          family: { id: familyId ?? "", key: jobFamily?.key ?? "", name: jobFamily?.name ?? "" } };
   const result = shown?.result ?? null;
   const diagnostics = shown?.diagnostics ?? [];
   const errors = diagnostics.filter((d) => d.severity === "error").length;
@@ -488,11 +496,11 @@ function StopNotice({ phase, onRetry, onRunToEnd, runError }: {
       ) : phase.kind === "failed" ? (
         <p>The compile failed: {phase.message}</p>
       ) : (
-        <p>You stopped the compile; the results below are empty until it runs again.</p>
+        <p>You stopped the compile; the results below are empty until it runs again, here or in the background.</p>
       )}
       <div className="mt-2 flex gap-2">
         <button type="button" onClick={onRetry} className="rounded border border-rule bg-paper px-2 py-0.5 text-xs hover:border-ink">Run again</button>
-        {phase.kind === "limit" && (
+        {(phase.kind === "limit" || phase.kind === "stopped") && (
           <button type="button" onClick={onRunToEnd} className="rounded bg-accent px-2 py-0.5 text-xs font-semibold text-paper"
             title="A job worker runs the compile without the interactive time limit; you can follow it here, leave and come back.">
             Run to the end in the background

@@ -36,6 +36,10 @@ export function useCompile(ws: string, source: string | null, familyId: string |
     { data: null, dataKey: null, error: null, running: null, asked: null, cancelled: false },
   );
   const [attempt, setAttempt] = useState(0);
+  const keyRef = useRef(key);
+  keyRef.current = key;
+  const attemptRef = useRef(attempt);
+  attemptRef.current = attempt;
   const controller = useRef<AbortController | null>(null);
 
   // The request leaves from the pause's timer itself: no render of the page stands between the pause and the compile.
@@ -62,25 +66,33 @@ export function useCompile(ws: string, source: string | null, familyId: string |
     setState((st) => ({ ...st, running: asked, asked, cancelled: false }));
   }, [ws]);
 
-  // The text asked last, on which attempt, and whether it was stopped: a text typed away and back is not asked again.
-  const last = useRef<{ key: string | null; attempt: number; stopped: boolean }>({ key: null, attempt: -1, stopped: false });
+  // The text asked (or stopped) last, on which attempt: a text typed away and back is not asked again, and a
+  // stopped one runs again only on Run again or when it changes.
+  const last = useRef<{ key: string | null; attempt: number }>({ key: null, attempt: -1 });
+  // The pause's timer, so that Cancel pressed during the pause stops the compile before it is sent.
+  const pause = useRef<ReturnType<typeof setTimeout> | null>(null);
   useEffect(() => {
     if (!key) return;
     const l = last.current;
-    if (l.key === key && l.attempt === attempt && !l.stopped) return;
+    if (l.key === key && l.attempt === attempt) return;
     const since = editedAt ? performance.now() - editedAt.current : 0;
     const t = setTimeout(() => {
-      last.current = { key, attempt, stopped: false };
+      pause.current = null;
+      last.current = { key, attempt };
       start(key);
     }, Math.max(0, COMPILE_PAUSE_MS - Math.max(0, since)));
+    pause.current = t;
     return () => clearTimeout(t);
   }, [key, start, attempt, editedAt]);
   // Leaving the page stops the compile under way.
   useEffect(() => () => controller.current?.abort(), []);
 
   const cancel = useCallback(() => {
+    if (pause.current) clearTimeout(pause.current);
+    pause.current = null;
     controller.current?.abort();
-    last.current.stopped = true;
+    // The text on screen counts as asked and stopped: it runs again on Run again, or when it changes.
+    last.current = { key: keyRef.current, attempt: attemptRef.current };
     setState((st) => ({ ...st, data: null, running: null, cancelled: true }));
   }, []);
   const retry = useCallback(() => setAttempt((a) => a + 1), []);

@@ -99,7 +99,9 @@ export function ImportDrop({ ws, into, children }: {
     ? children(mayImport ? { chooseFile: open, paste } : { chooseFile: () => {}, paste: () => {} })
     : children;
   return (
-    <div {...getRootProps({ className: "relative" })} data-testid="import-drop">
+    // The drop zone marks its root aria-disabled while it is off (roles that may not edit): that would tell
+    // assistive technology (and the browser tests) that the whole page inside it is disabled, so it is dropped.
+    <div {...getRootProps({ className: "relative" })} aria-disabled={undefined} data-testid="import-drop">
       {mayImport && <input {...getInputProps({ "aria-label": "Choose a truth table or Verilog file" })} data-testid="import-file" />}
       {mayImport && isDragActive && (
         <div className="pointer-events-none absolute inset-0 z-20 flex items-center justify-center rounded border-2 border-dashed border-accent bg-paper/90">
