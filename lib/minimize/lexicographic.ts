@@ -6,7 +6,7 @@
  */
 import { popcount } from "../logic";
 import { PRODUCT_WEIGHT, boundFromSurrogate, needsGate } from "./cost";
-import { type RowColumns, solveCover } from "./cover";
+import { DEFAULT_TUNING, type RowColumns, solveCover } from "./cover";
 import { BufferPool } from "./lp";
 import type { CoveringProblem, ExactSettings } from "./problem";
 import type { Reporter } from "./progress";
@@ -69,7 +69,13 @@ export function lexicographicCover(prob: CoveringProblem, model: CostModel, sett
   // One root LP over the combined weight first: when its rounding meets its bound the cover is
   // lexicographically minimum as well, provided no cover with fewer products can make up the product
   // weight in literals (PRODUCT_WEIGHT ≥ most literals × products + wires).
-  const s0 = solveCover({ colRows, weight, rowCount, deadline, rootOnly: true, rowCols: rc, tuning, pool });
+  // A core of more than twice the rows the root-only search solves the LP of gets no LP there (the root's
+  // reductions take 5 to 15 % of a large random core's rows, not half): that search, whose reductions alone
+  // cost such a core time better spent below, is not run (random 14-input functions: 6500 core rows, 0.6 s).
+  const rootOnlyMaxRows = (tuning ?? DEFAULT_TUNING).rootOnlyMaxRows;
+  const s0 = coreRows(colRows, rc, rowCount) > ROOT_ONLY_REACH * rootOnlyMaxRows
+    ? { chosen: [], weight: Infinity, lowerBound: 0, exact: false, cuts: undefined }
+    : solveCover({ colRows, weight, rowCount, deadline, rootOnly: true, rowCols: rc, tuning, pool });
   if (Number.isFinite(s0.weight)) combinedProgress?.(s0.weight, s0.lowerBound);
   let mostLits = 1;
   for (let c = 0; c < lits.length; c++) if (lits[c]! > mostLits) mostLits = lits[c]!;
@@ -115,6 +121,23 @@ export function lexicographicCover(prob: CoveringProblem, model: CostModel, sett
   // products bound times the product weight (literals add nothing to the bound).
   const lb = s1.exact && s2.exact ? w : Math.min(w, s1.lowerBound * PRODUCT_WEIGHT);
   return { chosen, weight: w, lowerBound: lb, exact: s1.exact && s2.exact };
+}
+
+/** How many times the rows the root-only search solves the LP of a core may have before that search is not run (see rootOnlyMaxRows). */
+const ROOT_ONLY_REACH = 2;
+
+/** Rows the sparse essentials (sole columns of some row) leave uncovered. */
+function coreRows(colRows: Int32Array[], rc: RowColumns, rowCount: number): number {
+  const { start, cols } = rc;
+  const covered = new Uint8Array(rowCount);
+  for (let r = 0; r < rowCount; r++) {
+    if (start[r + 1]! - start[r]! !== 1) continue;
+    const rs = colRows[cols[start[r]!]!]!;
+    for (let i = 0; i < rs.length; i++) covered[rs[i]!] = 1;
+  }
+  let left = 0;
+  for (let r = 0; r < rowCount; r++) left += 1 - covered[r]!;
+  return left;
 }
 
 /**
