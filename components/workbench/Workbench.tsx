@@ -33,6 +33,9 @@ const EquationEditor = dynamic(loadEditor, {
   loading: () => <div className="h-full animate-pulse rounded border border-rule bg-sheet" />,
 });
 
+/** One empty list for every render before the revisions load, so the memoized panel is not drawn again for a new []. */
+const NO_REVISIONS: RevisionSummary[] = [];
+
 type Tab = "minimized" | "gates" | "figures" | "notes" | "table";
 
 /** A short start in the Ferrow scenario, offered on an empty draft. */
@@ -138,13 +141,13 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
   }, [ws, source, familyId, settings, designId]);
   // A job's result stands for the text even when the interactive compile was stopped and left nothing
   // (the job was filed only for a source without errors, so there is nothing to note beside it).
-  const jobFamily = families?.items.find((f) => f.id === familyId);
+  const family = families?.items.find((f) => f.id === familyId);
   const shown: CompileResponse | null = !jobResult
     ? compile.data
     : compile.data
       ? { ...compile.data, result: jobResult }
       : { diagnostics: [], libraries: [], result: jobResult, cached: false,
-          family: { id: familyId ?? "", key: jobFamily?.key ?? "", name: jobFamily?.name ?? "" } };
+          family: { id: familyId ?? "", key: family?.key ?? "", name: family?.name ?? "" } };
   const result = shown?.result ?? null;
   const diagnostics = shown?.diagnostics ?? [];
   const errors = diagnostics.filter((d) => d.severity === "error").length;
@@ -195,22 +198,20 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
     editedAt.current = performance.now();
     setSource(v);
   }, []);
-  const noRevisions = useMemo<RevisionSummary[]>(() => [], []);
 
   if (designError) return <main className="page-frame py-8 text-vermilion" role="alert">{designError.message}</main>;
   const design = designData?.design;
   const latest = revisions?.items[0];
-  const family = families?.items.find((f) => f.id === familyId);
   const stale = phase.kind === "compiling" && !!result;
 
-  const useImported = (imported: string) => {
+  const takeImported = (imported: string) => {
     setBeforeImport(source ?? "");
     setSource(imported);
   };
 
   return (
     <main className="page-frame py-4">
-      <ImportDrop ws={ws} into={{ designName: design?.name ?? "this design", onUse: useImported }}>
+      <ImportDrop ws={ws} into={{ designName: design?.name ?? "this design", onUse: takeImported }}>
       {(importer) => (<>
       <div className="mb-3 flex flex-wrap items-center gap-3">
         <Link prefetch={false} href={`/w/${ws}`} className="text-sm text-graphite hover:text-ink">← Designs</Link>
@@ -377,7 +378,7 @@ export function Workbench({ ws, designId }: { ws: string; designId: string }) {
         {revisionsError && (
           <p role="alert" className="mb-2 text-sm text-vermilion">The revisions could not be loaded: {revisionsError.message}</p>
         )}
-        <RevisionsPanel ws={ws} designId={designId} revisions={revisions?.items ?? noRevisions} />
+        <RevisionsPanel ws={ws} designId={designId} revisions={revisions?.items ?? NO_REVISIONS} />
       </section>
       </>)}
       </ImportDrop>

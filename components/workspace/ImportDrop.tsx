@@ -7,7 +7,7 @@
  *
  * On the workspace home the result becomes a new design. On the workbench
  * (`into`) it becomes the new draft of the open design: the editor takes it
- * as one edit, so Ctrl+Z there (or the notice's Undo) brings the old text back.
+ * as one edit, so Ctrl+Z there (or the workbench's "Take the previous text back") brings the old text back.
  */
 import { useCallback, useEffect, useMemo, useState } from "react";
 import { useDropzone } from "react-dropzone";
@@ -134,7 +134,8 @@ function ImportPanel({ ws, draft, into, onChange, onClose }: {
   onChange: (d: Draft) => void;
   onClose: () => void;
 }) {
-  const { data: families } = useSWR<{ items: FamilyItem[] }>(`/api/v1/workspaces/${ws}/families`);
+  // Only a new design asks for a family; the workbench's draft keeps its own.
+  const { data: families } = useSWR<{ items: FamilyItem[] }>(into ? null : `/api/v1/workspaces/${ws}/families`);
   const [familyId, setFamilyId] = useState<string>("");
   const [preview, setPreview] = useState<Preview | null>(null);
   const [previewError, setPreviewError] = useState<string | null>(null);
